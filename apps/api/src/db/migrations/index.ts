@@ -1,0 +1,11 @@
+import type { MigrationContext } from '../umzug.js';
+import * as foundation from './20261201-0001-foundation.js';
+
+type Migration = {
+  name: string;
+  up: (ctx: MigrationContext) => Promise<void>;
+  down: (ctx: MigrationContext) => Promise<void>;
+};
+
+/** Append-only, in order. A migration's name never changes once it has run anywhere. */
+export const migrations: Migration[] = [{ name: '20261201-0001-foundation', ...foundation }];

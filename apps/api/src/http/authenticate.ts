@@ -1,0 +1,37 @@
+import type { NextFunction, Request, Response } from 'express';
+import type { AppAbility, Principal } from '@kerfline/domain/authz/ability';
+import { AppError } from '../errors.js';
+import { loadSignedIn, type SignedIn } from '../modules/auth/auth.service.js';
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    interface User {
+      id: string;
+    }
+  }
+}
+
+/**
+ * Requires a signed-in, active user and puts who they are and what they may do on `res.locals`, rebuilt from
+ * the database on every request so a change of role or sites takes effect at once.
+ */
+export async function requireSignIn(req: Request, res: Response, next: NextFunction): Promise<void> {
+  const userId = req.user?.id;
+  const signedIn = userId ? await loadSignedIn(userId) : null;
+  if (!signedIn) throw new AppError('UNAUTHENTICATED', 'Sign in to continue');
+  res.locals.signedIn = signedIn;
+  next();
+}
+
+export function signedInOf(res: Response): SignedIn {
+  return res.locals.signedIn as SignedIn;
+}
+
+export function abilityOf(res: Response): AppAbility {
+  return signedInOf(res).ability;
+}
+
+export function principalOf(res: Response): Principal {
+  return signedInOf(res).principal;
+}

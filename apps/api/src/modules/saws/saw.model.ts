@@ -1,0 +1,57 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import type { SawKind, SawStatus } from '@kerfline/domain/saws/schema';
+
+/** Lengths in millimetres, band speeds in metres per minute. */
+export class Saw extends Model<InferAttributes<Saw>, InferCreationAttributes<Saw>> {
+  declare id: CreationOptional<string>;
+  declare siteId: string;
+  declare assetTag: string;
+  declare name: string;
+  declare kind: SawKind;
+  declare make: string | null;
+  declare model: string | null;
+  declare wheelDiameterMm: number;
+  declare centreDistanceMm: number;
+  declare bandWidthMm: number;
+  declare bandThicknessMm: number;
+  declare bandLengthMm: number;
+  declare bandSpeedMinMPerMin: number;
+  declare bandSpeedMaxMPerMin: number;
+  declare capacityRoundMm: number | null;
+  declare capacityRectWidthMm: number | null;
+  declare capacityRectHeightMm: number | null;
+  declare status: CreationOptional<SawStatus>;
+  declare retiredAt: Date | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize): void {
+    const mm = (allowNull = false) => ({ type: DataTypes.DOUBLE, allowNull });
+    Saw.init(
+      {
+        id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
+        siteId: { type: DataTypes.UUID, allowNull: false },
+        assetTag: { type: DataTypes.TEXT, allowNull: false },
+        name: { type: DataTypes.TEXT, allowNull: false },
+        kind: { type: DataTypes.TEXT, allowNull: false },
+        make: { type: DataTypes.TEXT, allowNull: true },
+        model: { type: DataTypes.TEXT, allowNull: true },
+        wheelDiameterMm: mm(),
+        centreDistanceMm: mm(),
+        bandWidthMm: mm(),
+        bandThicknessMm: mm(),
+        bandLengthMm: mm(),
+        bandSpeedMinMPerMin: { ...mm(), field: 'band_speed_min_m_per_min' },
+        bandSpeedMaxMPerMin: { ...mm(), field: 'band_speed_max_m_per_min' },
+        capacityRoundMm: mm(true),
+        capacityRectWidthMm: mm(true),
+        capacityRectHeightMm: mm(true),
+        status: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'in_service' },
+        retiredAt: { type: DataTypes.DATE, allowNull: true },
+        createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, modelName: 'Saw', tableName: 'saws' },
+    );
+  }
+}

@@ -1,0 +1,116 @@
+import { ForbiddenError, subject } from '@casl/ability';
+import { Op, type WhereOptions } from 'sequelize';
+import type { AppAbility } from '@kerfline/domain/authz/ability';
+import {
+  sawRangeIssues,
+  type Saw as SawDto,
+  type SawCreateParsed,
+  type SawListQuery,
+  type SawUpdate,
+} from '@kerfline/domain/saws/schema';
+import type { Page } from '@kerfline/domain/common/schema';
+import { scopedWhere } from '../../authz/sequelize-scope.js';
+import { AppError } from '../../errors.js';
+import { Saw } from './saw.model.js';
+import { Site } from '../sites/site.model.js';
+
+export function toSawDto(saw: Saw): SawDto {
+  const s = saw.get({ plain: true });
+  return {
+    id: s.id,
+    siteId: s.siteId,
+    assetTag: s.assetTag,
+    name: s.name,
+    kind: s.kind,
+    make: s.make,
+    model: s.model,
+    wheelDiameterMm: s.wheelDiameterMm,
+    centreDistanceMm: s.centreDistanceMm,
+    bandWidthMm: s.bandWidthMm,
+    bandThicknessMm: s.bandThicknessMm,
+    bandLengthMm: s.bandLengthMm,
+    bandSpeedMinMPerMin: s.bandSpeedMinMPerMin,
+    bandSpeedMaxMPerMin: s.bandSpeedMaxMPerMin,
+    capacityRoundMm: s.capacityRoundMm,
+    capacityRectWidthMm: s.capacityRectWidthMm,
+    capacityRectHeightMm: s.capacityRectHeightMm,
+    status: s.status,
+    retiredAt: s.retiredAt ? s.retiredAt.toISOString() : null,
+    createdAt: s.createdAt.toISOString(),
+    updatedAt: s.updatedAt.toISOString(),
+  };
+}
+
+export async function listSaws(ability: AppAbility, q: SawListQuery): Promise<Page<SawDto>> {
+  const filter: WhereOptions[] = [];
+  if (q.siteId) filter.push({ siteId: q.siteId });
+  if (q.kind) filter.push({ kind: q.kind });
+  if (q.status) filter.push({ status: q.status });
+  else if (!q.includeRetired) filter.push({ status: { [Op.ne]: 'retired' } });
+  if (q.q) {
+    const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    filter.push({ [Op.or]: [{ assetTag: { [Op.iLike]: like } }, { name: { [Op.iLike]: like } }] });
+  }
+  const { rows, count } = await Saw.findAndCountAll({
+    where: scopedWhere(ability, 'read', 'Saw', Saw, { [Op.and]: filter }),
+    order: [
+      ['assetTag', 'ASC'],
+      ['id', 'ASC'],
+    ],
+    limit: q.limit,
+    offset: q.offset,
+  });
+  return { items: rows.map(toSawDto), total: count, limit: q.limit, offset: q.offset };
+}
+
+/** A saw the caller may read; anything else is "not found", so ids outside the scope reveal nothing. */
+async function findReadable(ability: AppAbility, id: string): Promise<Saw> {
+  const saw = await Saw.findOne({ where: scopedWhere(ability, 'read', 'Saw', Saw, { id }) });
+  if (!saw) throw AppError.notFound('Saw');
+  return saw;
+}
+
+/** The target site must be one the caller can see; otherwise it is reported like a missing site. */
+async function assertSiteReadable(ability: AppAbility, siteId: string): Promise<void> {
+  const site = await Site.findOne({ where: scopedWhere(ability, 'read', 'Site', Site, { id: siteId }), attributes: ['id'] });
+  if (!site) throw AppError.validation('That site does not exist', [{ path: 'siteId', message: 'choose one of your sites' }]);
+}
+
+export async function getSaw(ability: AppAbility, id: string): Promise<SawDto> {
+  return toSawDto(await findReadable(ability, id));
+}
+
+export async function createSaw(ability: AppAbility, input: SawCreateParsed): Promise<SawDto> {
+  await assertSiteReadable(ability, input.siteId);
+  ForbiddenError.from(ability)
+    .setMessage('You cannot add saws at this site')
+    .throwUnlessCan('create', subject('Saw', { id: '', ...input }));
+  const saw = await Saw.create({ ...input, retiredAt: null });
+  return toSawDto(saw);
+}
+
+export async function updateSaw(ability: AppAbility, id: string, patch: SawUpdate): Promise<SawDto> {
+  const saw = await findReadable(ability, id);
+  const current = saw.get({ plain: true });
+  const forbid = ForbiddenError.from(ability).setMessage('You cannot change this saw');
+  forbid.throwUnlessCan('update', subject('Saw', current));
+  if (current.status === 'retired') throw new AppError('CONFLICT', 'This saw is retired; retired saws are kept for history and cannot be changed');
+
+  const merged = { ...current, ...patch };
+  const issues = sawRangeIssues(merged);
+  if (issues.length > 0) throw AppError.validation('Some fields need fixing', issues);
+  if (patch.siteId && patch.siteId !== current.siteId) await assertSiteReadable(ability, patch.siteId);
+  // Check the record as it will be, so nobody can move a saw into a site they do not manage.
+  forbid.throwUnlessCan('update', subject('Saw', merged));
+
+  await saw.update(patch);
+  return toSawDto(saw);
+}
+
+export async function retireSaw(ability: AppAbility, id: string): Promise<SawDto> {
+  const saw = await findReadable(ability, id);
+  ForbiddenError.from(ability).setMessage('You cannot retire this saw').throwUnlessCan('update', subject('Saw', saw.get({ plain: true })));
+  if (saw.status === 'retired') throw new AppError('CONFLICT', 'This saw is already retired');
+  await saw.update({ status: 'retired', retiredAt: new Date() });
+  return toSawDto(saw);
+}

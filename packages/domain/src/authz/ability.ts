@@ -1,0 +1,99 @@
+import { AbilityBuilder, createMongoAbility, type ForcedSubject, type MongoAbility, type RawRuleOf } from '@casl/ability';
+import type { Role } from '../users/schema.js';
+
+export const ACTIONS = ['manage', 'create', 'read', 'update', 'delete', 'export'] as const;
+export type Action = (typeof ACTIONS)[number];
+
+/** Subject names equal the API's model names, so Sequelize instances and plain rows are typed alike. */
+export const SUBJECTS = ['Region', 'Site', 'Saw', 'User'] as const;
+export type SubjectName = (typeof SUBJECTS)[number];
+
+/** The columns rules may test, per subject (CASL types each rule's conditions from these). */
+type RegionFields = { id: string };
+type SiteFields = { id: string; regionId: string };
+type SawFields = { id: string; siteId: string };
+type UserFields = { id: string; siteId: string | null };
+
+type Subjects =
+  | 'all'
+  | SubjectName
+  | (RegionFields & ForcedSubject<'Region'>)
+  | (SiteFields & ForcedSubject<'Site'>)
+  | (SawFields & ForcedSubject<'Saw'>)
+  | (UserFields & ForcedSubject<'User'>);
+
+export type AppAbility = MongoAbility<[Action, Subjects]>;
+export type AppRawRule = RawRuleOf<AppAbility>;
+
+/**
+ * Who is asking, with their scope already resolved from the database: the sites and regions they may see.
+ * `'all'` means no site restriction (admins, managers assigned to every site).
+ */
+export type Principal = {
+  id: string;
+  role: Role;
+  /** Home site of a site admin or technician. */
+  siteId: string | null;
+  /** Region of a regional lead. */
+  regionId: string | null;
+  siteIds: 'all' | string[];
+  regionIds: 'all' | string[];
+};
+
+/**
+ * The only place Kerfline's permissions are written. Conditions stay translatable to SQL: `$eq`, `$ne`,
+ * `$in` and `$nin` on the subject's own columns (checked by a test), because the API turns these same
+ * rules into the `WHERE` of every list query.
+ */
+export function defineAbilityFor(p: Principal): AppAbility {
+  const { can, build } = new AbilityBuilder<AppAbility>(createMongoAbility);
+  const inSites = p.siteIds === 'all' ? undefined : { $in: p.siteIds };
+  const inRegions = p.regionIds === 'all' ? undefined : { $in: p.regionIds };
+
+  can('read', 'User', { id: p.id });
+
+  switch (p.role) {
+    case 'admin':
+      can('manage', 'all');
+      break;
+    case 'manager':
+      if (inRegions) can('read', 'Region', { id: inRegions });
+      else can('read', 'Region');
+      if (inSites) {
+        can(['read', 'export'], 'Site', { id: inSites });
+        can('read', 'Saw', { siteId: inSites });
+      } else {
+        can(['read', 'export'], 'Site');
+        can('read', 'Saw');
+      }
+      break;
+    case 'regional_lead':
+      if (p.regionId) {
+        can('read', 'Region', { id: p.regionId });
+        can('read', 'Site', { regionId: p.regionId });
+      }
+      can('read', 'Saw', { siteId: inSites ?? { $in: [] } });
+      break;
+    case 'site_admin':
+      if (p.siteId) {
+        can('read', 'Region', { id: inRegions ?? { $in: [] } });
+        can(['read', 'update'], 'Site', { id: p.siteId });
+        can(['create', 'read', 'update'], 'Saw', { siteId: p.siteId });
+        can('read', 'User', { siteId: p.siteId });
+      }
+      break;
+    case 'technician':
+      if (p.siteId) {
+        can('read', 'Region', { id: inRegions ?? { $in: [] } });
+        can('read', 'Site', { id: p.siteId });
+        can('read', 'Saw', { siteId: p.siteId });
+      }
+      break;
+  }
+  return build();
+}
+
+/** Rebuilds an ability from raw rules, as the web app does with the rules from `/api/me`. */
+export function abilityFromRules(rules: AppRawRule[]): AppAbility {
+  return createMongoAbility<AppAbility>(rules);
+}

@@ -1,0 +1,11 @@
+import { z } from 'zod';
+import { idSchema, text } from '../common/schema.js';
+
+export const regionSchema = z.object({
+  id: idSchema,
+  name: z.string(),
+});
+export type Region = z.infer<typeof regionSchema>;
+
+export const regionCreateSchema = z.object({ name: text(80) });
+export type RegionCreate = z.infer<typeof regionCreateSchema>;

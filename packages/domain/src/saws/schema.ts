@@ -1,0 +1,111 @@
+import { z } from 'zod';
+import { idSchema, pageQuerySchema, text } from '../common/schema.js';
+
+export const SAW_KINDS = ['horizontal', 'vertical'] as const;
+export type SawKind = (typeof SAW_KINDS)[number];
+
+/** in_service: available to cut; down: stopped for a fault or repair; retired: kept for history only. */
+export const SAW_STATUSES = ['in_service', 'down', 'retired'] as const;
+export type SawStatus = (typeof SAW_STATUSES)[number];
+
+const positiveMm = (label: string, max: number) =>
+  z
+    .number({ message: `${label} must be a number` })
+    .positive({ message: `${label} must be greater than 0` })
+    .max(max, { message: `${label} must be at most ${max} mm` });
+
+/**
+ * A saw as the API returns it. All lengths in millimetres, band speeds in metres per minute (SI inside;
+ * the web converts at the edge for imperial sites).
+ */
+export const sawSchema = z.object({
+  id: idSchema,
+  siteId: idSchema,
+  assetTag: z.string(),
+  name: z.string(),
+  kind: z.enum(SAW_KINDS),
+  make: z.string().nullable(),
+  model: z.string().nullable(),
+  wheelDiameterMm: z.number(),
+  centreDistanceMm: z.number(),
+  bandWidthMm: z.number(),
+  bandThicknessMm: z.number(),
+  bandLengthMm: z.number(),
+  bandSpeedMinMPerMin: z.number(),
+  bandSpeedMaxMPerMin: z.number(),
+  capacityRoundMm: z.number().nullable(),
+  capacityRectWidthMm: z.number().nullable(),
+  capacityRectHeightMm: z.number().nullable(),
+  status: z.enum(SAW_STATUSES),
+  retiredAt: z.string().nullable(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+export type Saw = z.infer<typeof sawSchema>;
+
+const sawFields = z.object({
+  siteId: idSchema,
+  assetTag: text(40),
+  name: text(120),
+  kind: z.enum(SAW_KINDS, { message: 'choose horizontal or vertical' }),
+  make: text(80).nullable().default(null),
+  model: text(80).nullable().default(null),
+  wheelDiameterMm: positiveMm('Wheel diameter', 3000),
+  centreDistanceMm: positiveMm('Centre distance', 10000),
+  bandWidthMm: positiveMm('Band width', 200),
+  bandThicknessMm: positiveMm('Band thickness', 5),
+  bandLengthMm: positiveMm('Band length', 30000),
+  bandSpeedMinMPerMin: z.number().positive({ message: 'Lowest band speed must be greater than 0' }).max(5000),
+  bandSpeedMaxMPerMin: z.number().positive({ message: 'Highest band speed must be greater than 0' }).max(5000),
+  capacityRoundMm: positiveMm('Round capacity', 3000).nullable().default(null),
+  capacityRectWidthMm: positiveMm('Rectangle capacity width', 5000).nullable().default(null),
+  capacityRectHeightMm: positiveMm('Rectangle capacity height', 5000).nullable().default(null),
+  status: z.enum(['in_service', 'down'], { message: 'choose in service or down' }).default('in_service'),
+});
+
+type SawRanges = {
+  bandSpeedMinMPerMin?: number;
+  bandSpeedMaxMPerMin?: number;
+  bandWidthMm?: number;
+  bandThicknessMm?: number;
+};
+
+/** Cross-field rules shared by create and update (update checks them against the merged record in the API). */
+export function sawRangeIssues(v: SawRanges): { path: string; message: string }[] {
+  const issues: { path: string; message: string }[] = [];
+  if (v.bandSpeedMinMPerMin !== undefined && v.bandSpeedMaxMPerMin !== undefined && v.bandSpeedMinMPerMin > v.bandSpeedMaxMPerMin) {
+    issues.push({ path: 'bandSpeedMaxMPerMin', message: 'Highest band speed must not be below the lowest' });
+  }
+  if (v.bandWidthMm !== undefined && v.bandThicknessMm !== undefined && v.bandThicknessMm >= v.bandWidthMm) {
+    issues.push({ path: 'bandThicknessMm', message: 'Band thickness must be smaller than the band width' });
+  }
+  return issues;
+}
+
+export const sawCreateSchema = sawFields.superRefine((value, ctx) => {
+  for (const issue of sawRangeIssues(value)) ctx.addIssue({ code: 'custom', path: [issue.path], message: issue.message });
+});
+export type SawCreate = z.input<typeof sawCreateSchema>;
+export type SawCreateParsed = z.output<typeof sawCreateSchema>;
+
+/** Any subset of the fields; moving a saw to another site is allowed only where the caller may write both. */
+export const sawUpdateSchema = sawFields
+  .partial()
+  .strict()
+  .superRefine((value, ctx) => {
+    for (const issue of sawRangeIssues(value)) ctx.addIssue({ code: 'custom', path: [issue.path], message: issue.message });
+  });
+export type SawUpdate = z.infer<typeof sawUpdateSchema>;
+
+export const sawListQuerySchema = pageQuerySchema.extend({
+  siteId: idSchema.optional(),
+  status: z.enum(SAW_STATUSES).optional(),
+  kind: z.enum(SAW_KINDS).optional(),
+  /** Matches asset tag or name, case-insensitively. */
+  q: z.string().trim().max(80).optional(),
+  includeRetired: z
+    .enum(['true', 'false'])
+    .transform((v) => v === 'true')
+    .default(false),
+});
+export type SawListQuery = z.infer<typeof sawListQuerySchema>;

@@ -1,0 +1,59 @@
+import { z } from 'zod';
+import { idSchema, pageQuerySchema, text } from '../common/schema.js';
+
+export const UNIT_SYSTEMS = ['metric', 'imperial'] as const;
+export type UnitSystem = (typeof UNIT_SYSTEMS)[number];
+
+function isTimeZone(value: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en', { timeZone: value });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+export const timeZoneSchema = z
+  .string()
+  .trim()
+  .refine(isTimeZone, { message: 'must be an IANA time zone such as Europe/Berlin or America/Chicago' });
+
+/** ISO 4217 alphabetic code. */
+export const currencySchema = z
+  .string()
+  .trim()
+  .toUpperCase()
+  .regex(/^[A-Z]{3}$/, { message: 'must be a three-letter ISO 4217 currency code such as EUR or USD' });
+
+export const siteSchema = z.object({
+  id: idSchema,
+  regionId: idSchema,
+  code: z.string(),
+  name: z.string(),
+  city: z.string().nullable(),
+  timeZone: z.string(),
+  currency: z.string(),
+  unitSystem: z.enum(UNIT_SYSTEMS),
+  /** Saws at the site that are not retired; filled by list and detail reads. */
+  activeSawCount: z.number().int().min(0),
+});
+export type Site = z.infer<typeof siteSchema>;
+
+export const siteCreateSchema = z.object({
+  regionId: idSchema,
+  code: text(12).regex(/^[A-Z0-9-]+$/, { message: 'use capital letters, digits and dashes only' }),
+  name: text(120),
+  city: text(120).nullable().default(null),
+  timeZone: timeZoneSchema,
+  currency: currencySchema,
+  unitSystem: z.enum(UNIT_SYSTEMS),
+});
+export type SiteCreate = z.infer<typeof siteCreateSchema>;
+
+export const siteUpdateSchema = siteCreateSchema.omit({ regionId: true, code: true }).partial();
+export type SiteUpdate = z.infer<typeof siteUpdateSchema>;
+
+export const siteListQuerySchema = pageQuerySchema.extend({
+  regionId: idSchema.optional(),
+});
+export type SiteListQuery = z.infer<typeof siteListQuerySchema>;
