@@ -34,7 +34,7 @@ function toWhere(node: AstNode, attributes: Set<string>, subject: string): Where
       case 'not': {
         const [only] = children.length === undefined ? [node.value as AstNode] : children;
         if (!only) throw new Error(`CASL 'not' without a condition on ${subject}`);
-        return { [Op.not]: toWhere(only, attributes, subject) };
+        return not(toWhere(only, attributes, subject));
       }
       default:
         throw new Error(`Unsupported CASL compound operator '${node.operator}' on ${subject}`);
@@ -47,14 +47,21 @@ function toWhere(node: AstNode, attributes: Set<string>, subject: string): Where
     case 'eq':
       return equals(field, node.value);
     case 'ne':
-      return { [Op.not]: equals(field, node.value) };
+      return not(equals(field, node.value));
     case 'in':
       return inList(field, asList(node.value, subject));
     case 'nin':
-      return { [Op.not]: inList(field, asList(node.value, subject)) };
+      return not(inList(field, asList(node.value, subject)));
     default:
       throw new Error(`Unsupported CASL operator '${node.operator}' on ${subject}.${field}; use $eq, $ne, $in or $nin`);
   }
+}
+
+/** Negation that folds the constants: Sequelize renders `Op.not` around a literal incorrectly. */
+function not(where: WhereOptions): WhereOptions {
+  if (where === TRUE) return FALSE;
+  if (where === FALSE) return TRUE;
+  return { [Op.not]: where };
 }
 
 function assertScalar(value: unknown, field: string): void {

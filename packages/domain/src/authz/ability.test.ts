@@ -1,0 +1,114 @@
+import { describe, expect, it } from 'vitest';
+import { subject } from '@casl/ability';
+import { abilityFromRules, defineAbilityFor, SUBJECTS, type Principal } from './ability.js';
+
+const A = '00000000-0000-4000-8000-00000000000a';
+const B = '00000000-0000-4000-8000-00000000000b';
+const C = '00000000-0000-4000-8000-00000000000c';
+const NORTH = '00000000-0000-4000-8000-0000000000f1';
+const SOUTH = '00000000-0000-4000-8000-0000000000f2';
+const ME = '00000000-0000-4000-8000-000000000001';
+const OTHER = '00000000-0000-4000-8000-000000000002';
+
+const principals: Record<string, Principal> = {
+  admin: { id: ME, role: 'admin', siteId: null, regionId: null, siteIds: 'all', regionIds: 'all' },
+  managerAll: { id: ME, role: 'manager', siteId: null, regionId: null, siteIds: 'all', regionIds: 'all' },
+  managerAC: { id: ME, role: 'manager', siteId: null, regionId: null, siteIds: [A, C], regionIds: [NORTH, SOUTH] },
+  leadNorth: { id: ME, role: 'regional_lead', siteId: null, regionId: NORTH, siteIds: [A, B], regionIds: [NORTH] },
+  siteAdminA: { id: ME, role: 'site_admin', siteId: A, regionId: null, siteIds: [A], regionIds: [NORTH] },
+  techA: { id: ME, role: 'technician', siteId: A, regionId: null, siteIds: [A], regionIds: [NORTH] },
+};
+
+const saw = (siteId: string) => subject('Saw', { id: 's', siteId });
+const site = (id: string, regionId: string) => subject('Site', { id, regionId });
+const user = (id: string, siteId: string | null) => subject('User', { id, siteId });
+
+// The permission matrix: [role, action, object, expected].
+const matrix: [string, Parameters<ReturnType<typeof defineAbilityFor>['can']>[0], ReturnType<typeof saw> | ReturnType<typeof site> | ReturnType<typeof user>, boolean][] = [
+  ['admin', 'create', saw(C), true],
+  ['admin', 'delete', site(B, NORTH), true],
+  ['managerAll', 'read', saw(C), true],
+  ['managerAll', 'export', site(C, SOUTH), true],
+  ['managerAll', 'update', saw(C), false],
+  ['managerAll', 'create', saw(A), false],
+  ['managerAC', 'read', saw(A), true],
+  ['managerAC', 'read', saw(B), false],
+  ['managerAC', 'read', site(B, NORTH), false],
+  ['managerAC', 'export', site(C, SOUTH), true],
+  ['leadNorth', 'read', site(B, NORTH), true],
+  ['leadNorth', 'read', site(C, SOUTH), false],
+  ['leadNorth', 'read', saw(B), true],
+  ['leadNorth', 'read', saw(C), false],
+  ['leadNorth', 'update', saw(A), false],
+  ['siteAdminA', 'create', saw(A), true],
+  ['siteAdminA', 'update', saw(A), true],
+  ['siteAdminA', 'create', saw(B), false],
+  ['siteAdminA', 'read', saw(B), false],
+  ['siteAdminA', 'delete', saw(A), false],
+  ['siteAdminA', 'update', site(A, NORTH), true],
+  ['siteAdminA', 'update', site(B, NORTH), false],
+  ['siteAdminA', 'read', user(OTHER, A), true],
+  ['siteAdminA', 'read', user(OTHER, B), false],
+  ['siteAdminA', 'create', user(OTHER, A), false],
+  ['techA', 'read', saw(A), true],
+  ['techA', 'read', saw(B), false],
+  ['techA', 'create', saw(A), false],
+  ['techA', 'update', saw(A), false],
+  ['techA', 'read', site(A, NORTH), true],
+  ['techA', 'read', site(B, NORTH), false],
+  ['techA', 'read', user(OTHER, A), false],
+  ['techA', 'read', user(ME, A), true],
+];
+
+describe('who can do what', () => {
+  it.each(matrix)('%s %s %o → %s', (who, action, object, expected) => {
+    expect(defineAbilityFor(principals[who]!).can(action, object)).toBe(expected);
+  });
+
+  it('gives a manager assigned to no sites nothing to read', () => {
+    const ability = defineAbilityFor({ ...principals.managerAC!, siteIds: [], regionIds: [] });
+    expect(ability.can('read', saw(A))).toBe(false);
+    expect(ability.can('read', site(A, NORTH))).toBe(false);
+  });
+
+  it('gives a site admin or technician without a home site nothing beyond themselves', () => {
+    for (const role of ['site_admin', 'technician'] as const) {
+      const ability = defineAbilityFor({ id: ME, role, siteId: null, regionId: null, siteIds: [], regionIds: [] });
+      expect(ability.can('read', saw(A))).toBe(false);
+      expect(ability.can('read', user(ME, null))).toBe(true);
+    }
+  });
+
+  it('rebuilds the same answers from the raw rules the browser receives', () => {
+    for (const [who, action, object, expected] of matrix) {
+      const rebuilt = abilityFromRules(JSON.parse(JSON.stringify(defineAbilityFor(principals[who]!).rules)));
+      expect(rebuilt.can(action, object)).toBe(expected);
+    }
+  });
+});
+
+describe('rules stay translatable to SQL', () => {
+  const allowed = new Set(['$eq', '$ne', '$in', '$nin']);
+  const columns: Record<string, Set<string>> = {
+    Region: new Set(['id']),
+    Site: new Set(['id', 'regionId']),
+    Saw: new Set(['id', 'siteId']),
+    User: new Set(['id', 'siteId']),
+  };
+
+  it('uses only $eq, $ne, $in and $nin on the subject’s own columns, for every role', () => {
+    for (const principal of Object.values(principals)) {
+      for (const rule of defineAbilityFor(principal).rules) {
+        const subjects = ([] as string[]).concat(rule.subject as string | string[]);
+        for (const [field, condition] of Object.entries(rule.conditions ?? {})) {
+          expect(field.startsWith('$'), `top-level operator ${field}`).toBe(false);
+          for (const s of subjects) if (s !== 'all') expect(columns[s]?.has(field), `${s}.${field}`).toBe(true);
+          if (condition !== null && typeof condition === 'object' && !Array.isArray(condition)) {
+            for (const op of Object.keys(condition)) expect(allowed.has(op), op).toBe(true);
+          }
+        }
+      }
+    }
+    expect(SUBJECTS).toEqual(Object.keys(columns));
+  });
+});
