@@ -28,7 +28,7 @@ async function mismatches(ability: AppAbility, action: (typeof ACTIONS)[number],
   const model = MODELS[type];
   const all = (await model.findAll()).map((m) => m.get({ plain: true }) as { id: string });
   const scoped = new Set((await model.findAll({ where: scopeWhere(ability, action, type, model), attributes: ['id'] })).map((m) => m.get('id') as string));
-  return all.filter((row) => ability.can(action, subject(type, row)) !== scoped.has(row.id)).map((row) => `${type} ${row.id}`);
+  return all.filter((row) => ability.can(action, subject(type, row) as Parameters<AppAbility['can']>[1]) !== scoped.has(row.id)).map((row) => `${type} ${row.id}`);
 }
 
 describe('CASL rules → SQL where', () => {

@@ -1,7 +1,7 @@
 import type { Sequelize } from 'sequelize';
 import type { Role } from '@kerfline/domain/users/schema';
 import type { SawKind, SawStatus } from '@kerfline/domain/saws/schema';
-import { hash } from '@node-rs/argon2';
+import { hashPassword } from '../security/passwords.js';
 import { Region } from '../modules/regions/region.model.js';
 import { Site } from '../modules/sites/site.model.js';
 import { User, UserSite } from '../modules/users/user.model.js';
@@ -61,7 +61,7 @@ const NICKNAMES = ['Bay 1 bar saw', 'Bay 2 bar saw', 'Tube line saw', 'Heavy bar
 /** Loads the scenario in one transaction when the database holds no regions yet. Returns whether it loaded. */
 export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
   if ((await Region.count()) > 0) return false;
-  const passwordHash = await hash(DEMO_PASSWORD);
+  const passwordHash = await hashPassword(DEMO_PASSWORD);
   await sequelize.transaction(async (transaction) => {
     const regionIds = new Map<string, string>();
     for (const name of REGIONS) regionIds.set(name, (await Region.create({ name }, { transaction })).id);

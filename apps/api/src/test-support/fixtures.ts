@@ -1,7 +1,7 @@
-import { hash } from '@node-rs/argon2';
 import type { Sequelize } from 'sequelize';
 import type { Role } from '@kerfline/domain/users/schema';
 import { initModels } from '../db/models.js';
+import { hashPassword } from '../security/passwords.js';
 import { Region } from '../modules/regions/region.model.js';
 import { Site } from '../modules/sites/site.model.js';
 import { User, UserSite } from '../modules/users/user.model.js';
@@ -39,7 +39,7 @@ function sawAttrs(siteId: string, overrides: Record<string, unknown>) {
 export async function buildWorld(sequelize: Sequelize) {
   initModels(sequelize);
   await resetData(sequelize);
-  const passwordHash = await hash(PASSWORD);
+  const passwordHash = await hashPassword(PASSWORD);
   const north = await Region.create({ name: 'North' });
   const south = await Region.create({ name: 'South' });
   const site = (code: string, regionId: string) =>

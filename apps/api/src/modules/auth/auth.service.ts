@@ -1,15 +1,10 @@
-import { hash, verify } from '@node-rs/argon2';
 import { Op } from 'sequelize';
 import { defineAbilityFor, type AppAbility, type Principal } from '@kerfline/domain/authz/ability';
 import type { Me } from '@kerfline/domain/auth/schema';
 import { User, UserSite } from '../users/user.model.js';
 import { Site } from '../sites/site.model.js';
 import { toUserDto } from '../users/user-dto.js';
-
-/** Argon2id with the library's defaults (OWASP-recommended parameters). */
-export function hashPassword(password: string): Promise<string> {
-  return hash(password);
-}
+import { hashPassword, verifyPassword } from '../../security/passwords.js';
 
 // Verified against when the e-mail is unknown, so both failures take the same time.
 let dummyHash: Promise<string> | undefined;
@@ -18,11 +13,11 @@ let dummyHash: Promise<string> | undefined;
 export async function checkCredentials(email: string, password: string): Promise<User | null> {
   const user = await User.findOne({ where: { email: email.trim().toLowerCase() } });
   if (!user || !user.active) {
-    dummyHash ??= hash('not-a-real-password-only-for-timing');
-    await verify(await dummyHash, password);
+    dummyHash ??= hashPassword('not-a-real-password-only-for-timing');
+    await verifyPassword(await dummyHash, password);
     return null;
   }
-  return (await verify(user.passwordHash, password)) ? user : null;
+  return (await verifyPassword(user.passwordHash, password)) ? user : null;
 }
 
 export type SignedIn = { user: User; principal: Principal; ability: AppAbility; managedSiteIds: string[] };

@@ -6,7 +6,7 @@ import type { Page } from '@kerfline/domain/common/schema';
 import type { z } from 'zod';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
-import { hashPassword } from '../auth/auth.service.js';
+import { hashPassword } from '../../security/passwords.js';
 import { Site } from '../sites/site.model.js';
 import { Region } from '../regions/region.model.js';
 import { User, UserSite } from './user.model.js';
