@@ -1,0 +1,133 @@
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { fpmToMPerMin } from '../units/units.js';
+import { checkBandSpeed } from './check-band-speed.js';
+import { MATERIAL_GROUPS, MATERIAL_GROUP_LABELS, bandSpeedCheckInputSchema, materialGroupSchema } from './schema.js';
+import type { MaterialGroup } from './schema.js';
+import { BI_METAL_BAND_SPEEDS, recommendedBandSpeed } from './speed-ranges.js';
+
+const saw = { minMPerMin: 15, maxMPerMin: 120 };
+
+describe('recommended band speeds (bi-metal; figures from memory)', () => {
+  it('has a range for every group, slow for hard and stainless grades, fast for aluminium', () => {
+    for (const group of MATERIAL_GROUPS) {
+      const range = recommendedBandSpeed(group);
+      expect(range.minMPerMin).toBeGreaterThan(0);
+      expect(range.maxMPerMin).toBeGreaterThan(range.minMPerMin);
+      expect(MATERIAL_GROUP_LABELS[group]).toBeTruthy();
+    }
+    // The ordering every speed chart of the trade agrees on (common practice, no source).
+    const top = (g: MaterialGroup) => BI_METAL_BAND_SPEEDS[g].maxMPerMin;
+    expect(top('stainless_steel')).toBeLessThan(top('alloy_steel'));
+    expect(top('alloy_steel')).toBeLessThan(top('carbon_steel'));
+    expect(top('carbon_steel')).toBeLessThan(top('aluminium'));
+  });
+
+  it('shows the range in fpm with the exact foot (NIST SP 811 B.8)', () => {
+    const carbon = recommendedBandSpeed('carbon_steel');
+    expect(fpmToMPerMin(carbon.minFpm)).toBeCloseTo(carbon.minMPerMin, 12);
+    expect(carbon.maxFpm).toBeCloseTo(90 / 0.3048, 9);
+    expect(() => recommendedBandSpeed('wood' as MaterialGroup)).toThrow('Unknown material group: wood');
+  });
+});
+
+describe('checkBandSpeed', () => {
+  it('says within, below or above, with what to do', () => {
+    const within = checkBandSpeed('carbon_steel', 70, saw);
+    expect(within).toMatchObject({
+      position: 'within',
+      speedWithinSaw: true,
+      sawCanReachRange: true,
+      reachableMPerMin: { minMPerMin: 50, maxMPerMin: 90 },
+    });
+    expect(within.explanation).toBe('70 m/min is within the 50–90 m/min range for carbon steel.');
+
+    const below = checkBandSpeed('carbon_steel', 30, saw);
+    expect(below.position).toBe('below');
+    expect(below.explanation).toBe(
+      '30 m/min is below the 50–90 m/min range for carbon steel; raise it to at least 50 m/min.',
+    );
+
+    const above = checkBandSpeed('stainless_steel', 60, saw, { system: 'imperial' });
+    expect(above.position).toBe('above');
+    // 60 m/min = 197 fpm; 20–40 m/min = 66–131 fpm.
+    expect(above.explanation).toBe(
+      '197 fpm is above the 66–131 fpm range for stainless steel; lower it to at most 131 fpm.',
+    );
+  });
+
+  it('says when the saw cannot reach the range at all, or only part of it', () => {
+    const alu = checkBandSpeed('aluminium', 90, { minMPerMin: 20, maxMPerMin: 90 });
+    expect(alu).toMatchObject({ position: 'below', sawCanReachRange: false, reachableMPerMin: null });
+    expect(alu.explanation).toBe(
+      '90 m/min is below the 100–300 m/min range for aluminium; this saw runs 20–90 m/min and cannot reach that range.',
+    );
+
+    const partly = checkBandSpeed('aluminium', 400, { minMPerMin: 20, maxMPerMin: 150 });
+    expect(partly.reachableMPerMin).toEqual({ minMPerMin: 100, maxMPerMin: 150 });
+    expect(partly.speedWithinSaw).toBe(false);
+    expect(partly.explanation).toBe(
+      '400 m/min is above the 100–300 m/min range for aluminium; lower it to at most 150 m/min (this saw runs 20–150 m/min).',
+    );
+  });
+
+  it('position agrees with the range and reach with the overlap (fast-check)', () => {
+    fc.assert(
+      fc.property(
+        fc.constantFrom(...MATERIAL_GROUPS),
+        fc.double({ min: 1, max: 1000, noNaN: true }),
+        fc.double({ min: 1, max: 500, noNaN: true }),
+        fc.double({ min: 0, max: 500, noNaN: true }),
+        (group, speed, sawMin, spread) => {
+          const result = checkBandSpeed(group, speed, { minMPerMin: sawMin, maxMPerMin: sawMin + spread });
+          const { minMPerMin, maxMPerMin } = BI_METAL_BAND_SPEEDS[group];
+          const position = speed < minMPerMin ? 'below' : speed > maxMPerMin ? 'above' : 'within';
+          const overlaps = sawMin <= maxMPerMin && sawMin + spread >= minMPerMin;
+          return (
+            result.position === position && result.sawCanReachRange === overlaps && result.explanation.endsWith('.')
+          );
+        },
+      ),
+    );
+  });
+
+  it('refuses a stopped band or a reversed saw range', () => {
+    expect(() => checkBandSpeed('cast_iron', 0, saw)).toThrow('Band speed must be a number greater than 0 m/min');
+    expect(() => checkBandSpeed('cast_iron', 40, { minMPerMin: 90, maxMPerMin: 20 })).toThrow(
+      'must not be below the lowest',
+    );
+    expect(() => checkBandSpeed('cast_iron', 40, { minMPerMin: -1, maxMPerMin: 20 })).toThrow(
+      'Lowest band speed of the saw',
+    );
+  });
+});
+
+describe('band speed check schema', () => {
+  it('parses and says what to fix', () => {
+    expect(
+      bandSpeedCheckInputSchema.parse({
+        materialGroup: 'tool_steel',
+        speedMPerMin: 30,
+        sawRange: { minMPerMin: 20, maxMPerMin: 100 },
+      }).unitSystem,
+    ).toBe('metric');
+    expect(materialGroupSchema.safeParse('wood').error?.issues[0]?.message).toMatch(
+      /^Choose a material group: carbon steel/,
+    );
+    const reversed = bandSpeedCheckInputSchema.safeParse({
+      materialGroup: 'tool_steel',
+      speedMPerMin: 30,
+      sawRange: { minMPerMin: 100, maxMPerMin: 20 },
+    });
+    expect(reversed.error?.issues.map((i) => [i.path.join('.'), i.message])).toEqual([
+      ['sawRange.maxMPerMin', 'Highest band speed must not be below the lowest'],
+    ]);
+    expect(
+      bandSpeedCheckInputSchema.safeParse({
+        materialGroup: 'tool_steel',
+        speedMPerMin: -5,
+        sawRange: { minMPerMin: 20, maxMPerMin: 100 },
+      }).error?.issues[0]?.message,
+    ).toBe('Band speed must be greater than 0');
+  });
+});
