@@ -1,0 +1,120 @@
+import {
+  breakInSettingsSchema,
+  normalCuttingRateSchema,
+  type BreakInMode,
+  type BreakInSettingsInput,
+} from './schema.js';
+
+/** Where the break-in numbers come from. */
+export const BREAK_IN_BASIS = 'common practice, no source';
+
+export type BreakInStepKind = 'reduced' | 'ramp' | 'normal';
+
+/**
+ * One step of a break-in. `feedFraction` is a fraction of the normal feed rate (head descent speed), so at
+ * the same work height the area cut per minute scales with it. `durationMin` and `areaMm2` are both given
+ * where they can be worked out; the final `normal` step is open-ended (both null).
+ */
+export interface BreakInStep {
+  kind: BreakInStepKind;
+  feedFraction: number;
+  bandSpeedFraction: number;
+  /** Minutes in this step; null when the step is measured by area and no cutting rate is known. */
+  durationMin: number | null;
+  /** Area cut in this step, mm²; null when the step is measured by time and no cutting rate is known. */
+  areaMm2: number | null;
+  note: string;
+}
+
+export interface BreakInPlan {
+  mode: BreakInMode;
+  steps: BreakInStep[];
+  /** Minutes from the first cut until normal feed; null when it cannot be worked out. */
+  totalDurationMin: number | null;
+  /** Area cut before normal feed, mm²; null when it cannot be worked out. */
+  totalAreaMm2: number | null;
+  /** The normal cutting rate used, mm²/min at 100 % feed, or null. */
+  normalCuttingRateMm2PerMin: number | null;
+  basis: string;
+}
+
+const percent = (f: number): string => `${Math.round(f * 100)} %`;
+
+function sumOrNull(values: (number | null)[]): number | null {
+  let total = 0;
+  for (const v of values) {
+    if (v === null) return null;
+    total += v;
+  }
+  return total;
+}
+
+/**
+ * Builds the break-in plan for a new blade.
+ *
+ * - Time mode: a reduced feed for `initialDurationMin` minutes, then each ramp feed for
+ *   `rampStepDurationMin` minutes. With a cutting rate R (mm²/min at 100 % feed) the area of a step is
+ *   feedFraction × R × minutes.
+ * - Area mode: a reduced feed for the first `initialAreaMm2`, then `rampStepAreaMm2` at each ramp feed.
+ *   With R the minutes of a step are area ÷ (feedFraction × R).
+ *
+ * A last open-ended step returns to normal feed and full band speed. Numbers are common practice, no
+ * source. Bad settings throw a ZodError whose messages say which field to fix.
+ *
+ * @param settings break-in settings (defaults: time mode, 1/3 feed for 10 min, then 50 % and 75 % for 5 min each)
+ * @param normalCuttingRateMm2PerMin cutting rate at normal feed, mm²/min, if known
+ */
+export function planBreakIn(
+  settings: BreakInSettingsInput = { mode: 'time' },
+  normalCuttingRateMm2PerMin: number | null = null,
+): BreakInPlan {
+  const s = breakInSettingsSchema.parse(settings);
+  const rate = normalCuttingRateSchema.parse(normalCuttingRateMm2PerMin);
+
+  const feeds: { kind: BreakInStepKind; feedFraction: number }[] = [
+    { kind: 'reduced', feedFraction: s.initialFeedFraction },
+    ...s.rampFeedFractions.map((f) => ({ kind: 'ramp' as const, feedFraction: f })),
+  ];
+  const speedText =
+    s.bandSpeedFraction === 1 ? 'full normal band speed' : `${percent(s.bandSpeedFraction)} of normal band speed`;
+
+  const steps: BreakInStep[] = feeds.map(({ kind, feedFraction }, i) => {
+    const areaRate = rate === null ? null : feedFraction * rate;
+    let durationMin: number | null;
+    let areaMm2: number | null;
+    let measure: string;
+    if (s.mode === 'time') {
+      durationMin = i === 0 ? s.initialDurationMin : s.rampStepDurationMin;
+      areaMm2 = areaRate === null ? null : areaRate * durationMin;
+      measure = `for ${durationMin} min`;
+    } else {
+      areaMm2 = i === 0 ? s.initialAreaMm2 : s.rampStepAreaMm2;
+      durationMin = areaRate === null ? null : areaMm2 / areaRate;
+      measure = `for the next ${Math.round(areaMm2).toLocaleString('en-US')} mm² of cut`;
+    }
+    const note =
+      kind === 'reduced'
+        ? `New blade: ${speedText}, feed at ${percent(feedFraction)} of normal ${measure}, so the sharp tooth tips hone instead of chipping.`
+        : `Raise the feed to ${percent(feedFraction)} of normal ${measure} at ${speedText}.`;
+    return { kind, feedFraction, bandSpeedFraction: s.bandSpeedFraction, durationMin, areaMm2, note };
+  });
+
+  steps.push({
+    kind: 'normal',
+    feedFraction: 1,
+    bandSpeedFraction: 1,
+    durationMin: null,
+    areaMm2: null,
+    note: 'Break-in done: normal feed and normal band speed from here on.',
+  });
+
+  const breakInSteps = steps.slice(0, -1);
+  return {
+    mode: s.mode,
+    steps,
+    totalDurationMin: sumOrNull(breakInSteps.map((st) => st.durationMin)),
+    totalAreaMm2: sumOrNull(breakInSteps.map((st) => st.areaMm2)),
+    normalCuttingRateMm2PerMin: rate,
+    basis: BREAK_IN_BASIS,
+  };
+}

@@ -1,0 +1,208 @@
+import { z } from 'zod';
+import { inToMm, lbfToN, psiToPa } from '../units/units.js';
+
+/** The kinds of maintenance check Kerfline records, as stored ids. */
+export const CHECK_KIND_IDS = [
+  'guide_clearance',
+  'tracking',
+  'feed_pressure',
+  'bearing_wear',
+  'band_tension',
+  'chip_brush',
+] as const;
+export type CheckKindId = (typeof CHECK_KIND_IDS)[number];
+
+/** When a check falls due: at every blade change, or every so many days. */
+export type CheckSchedule = 'blade_change' | 'periodic';
+export type CheckUnit = 'mm' | 'N' | 'MPa' | 'condition';
+
+export interface CheckKind {
+  kind: CheckKindId;
+  label: string;
+  unit: CheckUnit;
+  due: CheckSchedule;
+  /** Default days between periodic checks; null for checks due at every blade change. */
+  defaultIntervalDays: number | null;
+}
+
+/**
+ * Which checks are due when. Common practice, no source: the checks a new band changes (its thickness, width,
+ * tension and how it runs on the wheels, and the brush that clears its gullets) are done at every blade change;
+ * the saw's own wear (head pressure, bearing faces) is checked on a calendar. Intervals are defaults a site may
+ * change.
+ */
+export const CHECK_KINDS: readonly CheckKind[] = [
+  {
+    kind: 'guide_clearance',
+    label: 'Guide bearing clearance',
+    unit: 'mm',
+    due: 'blade_change',
+    defaultIntervalDays: null,
+  },
+  { kind: 'tracking', label: 'Band tracking', unit: 'mm', due: 'blade_change', defaultIntervalDays: null },
+  { kind: 'band_tension', label: 'Band tension', unit: 'MPa', due: 'blade_change', defaultIntervalDays: null },
+  { kind: 'chip_brush', label: 'Chip brush', unit: 'condition', due: 'blade_change', defaultIntervalDays: null },
+  { kind: 'feed_pressure', label: 'Feed / head pressure', unit: 'N', due: 'periodic', defaultIntervalDays: 30 },
+  {
+    kind: 'bearing_wear',
+    label: 'Guide and pressure bearing wear',
+    unit: 'mm',
+    due: 'periodic',
+    defaultIntervalDays: 30,
+  },
+];
+
+/** Blade materials with their own tension range. */
+export const BLADE_MATERIALS = ['carbon', 'bimetal', 'carbide_tipped'] as const;
+export type BladeMaterial = (typeof BLADE_MATERIALS)[number];
+
+const mpaFromPsi = (psi: number): number => psiToPa(psi) / 1e6;
+
+/**
+ * Band tension ranges by blade material, MPa. From memory, not a published table: bi-metal (and, we assume,
+ * carbide-tipped) production bands are commonly tensioned to about 30 000–35 000 psi (≈ 207–241 MPa), carbon
+ * bands lower, about 15 000–20 000 psi (≈ 103–138 MPa). The blade maker's figure always overrides these.
+ */
+export const DEFAULT_TENSION_RANGE_MPA: Record<BladeMaterial, { minMPa: number; maxMPa: number }> = {
+  carbon: { minMPa: mpaFromPsi(15000), maxMPa: mpaFromPsi(20000) },
+  bimetal: { minMPa: mpaFromPsi(30000), maxMPa: mpaFromPsi(35000) },
+  carbide_tipped: { minMPa: mpaFromPsi(30000), maxMPa: mpaFromPsi(35000) },
+};
+
+/**
+ * Defaults of the check targets, SI. Common practice, no source, except where said otherwise; the
+ * tolerances and the tracking scaling are Kerfline's own choices, documented beside each.
+ */
+export const CHECK_DEFAULTS = {
+  /** Guide opening = band thickness + 0.001 in (common practice, no source). */
+  guideExtraClearanceMm: inToMm(0.001),
+  /**
+   * Our choice: pass within ±0.001 in of the target, i.e. from the band thickness itself up to thickness +
+   * 0.002 in. Tighter than the band binds it; looser lets it wander.
+   */
+  guideToleranceMm: inToMm(0.001),
+  /** 1/8 in overhang on a 1 in band (common practice, no source), scaled as 1/8 of the band width. */
+  trackingOverhangPerWidth: 1 / 8,
+  /** Our bounds on the scaled overhang: at least 1/16 in so the set stays off the wheel on narrow bands… */
+  trackingMinOverhangMm: inToMm(1 / 16),
+  /** …and at most 1/4 in so a wide band keeps most of its width on the wheel. */
+  trackingMaxOverhangMm: inToMm(1 / 4),
+  /** Our choice: ±1/32 in around the target overhang. */
+  trackingToleranceMm: inToMm(1 / 32),
+  /** 8 lbf ≈ 35.6 N on a spring balance over the last inch of head travel (common practice for one class of saw, no source). */
+  maxHeadForceN: lbfToN(8),
+  /** Our choice: a 0.001 in feeler under the straightedge is the most a bearing face may show. */
+  bearingWearToleranceMm: inToMm(0.001),
+} as const;
+
+// zod 4's number() already refuses NaN and ±Infinity.
+const finite = (label: string, unit: string) => z.number({ message: `${label} must be a number (${unit})` });
+const positive = (label: string, unit: string, max: number) =>
+  finite(label, unit)
+    .positive({ message: `${label} must be greater than 0 ${unit}` })
+    .max(max, { message: `${label} must be at most ${max} ${unit}` });
+const nonNegative = (label: string, unit: string, max: number) =>
+  finite(label, unit)
+    .min(0, { message: `${label} must not be negative` })
+    .max(max, { message: `${label} must be at most ${max} ${unit}` });
+
+/** Guide bearing clearance: the opening of the guide across the band, measured with feeler gauges. */
+export const guideClearanceInputSchema = z.object({
+  kind: z.literal('guide_clearance'),
+  bandThicknessMm: positive('Band thickness', 'mm', 5),
+  /** Clearance added to the band thickness for the target; default 0.001 in. */
+  extraClearanceMm: nonNegative('Extra clearance', 'mm', 1).default(CHECK_DEFAULTS.guideExtraClearanceMm),
+  /** Allowed difference either side of the target; default 0.001 in. */
+  toleranceMm: nonNegative('Tolerance', 'mm', 1).default(CHECK_DEFAULTS.guideToleranceMm),
+  measuredMm: nonNegative('Measured clearance', 'mm', 10).nullable().optional(),
+});
+
+/** Tracking: how far the band's tooth edge stands off the front of the wheel face. */
+export const trackingInputSchema = z
+  .object({
+    kind: z.literal('tracking'),
+    bandWidthMm: positive('Band width', 'mm', 200),
+    toleranceMm: nonNegative('Tolerance', 'mm', 10).default(CHECK_DEFAULTS.trackingToleranceMm),
+    minOverhangMm: nonNegative('Smallest overhang', 'mm', 50).default(CHECK_DEFAULTS.trackingMinOverhangMm),
+    maxOverhangMm: nonNegative('Largest overhang', 'mm', 50).default(CHECK_DEFAULTS.trackingMaxOverhangMm),
+    /** Negative when the tooth edge sits back on the wheel face. */
+    measuredOverhangMm: finite('Measured overhang', 'mm').nullable().optional(),
+  })
+  .refine((v) => v.minOverhangMm <= v.maxOverhangMm, {
+    path: ['maxOverhangMm'],
+    message: 'Largest overhang must not be below the smallest',
+  });
+
+/** Feed / head pressure: spring-balance reading of the head over the last inch of its travel. */
+export const feedPressureInputSchema = z.object({
+  kind: z.literal('feed_pressure'),
+  /** This saw's maximum; default 8 lbf. */
+  maxHeadForceN: positive('Largest head force', 'N', 100000).default(CHECK_DEFAULTS.maxHeadForceN),
+  measuredN: nonNegative('Measured head force', 'N', 1000000).nullable().optional(),
+});
+
+/** Guide and pressure bearing wear: gap under a straightedge laid on the bearing face. */
+export const bearingWearInputSchema = z.object({
+  kind: z.literal('bearing_wear'),
+  toleranceMm: nonNegative('Allowed gap', 'mm', 5).default(CHECK_DEFAULTS.bearingWearToleranceMm),
+  measuredGapMm: nonNegative('Measured gap', 'mm', 50).nullable().optional(),
+});
+
+/** Band tension: stress read from a band tension meter. */
+export const bandTensionInputSchema = z
+  .object({
+    kind: z.literal('band_tension'),
+    bladeMaterial: z.enum(BLADE_MATERIALS, { message: 'Blade material must be carbon, bimetal or carbide_tipped' }),
+    /** The blade maker's range overrides the defaults when given. */
+    minMPa: positive('Lowest tension', 'MPa', 2000).optional(),
+    maxMPa: positive('Highest tension', 'MPa', 2000).optional(),
+    measuredMPa: nonNegative('Measured tension', 'MPa', 5000).nullable().optional(),
+  })
+  .refine(
+    (v) =>
+      (v.minMPa ?? DEFAULT_TENSION_RANGE_MPA[v.bladeMaterial].minMPa) <=
+      (v.maxMPa ?? DEFAULT_TENSION_RANGE_MPA[v.bladeMaterial].maxMPa),
+    { path: ['maxMPa'], message: 'Highest tension must not be below the lowest' },
+  );
+
+/** Chip brush: does it reach into the gullets, and is it worn? */
+export const chipBrushInputSchema = z.object({
+  kind: z.literal('chip_brush'),
+  reachesGullets: z.boolean({ message: 'Say whether the brush reaches into the gullets' }).nullable().optional(),
+  worn: z.boolean({ message: 'Say whether the brush is worn' }).nullable().optional(),
+});
+
+/** Any check, picked by `kind`: what a check form sends to get its target and pass/fail. */
+export const checkInputSchema = z.discriminatedUnion(
+  'kind',
+  [
+    guideClearanceInputSchema,
+    trackingInputSchema,
+    feedPressureInputSchema,
+    bearingWearInputSchema,
+    bandTensionInputSchema,
+    chipBrushInputSchema,
+  ],
+  { message: `Check kind must be one of ${CHECK_KIND_IDS.join(', ')}` },
+);
+export type CheckInput = z.input<typeof checkInputSchema>;
+
+const dateInput = (label: string) => z.coerce.date({ message: `${label} must be a date` });
+
+/** What the overdue calculation needs for one check kind on one saw. */
+export const checkDueInputSchema = z.object({
+  kind: z.enum(CHECK_KIND_IDS, { message: `Check kind must be one of ${CHECK_KIND_IDS.join(', ')}` }),
+  lastCheckedAt: dateInput('Last check').nullable(),
+  lastBladeChangeAt: dateInput('Last blade change').nullable(),
+  asOf: dateInput('As-of date'),
+  /** Days between periodic checks; the kind's default when omitted. */
+  intervalDays: z
+    .number()
+    .int({ message: 'Interval must be a whole number of days' })
+    .min(1, { message: 'Interval must be at least 1 day' })
+    .max(3650)
+    .optional(),
+  /** Hours allowed after a blade change to do its checks; default 8 (one shift). */
+  graceHours: z.number().min(0, { message: 'Grace time must not be negative' }).max(720).optional(),
+});
+export type CheckDueInput = z.input<typeof checkDueInputSchema>;
