@@ -48,3 +48,15 @@ export function detailsFromZodError(error: z.ZodError): ErrorDetail[] {
     message: issue.message,
   }));
 }
+
+/**
+ * Thrown by the trade's computations when a direct caller hands them a quantity they cannot use (a
+ * negative width, a band too short for the wheels). The message says what to fix; the API answers 400.
+ * It extends RangeError so callers that only know the standard error still recognise it.
+ */
+export class DomainInputError extends RangeError {
+  constructor(message: string) {
+    super(message);
+    this.name = 'DomainInputError';
+  }
+}

@@ -8,7 +8,7 @@ import {
   DatabaseError,
   ConnectionError,
 } from 'sequelize';
-import { HTTP_STATUS_BY_CODE, detailsFromZodError, type ErrorBody, type ErrorCode, type ErrorDetail } from '@kerfline/domain/errors';
+import { DomainInputError, HTTP_STATUS_BY_CODE, detailsFromZodError, type ErrorBody, type ErrorCode, type ErrorDetail } from '@kerfline/domain/errors';
 import { AppError } from '../errors.js';
 
 /** Maps a Sequelize attribute list like `site_id, asset_tag` back to our field names. */
@@ -29,6 +29,7 @@ export function toAppError(err: unknown): { error: AppError; internal: boolean }
   if (err instanceof ZodError) {
     return { error: AppError.validation('Some fields need fixing', detailsFromZodError(err)), internal: false };
   }
+  if (err instanceof DomainInputError) return { error: AppError.validation(err.message), internal: false };
   if (err instanceof ForbiddenError) {
     return { error: new AppError('FORBIDDEN', 'You are not allowed to do that'), internal: false };
   }

@@ -1,3 +1,4 @@
+import { DomainInputError } from '../errors.js';
 /**
  * Compares a band speed with the recommended range for the material and with what the saw can run.
  */
@@ -59,7 +60,7 @@ export function checkBandSpeed(
   requirePositive(sawRange.minMPerMin, 'Lowest band speed of the saw', 'm/min');
   requirePositive(sawRange.maxMPerMin, 'Highest band speed of the saw', 'm/min');
   if (sawRange.minMPerMin > sawRange.maxMPerMin) {
-    throw new RangeError('Highest band speed of the saw must not be below the lowest');
+    throw new DomainInputError('Highest band speed of the saw must not be below the lowest');
   }
 
   const position: SpeedPosition =

@@ -1,3 +1,4 @@
+import { DomainInputError } from '../errors.js';
 /**
  * Recommended band speeds for bi-metal blades by material group, in m/min (SI inside; fpm through `units`).
  *
@@ -34,6 +35,6 @@ export interface RecommendedBandSpeed extends SpeedRangeMPerMin {
 /** Recommended bi-metal band speed range for a material group, in m/min and fpm. */
 export function recommendedBandSpeed(materialGroup: MaterialGroup): RecommendedBandSpeed {
   const range = BI_METAL_BAND_SPEEDS[materialGroup];
-  if (range === undefined) throw new RangeError(`Unknown material group: ${String(materialGroup)}`);
+  if (range === undefined) throw new DomainInputError(`Unknown material group: ${String(materialGroup)}`);
   return { ...range, minFpm: mPerMinToFpm(range.minMPerMin), maxFpm: mPerMinToFpm(range.maxMPerMin) };
 }

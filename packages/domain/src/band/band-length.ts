@@ -1,3 +1,4 @@
+import { DomainInputError } from '../errors.js';
 /**
  * Band length of a two-wheel saw from its wheels and centre distance, and the centre distance a band length needs.
  * All lengths in mm. Enter the diameters the band actually runs on (with a tyre, over the tyre); the band's own
@@ -31,7 +32,7 @@ function checkCentreDistance(wheels: Wheels, centreDistanceMm: number): void {
   requirePositive(centreDistanceMm, 'Centre distance', 'mm');
   const touching = touchingCentreDistanceMm(wheels);
   if (centreDistanceMm <= touching) {
-    throw new RangeError(
+    throw new DomainInputError(
       `Centre distance must be more than ${touching} mm (half the sum of the wheel diameters), or the wheels overlap`,
     );
   }
@@ -81,7 +82,7 @@ function checkBandLength(wheels: Wheels, lengthMm: number, lengthAt: (c: number)
   const touching = touchingCentreDistanceMm(wheels);
   const shortest = lengthAt(touching);
   if (lengthMm <= shortest) {
-    throw new RangeError(
+    throw new DomainInputError(
       `A ${lengthMm} mm band is too short for these wheels: it must be longer than ${Math.ceil(shortest)} mm, or the wheels overlap`,
     );
   }

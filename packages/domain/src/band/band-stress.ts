@@ -1,3 +1,4 @@
+import { DomainInputError } from '../errors.js';
 /**
  * Stresses in a band running over the wheels, in pascals. Inputs in mm and N (SI inside).
  *
@@ -36,9 +37,9 @@ export function bendingStressPa({
   requirePositive(wheelDiameterMm, 'Wheel diameter', 'mm');
   requirePositive(elasticModulusPa, 'Elastic modulus', 'Pa');
   requireNonNegative(poissonRatio, "Poisson's ratio", '');
-  if (poissonRatio >= 0.5) throw new RangeError("Poisson's ratio must be below 0.5 (steel is about 0.29)");
+  if (poissonRatio >= 0.5) throw new DomainInputError("Poisson's ratio must be below 0.5 (steel is about 0.29)");
   if (bandThicknessMm >= wheelDiameterMm)
-    throw new RangeError('Band thickness must be far smaller than the wheel diameter');
+    throw new DomainInputError('Band thickness must be far smaller than the wheel diameter');
   return (elasticModulusPa * bandThicknessMm) / ((1 - poissonRatio ** 2) * wheelDiameterMm);
 }
 

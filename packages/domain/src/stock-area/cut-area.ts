@@ -1,3 +1,4 @@
+import { DomainInputError } from '../errors.js';
 /**
  * Area of the cut face of a piece of stock, in mm². Blade life and cost per area cut are measured in this area.
  *
@@ -12,7 +13,7 @@ import { requireCount, requirePositive } from '../units/guards.js';
 import type { StockShape, StockShapeOf } from './schema.js';
 
 function requireAtMost(value: number, limit: number, message: string): void {
-  if (value > limit) throw new RangeError(message);
+  if (value > limit) throw new DomainInputError(message);
 }
 
 /** Solid round bar: π·D²/4 (mm²). */
@@ -114,7 +115,7 @@ export function cutFaceAreaMm2(shape: StockShape): number {
       return beamAreaMm2(shape);
     default: {
       const unknown: never = shape;
-      throw new RangeError(`Unknown stock shape: ${JSON.stringify(unknown)}`);
+      throw new DomainInputError(`Unknown stock shape: ${JSON.stringify(unknown)}`);
     }
   }
 }
