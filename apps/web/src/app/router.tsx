@@ -1,0 +1,109 @@
+import { createBrowserRouter, Navigate, type RouteObject } from 'react-router-dom';
+import type { QueryClient } from '@tanstack/react-query';
+import { rootLoader } from './root-loader';
+import { AppShell } from './shell/app-shell';
+import { NotFoundPage } from './routes/errors/not-found-page';
+import { RouteError } from './routes/errors/route-error';
+
+/** What shows while the first page's code and data arrive. */
+function FirstLoad() {
+  return (
+    <p role="status" className="px-4 py-10 text-center text-ink-muted">
+      Loading Kerfline…
+    </p>
+  );
+}
+
+/**
+ * Every page of the web app. The router decides when to load (each loader calls `ensureQueryData`); the
+ * query cache owns the data and the pages read it with the same query options. Pages are split into their
+ * own chunks so the first load carries only the shell.
+ */
+export function appRoutes(queryClient: QueryClient): RouteObject[] {
+  return [
+    {
+      path: '/sign-in',
+      errorElement: <RouteError />,
+      hydrateFallbackElement: <FirstLoad />,
+      lazy: async () => ({ Component: (await import('./routes/auth/sign-in-page')).SignInPage }),
+    },
+    {
+      id: 'root',
+      path: '/',
+      loader: rootLoader(queryClient),
+      element: <AppShell />,
+      hydrateFallbackElement: <FirstLoad />,
+      // A failure of the root loader itself (the server down, say): no shell to draw it in.
+      errorElement: <RouteError />,
+      children: [
+        {
+          // Page failures render inside the shell, so the navigation stays.
+          errorElement: <RouteError />,
+          children: [
+            { index: true, element: <Navigate to="/sites" replace /> },
+            {
+              path: 'sites',
+              lazy: async () => {
+                const page = await import('./routes/sites/sites-page');
+                return { loader: page.sitesLoader(queryClient), Component: page.SitesPage };
+              },
+            },
+            {
+              path: 'sites/:siteId',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-page');
+                return { loader: page.sitePageLoader(queryClient), Component: page.SitePage };
+              },
+            },
+            {
+              path: 'saws',
+              lazy: async () => {
+                const page = await import('./routes/saws/saws-page');
+                return { loader: page.sawsPageLoader(queryClient), Component: page.SawsPage };
+              },
+            },
+            {
+              path: 'saws/new',
+              lazy: async () => {
+                const page = await import('./routes/saws/saw-new-page');
+                return { loader: page.sawNewPageLoader(queryClient), Component: page.SawNewPage };
+              },
+            },
+            {
+              path: 'saws/:sawId',
+              lazy: async () => {
+                const page = await import('./routes/saws/saw-page');
+                return { loader: page.sawPageLoader(queryClient), Component: page.SawPage };
+              },
+            },
+            {
+              path: 'saws/:sawId/edit',
+              lazy: async () => {
+                const page = await import('./routes/saws/saw-edit-page');
+                return { loader: page.sawEditPageLoader(queryClient), Component: page.SawEditPage };
+              },
+            },
+            {
+              path: 'people',
+              lazy: async () => {
+                const page = await import('./routes/people/people-page');
+                return { loader: page.peoplePageLoader(queryClient), Component: page.PeoplePage };
+              },
+            },
+            {
+              path: 'calculators',
+              lazy: async () => ({
+                Component: (await import('./routes/calculators/calculators-page')).CalculatorsPage,
+              }),
+            },
+            { path: '*', element: <NotFoundPage /> },
+          ],
+        },
+      ],
+    },
+  ];
+}
+
+export function createAppRouter(queryClient: QueryClient) {
+  return createBrowserRouter(appRoutes(queryClient));
+}

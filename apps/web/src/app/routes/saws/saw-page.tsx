@@ -1,0 +1,134 @@
+import { useRef, useState } from 'react';
+import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { useQueryClient, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
+import { subject } from '@casl/ability';
+import { useAppAbility } from '../../../lib/ability';
+import { Button, LinkButton } from '../../../lib/ui/button';
+import { Card } from '../../../lib/ui/card';
+import { Notice } from '../../../lib/ui/notice';
+import { formatDate } from '../../../lib/format';
+import { sawDetailQuery } from '../../../features/saws/api/queries';
+import { useRetireSaw } from '../../../features/saws/api/mutations';
+import { SawDetailPanel } from '../../../features/saws/components/saw-detail-panel';
+import { SawStatusBadge } from '../../../features/saws/components/saw-status-badge';
+import { siteDetailQuery } from '../../../features/sites/api/queries';
+import { siteKeys } from '../../../features/sites/api/keys';
+
+export function sawPageLoader(queryClient: QueryClient) {
+  return async ({ params }: LoaderFunctionArgs) => {
+    const saw = await queryClient.ensureQueryData(sawDetailQuery(params.sawId ?? ''));
+    await queryClient.ensureQueryData(siteDetailQuery(saw.siteId));
+    return null;
+  };
+}
+
+/** One saw: its state on top, then everything recorded about it in the site's units. */
+export function SawPage() {
+  const sawId = useParams().sawId ?? '';
+  const { data: saw } = useSuspenseQuery(sawDetailQuery(sawId));
+  const { data: site } = useSuspenseQuery(siteDetailQuery(saw.siteId));
+  const ability = useAppAbility();
+  const queryClient = useQueryClient();
+  const retire = useRetireSaw(saw.id);
+  const [confirming, setConfirming] = useState(false);
+  const confirmRef = useRef<HTMLHeadingElement>(null);
+
+  const canChange =
+    saw.status !== 'retired' && ability.can('update', subject('Saw', { id: saw.id, siteId: saw.siteId }));
+
+  const askToRetire = () => {
+    setConfirming(true);
+    // Move focus to the question so keyboard and screen-reader users land on it.
+    requestAnimationFrame(() => confirmRef.current?.focus());
+  };
+
+  const onRetire = () => {
+    retire.mutate(undefined, {
+      onSuccess: () => {
+        setConfirming(false);
+        // A retired saw no longer counts as in use at its site.
+        void queryClient.invalidateQueries({ queryKey: siteKeys.detail(saw.siteId) });
+        void queryClient.invalidateQueries({ queryKey: siteKeys.lists() });
+      },
+    });
+  };
+
+  return (
+    <div className="space-y-6">
+      <title>{`${saw.assetTag} ${saw.name} · Kerfline`}</title>
+      <nav aria-label="Breadcrumb" className="text-sm text-ink-muted">
+        <Link
+          to="/sites"
+          className="inline-flex min-h-11 items-center underline-offset-4 hover:text-ink hover:underline"
+        >
+          Sites
+        </Link>
+        <span aria-hidden="true" className="px-2">
+          /
+        </span>
+        <Link
+          to={`/sites/${site.id}`}
+          className="inline-flex min-h-11 items-center underline-offset-4 hover:text-ink hover:underline"
+        >
+          {site.name}
+        </Link>
+        <span aria-hidden="true" className="px-2">
+          /
+        </span>
+        <span aria-current="page" className="text-ink">
+          {saw.assetTag}
+        </span>
+      </nav>
+
+      <header className="flex flex-wrap items-end justify-between gap-4">
+        <div className="space-y-2">
+          <SawStatusBadge status={saw.status} large />
+          <h1 className="text-3xl font-extrabold tracking-tight text-ink">
+            <span className="tabular">{saw.assetTag}</span> <span className="font-semibold text-ink-muted">·</span>{' '}
+            {saw.name}
+          </h1>
+          {saw.status === 'retired' && saw.retiredAt ? (
+            <p className="text-ink-muted">
+              Retired on {formatDate(saw.retiredAt, site.timeZone)}; kept for its history.
+            </p>
+          ) : null}
+        </div>
+        {canChange ? (
+          <div className="flex flex-wrap gap-2">
+            <LinkButton to={`/saws/${saw.id}/edit`} variant="primary">
+              Edit saw
+            </LinkButton>
+            <Button variant="danger" onClick={askToRetire} aria-expanded={confirming} aria-controls="retire-confirm">
+              Retire…
+            </Button>
+          </div>
+        ) : null}
+      </header>
+
+      {confirming ? (
+        <Card id="retire-confirm" aria-labelledby="retire-heading" className="border-signal-stop p-5">
+          <h2 id="retire-heading" ref={confirmRef} tabIndex={-1} className="text-lg font-bold text-ink">
+            Retire {saw.assetTag}?
+          </h2>
+          <p className="mt-1 text-ink-muted">
+            It leaves the lists of saws in use and can no longer be edited. Its records stay for reports.
+          </p>
+          {retire.isError ? (
+            <div className="mt-3">
+              <Notice title="The saw was not retired">{retire.error.message}</Notice>
+            </div>
+          ) : null}
+          <div className="mt-4 flex flex-wrap gap-2">
+            <Button variant="danger" onClick={onRetire} disabled={retire.isPending}>
+              {retire.isPending ? 'Retiring…' : 'Retire saw'}
+            </Button>
+            <Button onClick={() => setConfirming(false)}>Keep it in use</Button>
+          </div>
+        </Card>
+      ) : null}
+      {retire.isSuccess ? <Notice tone="info">{saw.assetTag} is retired.</Notice> : null}
+
+      <SawDetailPanel saw={saw} unitSystem={site.unitSystem} timeZone={site.timeZone} />
+    </div>
+  );
+}

@@ -1,0 +1,51 @@
+import { useQuery, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
+import { useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { siteDetailQuery } from '../../../features/sites/api/queries';
+import { SiteHeader } from '../../../features/sites/components/site-header';
+import { regionListQuery } from '../../../features/regions/api/queries';
+import { sawListQuery } from '../../../features/saws/api/queries';
+import { sawFilterValuesFromSearch, sawListQueryFromSearch } from '../../../features/saws/api/list-search';
+import { SawFilters } from '../../../features/saws/components/saw-filters';
+import { SawsTable } from '../../../features/saws/components/saws-table';
+import { Pager } from '../../../lib/ui/pager';
+
+export function sitePageLoader(queryClient: QueryClient) {
+  return async ({ params, request }: LoaderFunctionArgs) => {
+    const siteId = params.siteId ?? '';
+    const search = new URL(request.url).searchParams;
+    await Promise.all([
+      queryClient.ensureQueryData(siteDetailQuery(siteId)),
+      queryClient.ensureQueryData(sawListQuery(sawListQueryFromSearch(search, siteId))),
+      queryClient.ensureQueryData(regionListQuery()).catch(() => undefined),
+    ]);
+    return null;
+  };
+}
+
+/** One site: its header and its saws, filtered by status, kind and text from the URL. */
+export function SitePage() {
+  const siteId = useParams().siteId ?? '';
+  const [search] = useSearchParams();
+  const q = sawListQueryFromSearch(search, siteId);
+  const { data: site } = useSuspenseQuery(siteDetailQuery(siteId));
+  const { data: saws } = useSuspenseQuery(sawListQuery(q));
+  const { data: regions } = useQuery(regionListQuery());
+  const filters = sawFilterValuesFromSearch(search);
+  const filtered = filters.status !== '' || filters.kind !== '' || filters.q !== '';
+
+  return (
+    <div className="space-y-6">
+      <title>{`${site.name} · Kerfline`}</title>
+      <SiteHeader site={site} regionName={regions?.items.find((region) => region.id === site.regionId)?.name} />
+      <SawsTable
+        heading="Saws"
+        saws={saws.items}
+        unitSystemOf={() => site.unitSystem}
+        addForSiteId={site.id}
+        emptyMessage={filtered ? 'No saws match these filters.' : 'No saws are recorded at this site yet.'}
+        toolbar={<SawFilters values={filters} />}
+        footer={<Pager total={saws.total} limit={saws.limit} offset={saws.offset} noun="saws" />}
+      />
+    </div>
+  );
+}

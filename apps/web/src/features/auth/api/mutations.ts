@@ -1,0 +1,23 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { meSchema, type SignIn } from '@kerfline/domain/auth/schema';
+import { api } from '../../../lib/api-client';
+import { meKeys } from './keys';
+
+export function useSignIn() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: SignIn) => api.post('/auth/sign-in', input, meSchema),
+    onSuccess: (me) => {
+      // A new identity: nothing cached for whoever used this tab before may be shown to this user.
+      queryClient.removeQueries();
+      queryClient.setQueryData(meKeys.all, me);
+    },
+  });
+}
+
+/** Ends the session. The caller leaves the signed-in screens first, then drops the cache (see the shell). */
+export function useSignOut() {
+  return useMutation({
+    mutationFn: () => api.post('/auth/sign-out', undefined, null),
+  });
+}

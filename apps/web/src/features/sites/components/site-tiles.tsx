@@ -1,0 +1,53 @@
+import { Link } from 'react-router-dom';
+import type { Site } from '@kerfline/domain/sites/schema';
+import { formatNumber } from '../../../lib/format';
+
+export const UNIT_SYSTEM_LABELS = { metric: 'Metric (mm, m/min)', imperial: 'Imperial (in, ft/min)' } as const;
+
+/** One tile per site: the figures a manager compares at a glance, the whole tile a link to the site. */
+export function SiteTiles({
+  sites,
+  regionNameOf,
+}: {
+  sites: Site[];
+  regionNameOf: (regionId: string) => string | undefined;
+}) {
+  if (sites.length === 0) {
+    return (
+      <p className="text-ink-muted">No sites are assigned to you yet. Ask an administrator to add you to a site.</p>
+    );
+  }
+  return (
+    <ul className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3 2xl:grid-cols-4">
+      {sites.map((site) => (
+        <li key={site.id}>
+          <Link
+            to={`/sites/${site.id}`}
+            className="group flex h-full flex-col rounded-sheet border border-rule bg-card p-5 transition-colors hover:border-accent"
+          >
+            <div className="flex items-baseline justify-between gap-3 text-sm text-ink-muted">
+              <span className="rounded border border-rule px-1.5 py-0.5 font-bold tracking-wider text-ink">
+                {site.code}
+              </span>
+              <span className="truncate">{regionNameOf(site.regionId) ?? 'Region not shown'}</span>
+            </div>
+            <h2 className="mt-3 text-xl font-bold text-ink group-hover:text-accent-dark group-hover:underline">
+              {site.name}
+            </h2>
+            <p className="text-sm text-ink-muted">{site.city ?? 'City not recorded'}</p>
+            <p className="mt-4 flex items-baseline gap-2">
+              <span className="tabular text-4xl font-extrabold text-ink">{formatNumber(site.activeSawCount)}</span>
+              <span className="text-sm text-ink-muted">{site.activeSawCount === 1 ? 'saw in use' : 'saws in use'}</span>
+            </p>
+            <dl className="mt-4 grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 border-t border-rule pt-3 text-sm">
+              <dt className="text-ink-muted">Time zone</dt>
+              <dd className="truncate text-ink">{site.timeZone}</dd>
+              <dt className="text-ink-muted">Units</dt>
+              <dd className="text-ink">{UNIT_SYSTEM_LABELS[site.unitSystem]}</dd>
+            </dl>
+          </Link>
+        </li>
+      ))}
+    </ul>
+  );
+}

@@ -1,0 +1,155 @@
+import type { z } from 'zod';
+import {
+  ERROR_CODES,
+  HTTP_STATUS_BY_CODE,
+  detailsFromZodError,
+  errorBodySchema,
+  type ErrorCode,
+  type ErrorDetail,
+} from '@kerfline/domain/errors';
+
+/**
+ * The one error every request to Kerfline's API rejects with: the server's error body, or an equivalent
+ * made here when the server could not be reached or answered in a shape we do not understand.
+ * Transport only: it never shows a message or moves the user; the router and the screens decide that.
+ */
+export class ApiError extends Error {
+  override readonly name = 'ApiError';
+  readonly code: ErrorCode;
+  /** HTTP status; 0 when no answer came back at all. */
+  readonly status: number;
+  readonly details: ErrorDetail[];
+  readonly requestId: string | undefined;
+
+  constructor(init: {
+    code: ErrorCode;
+    status: number;
+    message: string;
+    details?: ErrorDetail[];
+    requestId?: string | undefined;
+  }) {
+    super(init.message);
+    this.code = init.code;
+    this.status = init.status;
+    this.details = init.details ?? [];
+    this.requestId = init.requestId;
+  }
+}
+
+export function isApiError(error: unknown, status?: number): error is ApiError {
+  return error instanceof ApiError && (status === undefined || error.status === status);
+}
+
+const MESSAGE_BY_CODE: Record<ErrorCode, string> = {
+  VALIDATION_FAILED: 'Some of what was sent is not valid.',
+  UNAUTHENTICATED: 'You are not signed in.',
+  FORBIDDEN: 'Your role does not allow this.',
+  NOT_FOUND: 'That record does not exist or is outside your sites.',
+  CONFLICT: 'That change clashes with a record that already exists.',
+  RATE_LIMITED: 'Too many attempts. Wait a minute and try again.',
+  UNAVAILABLE: 'Kerfline is not available right now. Try again in a moment.',
+  INTERNAL: 'Something went wrong on the server. Try again; if it keeps happening, tell your administrator.',
+};
+
+/** The code a bare HTTP status stands for, for answers that carry no error body (a proxy's 502 page, say). */
+function codeForStatus(status: number): ErrorCode {
+  const match = ERROR_CODES.find((code) => HTTP_STATUS_BY_CODE[code] === status);
+  if (match) return match;
+  return status === 502 || status === 504 ? 'UNAVAILABLE' : 'INTERNAL';
+}
+
+type Query = Record<string, string | number | boolean | null | undefined>;
+
+/** Query string from a parsed query: undefined and null values are left out, the rest written as text. */
+export function toSearchParams(query: Query): URLSearchParams {
+  const params = new URLSearchParams();
+  for (const [key, value] of Object.entries(query)) {
+    if (value === undefined || value === null || value === '') continue;
+    params.set(key, String(value));
+  }
+  return params;
+}
+
+type RequestOptions = {
+  method?: 'GET' | 'POST' | 'PATCH' | 'DELETE';
+  query?: Query;
+  body?: unknown;
+  signal?: AbortSignal;
+};
+
+async function readJson(response: Response): Promise<unknown> {
+  const text = await response.text();
+  if (text.trim() === '') return undefined;
+  try {
+    return JSON.parse(text) as unknown;
+  } catch {
+    return undefined;
+  }
+}
+
+/**
+ * Sends one request to `/api{path}` and parses the answer with `schema` (pass `null` for answers without
+ * a body, such as 204). Same-origin cookies carry the session.
+ */
+export async function apiRequest<T>(
+  path: string,
+  schema: z.ZodType<T> | null,
+  options: RequestOptions = {},
+): Promise<T> {
+  const search = options.query ? toSearchParams(options.query).toString() : '';
+  const url = `/api${path}${search ? `?${search}` : ''}`;
+  const headers: Record<string, string> = { Accept: 'application/json' };
+  if (options.body !== undefined) headers['Content-Type'] = 'application/json';
+
+  let response: Response;
+  try {
+    response = await fetch(url, {
+      method: options.method ?? 'GET',
+      headers,
+      credentials: 'same-origin',
+      body: options.body === undefined ? undefined : JSON.stringify(options.body),
+      signal: options.signal,
+    });
+  } catch (cause) {
+    // An abort is the caller's own doing (a query that is no longer needed): pass it through untouched.
+    if (cause instanceof DOMException && cause.name === 'AbortError') throw cause;
+    throw new ApiError({
+      code: 'UNAVAILABLE',
+      status: 0,
+      message: 'Kerfline could not be reached. Check the network connection and try again.',
+    });
+  }
+
+  const json = await readJson(response);
+
+  if (!response.ok) {
+    const parsed = errorBodySchema.safeParse(json);
+    if (parsed.success) {
+      const { code, message, details, requestId } = parsed.data.error;
+      throw new ApiError({ code, status: response.status, message, details, requestId });
+    }
+    const code = codeForStatus(response.status);
+    throw new ApiError({ code, status: response.status, message: MESSAGE_BY_CODE[code] });
+  }
+
+  if (schema === null) return undefined as T;
+  const parsed = schema.safeParse(json);
+  if (!parsed.success) {
+    throw new ApiError({
+      code: 'INTERNAL',
+      status: response.status,
+      message:
+        'The server answered in a shape this page does not understand. Reload the page; if it keeps happening, tell your administrator.',
+      details: detailsFromZodError(parsed.error),
+    });
+  }
+  return parsed.data;
+}
+
+export const api = {
+  get: <T>(path: string, schema: z.ZodType<T>, options: Omit<RequestOptions, 'method' | 'body'> = {}) =>
+    apiRequest(path, schema, { ...options, method: 'GET' }),
+  post: <T>(path: string, body: unknown, schema: z.ZodType<T> | null) =>
+    apiRequest(path, schema, { method: 'POST', body }),
+  patch: <T>(path: string, body: unknown, schema: z.ZodType<T>) => apiRequest(path, schema, { method: 'PATCH', body }),
+};

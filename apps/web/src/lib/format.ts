@@ -1,0 +1,120 @@
+import type { UnitSystem } from '@kerfline/domain/sites/schema';
+import { fpmToMPerMin, inToMm, mPerMinToFpm, mmToIn } from '@kerfline/domain/units/units';
+
+/**
+ * Display formatting at the edge. Values arrive in SI (millimetres, metres per minute, ISO timestamps in
+ * UTC) and leave as text in the site's unit system and time zone. One locale everywhere, so the decimal
+ * point shown is the one the forms accept.
+ */
+export const APP_LOCALE = 'en-US';
+
+/** Keeps a value and its unit on one line. */
+const NBSP = '\u00a0';
+
+const numberFormats = new Map<number, Intl.NumberFormat>();
+function numberFormat(maxFractionDigits: number): Intl.NumberFormat {
+  let format = numberFormats.get(maxFractionDigits);
+  if (!format) {
+    format = new Intl.NumberFormat(APP_LOCALE, { maximumFractionDigits: maxFractionDigits, useGrouping: true });
+    numberFormats.set(maxFractionDigits, format);
+  }
+  return format;
+}
+
+/** A number with thousands separators and at most `maxFractionDigits` decimals (trailing zeros dropped). */
+export function formatNumber(value: number, maxFractionDigits = 0): string {
+  return numberFormat(maxFractionDigits).format(value);
+}
+
+export function lengthUnit(system: UnitSystem): 'mm' | 'in' {
+  return system === 'imperial' ? 'in' : 'mm';
+}
+
+export function speedUnit(system: UnitSystem): 'm/min' | 'ft/min' {
+  return system === 'imperial' ? 'ft/min' : 'm/min';
+}
+
+/** Millimetres to the site's length unit (mm or inches), unrounded. */
+export function lengthFromMm(mm: number, system: UnitSystem): number {
+  return system === 'imperial' ? mmToIn(mm) : mm;
+}
+
+/**
+ * A length typed in the site's unit, in millimetres. Rounded to 0.0001 mm: far below any saw's tolerance,
+ * and it keeps 1.25 in from being stored as 31.750000000000004 mm.
+ */
+export function lengthToMm(value: number, system: UnitSystem): number {
+  const mm = system === 'imperial' ? inToMm(value) : value;
+  return Math.round(mm * 10_000) / 10_000;
+}
+
+/** Metres per minute to the site's speed unit (m/min or ft/min), unrounded. */
+export function speedFromMPerMin(mPerMin: number, system: UnitSystem): number {
+  return system === 'imperial' ? mPerMinToFpm(mPerMin) : mPerMin;
+}
+
+/** A band speed typed in the site's unit, in metres per minute, rounded to 0.001 m/min. */
+export function speedToMPerMin(value: number, system: UnitSystem): number {
+  const mPerMin = system === 'imperial' ? fpmToMPerMin(value) : value;
+  return Math.round(mPerMin * 1000) / 1000;
+}
+
+/** Decimals worth showing for a length: small bands need more (0.035 in, 0.89 mm), long ones none. */
+function lengthDigits(value: number, system: UnitSystem): number {
+  const size = Math.abs(value);
+  if (system === 'imperial') return size < 10 ? 3 : size < 100 ? 2 : 1;
+  return size < 10 ? 2 : size < 1000 ? 1 : 0;
+}
+
+/** Just the figure of a length in the site's unit, e.g. `1.25` for 31.75 mm on an imperial site. */
+export function formatLengthValue(mm: number, system: UnitSystem): string {
+  const value = lengthFromMm(mm, system);
+  return formatNumber(value, lengthDigits(value, system));
+}
+
+/** A length with its unit, e.g. `31.8 mm` or `1.25 in`. */
+export function formatLength(mm: number, system: UnitSystem): string {
+  return `${formatLengthValue(mm, system)}${NBSP}${lengthUnit(system)}`;
+}
+
+/** Just the figure of a band speed in the site's unit: whole numbers from 100 up, one decimal below. */
+export function formatSpeedValue(mPerMin: number, system: UnitSystem): string {
+  const value = speedFromMPerMin(mPerMin, system);
+  return formatNumber(value, Math.abs(value) < 100 ? 1 : 0);
+}
+
+/** A band speed with its unit, e.g. `75 m/min` or `246 ft/min`. */
+export function formatSpeed(mPerMin: number, system: UnitSystem): string {
+  return `${formatSpeedValue(mPerMin, system)}${NBSP}${speedUnit(system)}`;
+}
+
+/** A band speed range with one unit, e.g. `20–120 m/min`. */
+export function formatSpeedRange(minMPerMin: number, maxMPerMin: number, system: UnitSystem): string {
+  return `${formatSpeedValue(minMPerMin, system)}–${formatSpeedValue(maxMPerMin, system)}${NBSP}${speedUnit(system)}`;
+}
+
+/**
+ * A moment shown as the clock on the wall at the site, e.g. `Mar 12, 2025, 2:05 PM`; with `withZone` the
+ * zone's short name follows, for screens that mix sites in different zones.
+ */
+export function formatDateTime(iso: string, timeZone: string, withZone = false): string {
+  const date = new Date(iso);
+  if (Number.isNaN(date.getTime())) return '—';
+  // dateStyle/timeStyle cannot be combined with timeZoneName, so the fields are spelled out.
+  return new Intl.DateTimeFormat(APP_LOCALE, {
+    year: 'numeric',
+    month: 'short',
+    day: 'numeric',
+    hour: 'numeric',
+    minute: '2-digit',
+    timeZone,
+    ...(withZone ? { timeZoneName: 'short' as const } : {}),
+  }).format(date);
+}
+
+/** The calendar day at the site, e.g. `Mar 12, 2025`. */
+export function formatDate(iso: string, timeZone: string): string {
+  const date = new Date(iso);
+  if (Number.isNaN(date.getTime())) return '—';
+  return new Intl.DateTimeFormat(APP_LOCALE, { dateStyle: 'medium', timeZone }).format(date);
+}
