@@ -43,13 +43,17 @@ export const sawSchema = z.object({
 });
 export type Saw = z.infer<typeof sawSchema>;
 
-const sawFields = z.object({
+/**
+ * The fields as a user may send them, without defaults: an update built from these leaves every field it
+ * does not name as it is (a default inside `.partial()` would silently reset it).
+ */
+const sawFieldShapes = {
   siteId: idSchema,
   assetTag: text(40),
   name: text(120),
   kind: z.enum(SAW_KINDS, { message: 'choose horizontal or vertical' }),
-  make: text(80).nullable().default(null),
-  model: text(80).nullable().default(null),
+  make: text(80).nullable(),
+  model: text(80).nullable(),
   wheelDiameterMm: positiveMm('Wheel diameter', 3000),
   centreDistanceMm: positiveMm('Centre distance', 10000),
   bandWidthMm: positiveMm('Band width', 200),
@@ -57,10 +61,21 @@ const sawFields = z.object({
   bandLengthMm: positiveMm('Band length', 30000),
   bandSpeedMinMPerMin: z.number().positive({ message: 'Lowest band speed must be greater than 0' }).max(5000),
   bandSpeedMaxMPerMin: z.number().positive({ message: 'Highest band speed must be greater than 0' }).max(5000),
-  capacityRoundMm: positiveMm('Round capacity', 3000).nullable().default(null),
-  capacityRectWidthMm: positiveMm('Rectangle capacity width', 5000).nullable().default(null),
-  capacityRectHeightMm: positiveMm('Rectangle capacity height', 5000).nullable().default(null),
-  status: z.enum(['in_service', 'down'], { message: 'choose in service or down' }).default('in_service'),
+  capacityRoundMm: positiveMm('Round capacity', 3000).nullable(),
+  capacityRectWidthMm: positiveMm('Rectangle capacity width', 5000).nullable(),
+  capacityRectHeightMm: positiveMm('Rectangle capacity height', 5000).nullable(),
+  status: z.enum(['in_service', 'down'], { message: 'choose in service or down' }),
+};
+
+/** On create, optional details default to "not recorded" and a new saw is in service. */
+const sawFields = z.object({
+  ...sawFieldShapes,
+  make: sawFieldShapes.make.default(null),
+  model: sawFieldShapes.model.default(null),
+  capacityRoundMm: sawFieldShapes.capacityRoundMm.default(null),
+  capacityRectWidthMm: sawFieldShapes.capacityRectWidthMm.default(null),
+  capacityRectHeightMm: sawFieldShapes.capacityRectHeightMm.default(null),
+  status: sawFieldShapes.status.default('in_service'),
 });
 
 type SawRanges = {
@@ -89,7 +104,8 @@ export type SawCreate = z.input<typeof sawCreateSchema>;
 export type SawCreateParsed = z.output<typeof sawCreateSchema>;
 
 /** Any subset of the fields; moving a saw to another site is allowed only where the caller may write both. */
-export const sawUpdateSchema = sawFields
+export const sawUpdateSchema = z
+  .object(sawFieldShapes)
   .partial()
   .strict()
   .superRefine((value, ctx) => {

@@ -39,18 +39,24 @@ export const siteSchema = z.object({
 });
 export type Site = z.infer<typeof siteSchema>;
 
-export const siteCreateSchema = z.object({
-  regionId: idSchema,
-  code: text(12).regex(/^[A-Z0-9-]+$/, { message: 'use capital letters, digits and dashes only' }),
+/** Editable fields without defaults, so an update leaves what it does not name alone. */
+const siteEditableShapes = {
   name: text(120),
-  city: text(120).nullable().default(null),
+  city: text(120).nullable(),
   timeZone: timeZoneSchema,
   currency: currencySchema,
   unitSystem: z.enum(UNIT_SYSTEMS),
+};
+
+export const siteCreateSchema = z.object({
+  ...siteEditableShapes,
+  regionId: idSchema,
+  code: text(12).regex(/^[A-Z0-9-]+$/, { message: 'use capital letters, digits and dashes only' }),
+  city: siteEditableShapes.city.default(null),
 });
 export type SiteCreate = z.infer<typeof siteCreateSchema>;
 
-export const siteUpdateSchema = siteCreateSchema.omit({ regionId: true, code: true }).partial();
+export const siteUpdateSchema = z.object(siteEditableShapes).partial().strict();
 export type SiteUpdate = z.infer<typeof siteUpdateSchema>;
 
 export const siteListQuerySchema = pageQuerySchema.extend({

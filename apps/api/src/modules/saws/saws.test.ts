@@ -122,6 +122,16 @@ describe('changing and retiring a saw', () => {
     expect(unknown.status).toBe(400);
   });
 
+  it('changes only the fields an update names', async () => {
+    const agent = await as('siteadmin-a@test.example');
+    const id = world.saws.A![0]!.id;
+    await agent.patch(`/api/saws/${id}`).send({ status: 'down', capacityRoundMm: 300 }).expect(200);
+    const before = (await agent.get(`/api/saws/${id}`)).body;
+    const after = (await agent.patch(`/api/saws/${id}`).send({ name: 'Renamed' })).body;
+    expect(after).toEqual({ ...before, name: 'Renamed', updatedAt: after.updatedAt });
+    expect(after).toMatchObject({ status: 'down', make: 'Testmake', model: 'T1', capacityRoundMm: 300 });
+  });
+
   it('does not let a site admin move a saw to a site they do not manage', async () => {
     const agent = await as('siteadmin-a@test.example');
     const res = await agent.patch(`/api/saws/${world.saws.A![0]!.id}`).send({ siteId: world.sites.B.id });

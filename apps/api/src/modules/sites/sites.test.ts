@@ -60,7 +60,10 @@ describe('changing sites', () => {
 
   it('lets a site admin edit their own site only, and nobody else below admin add one', async () => {
     const siteAdmin = await as('siteadmin-a@test.example');
-    expect((await siteAdmin.patch(`/api/sites/${world.sites.A.id}`).send({ unitSystem: 'imperial' })).body.unitSystem).toBe('imperial');
+    await siteAdmin.patch(`/api/sites/${world.sites.A.id}`).send({ city: 'Bremen' }).expect(200);
+    const changed = (await siteAdmin.patch(`/api/sites/${world.sites.A.id}`).send({ unitSystem: 'imperial' })).body;
+    expect(changed).toMatchObject({ unitSystem: 'imperial', city: 'Bremen', name: 'Site A' });
+    expect((await siteAdmin.patch(`/api/sites/${world.sites.A.id}`).send({ code: 'Z' })).status).toBe(400);
     expect((await siteAdmin.patch(`/api/sites/${world.sites.B.id}`).send({ unitSystem: 'imperial' })).status).toBe(404);
     const manager = await as('manager-all@test.example');
     expect((await manager.patch(`/api/sites/${world.sites.A.id}`).send({ name: 'x' })).status).toBe(403);

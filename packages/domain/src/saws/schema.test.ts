@@ -1,0 +1,52 @@
+import { describe, expect, it } from 'vitest';
+import { sawCreateSchema, sawListQuerySchema, sawUpdateSchema } from './schema.js';
+import { siteCreateSchema, siteUpdateSchema } from '../sites/schema.js';
+
+const site = '00000000-0000-4000-8000-00000000000a';
+const base = {
+  siteId: site,
+  assetTag: 'S-1',
+  name: 'Bar saw',
+  kind: 'horizontal',
+  wheelDiameterMm: 455,
+  centreDistanceMm: 1343,
+  bandWidthMm: 34,
+  bandThicknessMm: 1.1,
+  bandLengthMm: 4115,
+  bandSpeedMinMPerMin: 18,
+  bandSpeedMaxMPerMin: 110,
+};
+
+describe('saw inputs', () => {
+  it('fills a new saw’s optional details with "not recorded" and puts it in service', () => {
+    expect(sawCreateSchema.parse(base)).toMatchObject({ make: null, model: null, capacityRoundMm: null, status: 'in_service' });
+  });
+
+  it('keeps an update to the fields it names, so nothing else is reset', () => {
+    expect(sawUpdateSchema.parse({ name: 'Renamed' })).toEqual({ name: 'Renamed' });
+  });
+
+  it('refuses unknown fields on update and crossed ranges on both', () => {
+    expect(sawUpdateSchema.safeParse({ colour: 'red' }).success).toBe(false);
+    const crossed = sawCreateSchema.safeParse({ ...base, bandSpeedMinMPerMin: 200 });
+    expect(crossed.success).toBe(false);
+    expect(crossed.error?.issues[0]?.path).toEqual(['bandSpeedMaxMPerMin']);
+    const thick = sawUpdateSchema.safeParse({ bandWidthMm: 1, bandThicknessMm: 2 });
+    expect(thick.error?.issues[0]?.path).toEqual(['bandThicknessMm']);
+  });
+
+  it('reads list filters from a query string', () => {
+    expect(sawListQuerySchema.parse({ includeRetired: 'true', limit: '20' })).toMatchObject({ includeRetired: true, limit: 20, offset: 0 });
+    expect(sawListQuerySchema.parse({})).toMatchObject({ includeRetired: false, limit: 100 });
+  });
+});
+
+describe('site inputs', () => {
+  it('leaves a site’s city alone when an update does not name it', () => {
+    expect(siteUpdateSchema.parse({ unitSystem: 'imperial' })).toEqual({ unitSystem: 'imperial' });
+    expect(siteCreateSchema.parse({ regionId: site, code: 'X-1', name: 'X', timeZone: 'UTC', currency: 'eur', unitSystem: 'metric' })).toMatchObject({
+      city: null,
+      currency: 'EUR',
+    });
+  });
+});
