@@ -7,8 +7,9 @@ import pg from 'pg';
 // journeys. Imports nothing from the workspaces: vitest loads global setups without the 'source' condition.
 
 const root = path.resolve(import.meta.dirname, '../..');
-const database = 'kerfline_test_browser';
 export const BROWSER_PORT = Number(process.env.BROWSER_TEST_PORT ?? 3210);
+// One database per port, so two journeys on different ports never share data.
+const database = BROWSER_PORT === 3210 ? 'kerfline_test_browser' : `kerfline_test_browser_${BROWSER_PORT}`;
 
 let server: ChildProcess | undefined;
 

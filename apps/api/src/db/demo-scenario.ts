@@ -39,13 +39,47 @@ const SITES = [
   { code: 'CV-MTY', name: 'Sierra Cutting Hall', city: 'Monterrey', timeZone: 'America/Monterrey', currency: 'MXN', unitSystem: 'metric', region: 'Gulf & Sierra' },
 ] as const;
 
-/** Saw classes of the demo fleet (invented makes). Centre distance follows from band length and wheels. */
-const CLASSES: Record<string, { kind: SawKind; make: string; model: string; wheelMm: number; widthMm: number; thicknessMm: number; lengthMm: number; speed: [number, number]; roundMm: number; rect: [number, number] }> = {
-  light: { kind: 'horizontal', make: 'Orwin', model: 'H-260', wheelMm: 380, widthMm: 27, thicknessMm: 0.9, lengthMm: 3505, speed: [20, 90], roundMm: 260, rect: [300, 260] },
-  mid: { kind: 'horizontal', make: 'Orwin', model: 'H-360A', wheelMm: 455, widthMm: 34, thicknessMm: 1.1, lengthMm: 4115, speed: [18, 110], roundMm: 360, rect: [460, 360] },
-  heavy: { kind: 'horizontal', make: 'Brandt-Kell', model: 'BK 560 Twin', wheelMm: 610, widthMm: 41, thicknessMm: 1.3, lengthMm: 6120, speed: [15, 100], roundMm: 560, rect: [700, 560] },
-  beam: { kind: 'horizontal', make: 'Brandt-Kell', model: 'BK 1100 Miter', wheelMm: 700, widthMm: 54, thicknessMm: 1.6, lengthMm: 8800, speed: [15, 95], roundMm: 700, rect: [1100, 600] },
-  vertical: { kind: 'vertical', make: 'Lindqvist', model: 'V-18 Contour', wheelMm: 460, widthMm: 13, thicknessMm: 0.65, lengthMm: 3960, speed: [15, 1500], roundMm: 300, rect: [450, 300] },
+type SawClass = {
+  kind: SawKind;
+  make: string;
+  model: string;
+  wheelMm: number;
+  widthMm: number;
+  thicknessMm: number;
+  lengthMm: number;
+  speed: [number, number];
+  roundMm: number;
+  rect: [number, number];
+};
+
+const IN = 25.4;
+const FPM = 0.3048;
+
+/**
+ * Saw classes of the demo fleet (invented makes), in the sizes each kind of site buys: metric bands at
+ * metric sites, inch bands (1-1/4 x .042 and so on) at imperial ones.
+ */
+const CLASSES: Record<string, Record<'metric' | 'imperial', SawClass>> = {
+  light: {
+    metric: { kind: 'horizontal', make: 'Orwin', model: 'H-260', wheelMm: 380, widthMm: 27, thicknessMm: 0.9, lengthMm: 3505, speed: [20, 90], roundMm: 260, rect: [300, 260] },
+    imperial: { kind: 'horizontal', make: 'Orwin', model: 'H-260', wheelMm: 15 * IN, widthMm: 1 * IN, thicknessMm: 0.035 * IN, lengthMm: 138 * IN, speed: [65 * FPM, 295 * FPM], roundMm: 10 * IN, rect: [12 * IN, 10 * IN] },
+  },
+  mid: {
+    metric: { kind: 'horizontal', make: 'Orwin', model: 'H-360A', wheelMm: 455, widthMm: 34, thicknessMm: 1.1, lengthMm: 4115, speed: [18, 110], roundMm: 360, rect: [460, 360] },
+    imperial: { kind: 'horizontal', make: 'Orwin', model: 'H-360A', wheelMm: 18 * IN, widthMm: 1.25 * IN, thicknessMm: 0.042 * IN, lengthMm: 162 * IN, speed: [60 * FPM, 360 * FPM], roundMm: 14 * IN, rect: [18 * IN, 14 * IN] },
+  },
+  heavy: {
+    metric: { kind: 'horizontal', make: 'Brandt-Kell', model: 'BK 560 Twin', wheelMm: 610, widthMm: 41, thicknessMm: 1.3, lengthMm: 6120, speed: [15, 100], roundMm: 560, rect: [700, 560] },
+    imperial: { kind: 'horizontal', make: 'Brandt-Kell', model: 'BK 560 Twin', wheelMm: 24 * IN, widthMm: 1.5 * IN, thicknessMm: 0.05 * IN, lengthMm: 241 * IN, speed: [50 * FPM, 330 * FPM], roundMm: 22 * IN, rect: [28 * IN, 22 * IN] },
+  },
+  beam: {
+    metric: { kind: 'horizontal', make: 'Brandt-Kell', model: 'BK 1100 Miter', wheelMm: 700, widthMm: 54, thicknessMm: 1.6, lengthMm: 8800, speed: [15, 95], roundMm: 700, rect: [1100, 600] },
+    imperial: { kind: 'horizontal', make: 'Brandt-Kell', model: 'BK 1100 Miter', wheelMm: 27.5 * IN, widthMm: 2 * IN, thicknessMm: 0.063 * IN, lengthMm: 346 * IN, speed: [50 * FPM, 310 * FPM], roundMm: 28 * IN, rect: [43 * IN, 24 * IN] },
+  },
+  vertical: {
+    metric: { kind: 'vertical', make: 'Lindqvist', model: 'V-18 Contour', wheelMm: 460, widthMm: 13, thicknessMm: 0.65, lengthMm: 3960, speed: [15, 450], roundMm: 300, rect: [450, 300] },
+    imperial: { kind: 'vertical', make: 'Lindqvist', model: 'V-18 Contour', wheelMm: 18 * IN, widthMm: 0.5 * IN, thicknessMm: 0.025 * IN, lengthMm: 156 * IN, speed: [50 * FPM, 1500 * FPM], roundMm: 12 * IN, rect: [18 * IN, 12 * IN] },
+  },
 };
 
 const FLEET: Record<string, { cls: keyof typeof CLASSES; status?: SawStatus }[]> = {
@@ -79,9 +113,11 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
       let n = 0;
       for (const { cls, status } of saws) {
         n += 1;
-        const c = CLASSES[cls]!;
-        // Open-belt length with equal wheels: L = 2C + πD, so C = (L − πD) / 2.
-        const centreDistanceMm = Math.round((c.lengthMm - Math.PI * c.wheelMm) / 2);
+        const system = SITES.find((s) => s.code === code)!.unitSystem;
+        const c = CLASSES[cls]![system];
+        // Open-belt length with equal wheels: L = 2C + πD, so C = (L − πD) / 2; rounded to 1 mm or 1/8 in.
+        const step = system === 'imperial' ? IN / 8 : 1;
+        const centreDistanceMm = Math.round((c.lengthMm - Math.PI * c.wheelMm) / 2 / step) * step;
         await Saw.create(
           {
             siteId: siteIds.get(code)!,
