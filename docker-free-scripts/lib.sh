@@ -103,7 +103,7 @@ pg_stop() {
 pg_ensure_db() {
   local name=$1 bin
   bin=$(pg_bin)
-  if ! "$bin/psql" -h 127.0.0.1 -p "$PGPORT" -U postgres -tAc "SELECT 1 FROM pg_database WHERE datname='$name'" | grep -q 1; then
+  if ! "$bin/psql" -h 127.0.0.1 -p "$PGPORT" -U postgres -d postgres -tAc "SELECT 1 FROM pg_database WHERE datname='$name'" | grep -q 1; then
     log "creating database $name"
     "$bin/createdb" -h 127.0.0.1 -p "$PGPORT" -U postgres "$name"
   fi

@@ -54,9 +54,22 @@ export function createApp(deps: AppDeps): Express {
         return id;
       },
       autoLogging: { ignore: (req) => req.url === '/api/health' },
+      // One short line a request: no headers, so no cookies in the log.
+      serializers: {
+        req: (req: { id: string; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+      },
     }),
   );
-  app.use(helmet());
+  // HSTS and upgrading requests to https only make sense when a TLS-terminating proxy is in front; on plain
+  // http (a plant's own server reached by address) they would break the page's own assets.
+  const behindTls = Boolean(deps.trustProxy);
+  app.use(
+    helmet({
+      strictTransportSecurity: behindTls,
+      contentSecurityPolicy: { directives: { upgradeInsecureRequests: behindTls ? [] : null } },
+    }),
+  );
   app.use(express.json({ limit: '1mb' }));
 
   const PgStore = connectPgSimple(session);

@@ -141,3 +141,14 @@ describe('health', () => {
     expect(res.body.error.code).toBe('UNAVAILABLE');
   });
 });
+
+describe('security headers', () => {
+  it('sets a content security policy, and leaves https upgrades to deployments behind TLS', async () => {
+    const res = await supertest(ctx.app).get('/api/health');
+    expect(res.headers['content-security-policy']).toMatch(/default-src 'self'/);
+    expect(res.headers['content-security-policy']).not.toMatch(/upgrade-insecure-requests/);
+    expect(res.headers['strict-transport-security']).toBeUndefined();
+    expect(res.headers['x-content-type-options']).toBe('nosniff');
+    expect(res.headers['x-request-id']).toMatch(/^[0-9a-f-]{36}$/);
+  });
+});
