@@ -7,6 +7,7 @@ import { Notice } from '../../../lib/ui/notice';
 import { Pager } from '../../../lib/ui/pager';
 import { meQuery } from '../../../features/auth/api/queries';
 import { siteListQuery } from '../../../features/sites/api/queries';
+import { regionListQuery } from '../../../features/regions/api/queries';
 import { userListQuery, userListQueryFromSearch } from '../../../features/users/api/queries';
 import { UsersTable } from '../../../features/users/components/users-table';
 
@@ -21,6 +22,7 @@ export function peoplePageLoader(queryClient: QueryClient) {
     await Promise.all([
       queryClient.ensureQueryData(userListQuery(userListQueryFromSearch(search))),
       queryClient.ensureQueryData(siteListQuery()).catch(() => undefined),
+      queryClient.ensureQueryData(regionListQuery()).catch(() => undefined),
     ]);
     return null;
   };
@@ -31,7 +33,9 @@ function PeopleList() {
   const q = userListQueryFromSearch(search);
   const { data: users } = useSuspenseQuery(userListQuery(q));
   const { data: sites } = useQuery(siteListQuery());
+  const { data: regions } = useQuery(regionListQuery());
   const siteNameOf = (siteId: string) => sites?.items.find((site) => site.id === siteId)?.name;
+  const regionNameOf = (regionId: string) => regions?.items.find((region) => region.id === regionId)?.name;
 
   return (
     <Card aria-label="People">
@@ -54,7 +58,7 @@ function PeopleList() {
           )}
         </Field>
       </div>
-      <UsersTable users={users.items} siteNameOf={siteNameOf} />
+      <UsersTable users={users.items} siteNameOf={siteNameOf} regionNameOf={regionNameOf} />
       <div className="border-t border-rule px-5 py-3">
         <Pager total={users.total} limit={users.limit} offset={users.offset} noun="people" />
       </div>

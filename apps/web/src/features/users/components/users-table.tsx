@@ -7,9 +7,11 @@ import { ROLE_LABELS, type User } from '@kerfline/domain/users/schema';
 export function UsersTable({
   users,
   siteNameOf,
+  regionNameOf,
 }: {
   users: User[];
   siteNameOf: (siteId: string) => string | undefined;
+  regionNameOf: (regionId: string) => string | undefined;
 }) {
   if (users.length === 0) return <p className="px-5 py-8 text-center text-ink-muted">Nobody matches this filter.</p>;
   return (
@@ -28,7 +30,7 @@ export function UsersTable({
               Role
             </th>
             <th scope="col" className="px-3 py-3 font-semibold">
-              Home site
+              Works at
             </th>
             <th scope="col" className="py-3 pr-5 pl-3 font-semibold">
               Account
@@ -44,11 +46,7 @@ export function UsersTable({
               <td className="px-3 py-3 whitespace-nowrap text-ink">{user.email}</td>
               <td className="px-3 py-3 text-ink">{ROLE_LABELS[user.role]}</td>
               <td className="px-3 py-3 text-ink">
-                {user.siteId ? (
-                  (siteNameOf(user.siteId) ?? 'Another site')
-                ) : (
-                  <span className="text-ink-muted">None</span>
-                )}
+                <WorksAt user={user} siteNameOf={siteNameOf} regionNameOf={regionNameOf} />
               </td>
               <td className="py-3 pr-5 pl-3">
                 {user.active ? (
@@ -63,4 +61,24 @@ export function UsersTable({
       </table>
     </div>
   );
+}
+
+/** Where a person's scope lies, in words: a home site, a region, a list of sites, or every site. */
+function WorksAt({
+  user,
+  siteNameOf,
+  regionNameOf,
+}: {
+  user: User;
+  siteNameOf: (siteId: string) => string | undefined;
+  regionNameOf: (regionId: string) => string | undefined;
+}) {
+  if (user.siteId) return <>{siteNameOf(user.siteId) ?? 'Another site'}</>;
+  if (user.regionId) return <>Region {regionNameOf(user.regionId) ?? ''}</>;
+  if (user.role === 'admin' || user.allSites) return <>Every site</>;
+  if (user.managedSiteIds.length > 0) {
+    const names = user.managedSiteIds.map((id) => siteNameOf(id) ?? 'another site');
+    return <>{names.join(', ')}</>;
+  }
+  return <span className="text-ink-muted">No site yet</span>;
 }
