@@ -92,9 +92,25 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
             },
             {
               path: 'calculators',
-              lazy: async () => ({
-                Component: (await import('./routes/calculators/calculators-page')).CalculatorsPage,
-              }),
+              lazy: async () => {
+                const page = await import('./routes/calculators/calculators-page');
+                return { loader: page.calculatorsLoader(queryClient), Component: page.CalculatorsLayout };
+              },
+              children: [
+                {
+                  index: true,
+                  lazy: async () => ({
+                    Component: (await import('./routes/calculators/calculators-page')).CalculatorsIndexPage,
+                  }),
+                },
+                {
+                  path: ':calculator',
+                  lazy: async () => {
+                    const page = await import('./routes/calculators/calculator-page');
+                    return { loader: page.calculatorPageLoader(queryClient), Component: page.CalculatorPage };
+                  },
+                },
+              ],
             },
             { path: '*', element: <NotFoundPage /> },
           ],
