@@ -52,7 +52,7 @@ describe('checkBandSpeed', () => {
     expect(above.position).toBe('above');
     // 60 m/min = 197 fpm; 20–40 m/min = 66–131 fpm.
     expect(above.explanation).toBe(
-      '197 fpm is above the 66–131 fpm range for stainless steel; lower it to at most 131 fpm.',
+      '197 ft/min is above the 66–131 ft/min range for stainless steel; lower it to at most 131 ft/min.',
     );
   });
 

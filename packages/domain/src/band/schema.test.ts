@@ -94,3 +94,11 @@ describe('band calculator schemas', () => {
     ).toEqual([['wheelCount', 'A band saw has at least 2 wheels']]);
   });
 });
+
+describe('centre distance input with a bad wheel', () => {
+  it('reports the wheel instead of throwing', () => {
+    const result = centreDistanceInputSchema.safeParse({ driveWheelDiameterMm: 0, idlerWheelDiameterMm: 455, bandLengthMm: 4115 });
+    expect(result.success).toBe(false);
+    expect(result.error?.issues.map((i) => i.path.join('.'))).toEqual(['driveWheelDiameterMm']);
+  });
+});

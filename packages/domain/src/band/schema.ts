@@ -31,6 +31,8 @@ export type BandLengthForm = z.infer<typeof bandLengthInputSchema>;
 export const centreDistanceInputSchema = z
   .object({ ...wheelFields, bandLengthMm: positive('Band length', 'mm', 30000) })
   .superRefine((v, ctx) => {
+    // zod runs object refinements even when a field failed; the wheel messages already say what to fix.
+    if (!(v.driveWheelDiameterMm > 0 && v.idlerWheelDiameterMm > 0)) return;
     const shortestMm = shortestBandLengthMm(v);
     if (v.bandLengthMm <= shortestMm) {
       ctx.addIssue({

@@ -30,9 +30,9 @@ describe('showing quantities in a unit system', () => {
 
   it('shows band speed in whole fpm or m/min, with thousands separators', () => {
     // 75 m/min ÷ 0.3048 m/ft = 246.06 ft/min (NIST SP 811 B.8, foot).
-    expect(bandSpeedToDisplay(75, 'imperial').text).toBe('246 fpm');
+    expect(bandSpeedToDisplay(75, 'imperial').text).toBe('246 ft/min');
     expect(bandSpeedToDisplay(75, 'metric').text).toBe('75 m/min');
-    expect(bandSpeedToDisplay(1000, 'imperial').text).toBe('3,281 fpm');
+    expect(bandSpeedToDisplay(1000, 'imperial').text).toBe('3,281 ft/min');
   });
 
   it('shows areas in in² or cm² and cutting rates per minute', () => {

@@ -39,7 +39,7 @@ export interface DisplayUnit {
  */
 export const DISPLAY_UNITS: Record<DisplayQuantityKind, Record<UnitSystem, DisplayUnit>> = {
   length: { imperial: { unit: 'in', decimals: 2 }, metric: { unit: 'mm', decimals: 1 } },
-  bandSpeed: { imperial: { unit: 'fpm', decimals: 0 }, metric: { unit: 'm/min', decimals: 0 } },
+  bandSpeed: { imperial: { unit: 'ft/min', decimals: 0 }, metric: { unit: 'm/min', decimals: 0 } },
   area: { imperial: { unit: 'in²', decimals: 2 }, metric: { unit: 'cm²', decimals: 1 } },
   areaRate: { imperial: { unit: 'in²/min', decimals: 2 }, metric: { unit: 'cm²/min', decimals: 1 } },
   force: { imperial: { unit: 'lbf', decimals: 0 }, metric: { unit: 'N', decimals: 0 } },

@@ -30,7 +30,7 @@ describe('BandSpeedCalculator', () => {
     expect(result()).toHaveTextContent('Recommended band speed for carbon steel50–90m/min');
     rerender(<BandSpeedCalculator system="imperial" saws={[saw]} />);
     // 50 and 90 m/min ÷ 0.3048 m/ft (NIST SP 811, B.8) = 164 and 295 fpm.
-    expect(result()).toHaveTextContent('Recommended band speed for carbon steel164–295fpm');
+    expect(result()).toHaveTextContent('Recommended band speed for carbon steel164–295ft/min');
   });
 
   it('checks a set speed against the material and the saw picked from the list', async () => {

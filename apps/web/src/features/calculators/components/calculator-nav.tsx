@@ -10,7 +10,7 @@ export function calculatorHref(slug: CalculatorSlug | null, system: UnitSystem):
 
 const SYSTEM_NAMES: Record<UnitSystem, { name: string; units: string }> = {
   metric: { name: 'Metric', units: 'mm, m/min' },
-  imperial: { name: 'Imperial', units: 'in, fpm' },
+  imperial: { name: 'Imperial', units: 'in, ft/min' },
 };
 
 /** Metric or imperial for every figure on the calculators; the route keeps the choice in the address. */

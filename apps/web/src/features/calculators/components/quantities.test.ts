@@ -38,7 +38,7 @@ describe('figures and messages in the user’s units', () => {
   it('prints a figure with its unit on one line, and a range with one unit', () => {
     expect(figure('length', 4115.42, 'metric')).toEqual({ number: '4,115.4', unit: 'mm', text: '4,115.4\u00a0mm' });
     // 50–90 m/min ÷ 0.3048 = 164.04–295.28 ft/min, shown whole.
-    expect(rangeFigure('bandSpeed', 50, 90, 'imperial').text).toBe('164–295\u00a0fpm');
+    expect(rangeFigure('bandSpeed', 50, 90, 'imperial').text).toBe('164–295\u00a0ft/min');
     expect(rangeFigure('length', 50, 50, 'metric').text).toBe('50.0\u00a0mm');
   });
 
