@@ -1,7 +1,7 @@
 import { bandLengthMm, centreDistanceForBandLengthMm } from '@kerfline/domain/band/band-length';
 import { bandLengthInputSchema, centreDistanceInputSchema } from '@kerfline/domain/band/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
-import { messageInUnits, readQuantity, type Entry } from './quantities';
+import { readQuantity, type Entry } from './quantities';
 import { compute, hasErrors, placeIssues, take } from './readings';
 import type { FieldErrors } from './use-entries';
 
@@ -84,15 +84,7 @@ export function evaluateBandLength(entries: Record<BandLengthKey, Entry>, system
   const bandMm = take(readQuantity(entries.bandMm, 'length'), 'bandMm', BAND_LENGTH_LABELS.bandMm, errors);
   // The schema works out the shortest band from the wheels, so they must be numbers before it runs.
   if (driveMm === undefined || idlerMm === undefined) return { errors, formError: null, result: null };
-  // The schema's shortest-band rule runs the domain's wheel guards, which throw on a wheel of 0 or less
-  // instead of reporting an issue; their message names the wheel, so it goes beside that field.
-  const checked = compute(() => centreDistanceInputSchema.safeParse({ ...wheels, bandLengthMm: bandMm }));
-  if (!checked.ok) {
-    const key = checked.message.startsWith(BAND_LENGTH_LABELS.idlerMm) && !idlerEmpty ? 'idlerMm' : 'driveMm';
-    errors[key] = messageInUnits(checked.message, system);
-    return { errors, formError: null, result: null };
-  }
-  const parsed = checked.value;
+  const parsed = centreDistanceInputSchema.safeParse({ ...wheels, bandLengthMm: bandMm });
   if (!parsed.success) placeIssues(parsed.error.issues, fieldFor, errors, system);
   if (!parsed.success || hasErrors(errors)) return { errors, formError: null, result: null };
   const worked = compute(() => centreDistanceForBandLengthMm(parsed.data));
