@@ -17,7 +17,17 @@ export default tseslint.config(
     // The domain package is pure: it never reaches into the apps.
     files: ['packages/domain/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', { patterns: [{ group: ['**/apps/**', '@kerfline/api*', '@kerfline/web*'], message: 'packages/domain imports nothing from apps/' }] }],
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              group: ['**/apps/**', '@kerfline/api*', '@kerfline/web*'],
+              message: 'packages/domain imports nothing from apps/',
+            },
+          ],
+        },
+      ],
     },
   },
   {
@@ -32,13 +42,33 @@ export default tseslint.config(
     // Features never import other features; compose them in app/.
     files: ['apps/web/src/features/**/*.{ts,tsx}'],
     rules: {
-      'no-restricted-imports': ['error', { patterns: [{ group: ['../../*/api', '../../*/api/*', '../../*/components', '../../*/components/*'], message: 'a feature must not import another feature; compose in app/routes' }] }],
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              group: ['../../*/api', '../../*/api/*', '../../*/components', '../../*/components/*'],
+              message: 'a feature must not import another feature; compose in app/routes',
+            },
+          ],
+        },
+      ],
     },
   },
   {
     files: ['apps/api/src/modules/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', { patterns: [{ group: ['../*/*.service*', '../*/*.router*'], message: 'a module must not import another module\'s service or router; compose in app.ts' }] }],
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              group: ['../*/*.service*', '../*/*.router*'],
+              message: "a module must not import another module's service or router; compose in app.ts",
+            },
+          ],
+        },
+      ],
     },
   },
 );

@@ -10,8 +10,12 @@ mkdirSync(out, { recursive: true });
 
 const steps = [
   { name: 'lint', cmd: ['npx', 'eslint', '.', '--max-warnings=0'] },
+  { name: 'formatting', cmd: ['npx', 'prettier', '--check', '.', '--log-level=warn'] },
   { name: 'types', cmd: ['npm', 'run', '--silent', 'typecheck'] },
-  { name: 'domain and web unit tests (with domain coverage)', vitest: ['--project', 'domain', '--project', 'web', '--coverage'] },
+  {
+    name: 'domain and web unit tests (with domain coverage)',
+    vitest: ['--project', 'domain', '--project', 'web', '--coverage'],
+  },
   { name: 'API tests against PostgreSQL', vitest: ['--project', 'api'] },
   { name: 'build', cmd: ['npm', 'run', '--silent', 'build'] },
   { name: 'browser journeys in Chromium', vitest: ['--project', 'browser'] },

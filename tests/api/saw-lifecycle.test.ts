@@ -19,13 +19,22 @@ describe('a saw from purchase to retirement', () => {
   let sawId = '';
 
   it('is added by the site admin', async () => {
-    const res = await (await as('siteadmin-a@test.example')).post('/api/saws').send(sawBody(world.sites.A.id, { assetTag: 'A-NEW', name: 'New bar saw' }));
+    const res = await (
+      await as('siteadmin-a@test.example')
+    )
+      .post('/api/saws')
+      .send(sawBody(world.sites.A.id, { assetTag: 'A-NEW', name: 'New bar saw' }));
     expect(res.status).toBe(201);
     sawId = res.body.id;
   });
 
   it('is seen at its site and above it, and by nobody outside', async () => {
-    for (const email of ['tech-a@test.example', 'manager-ac@test.example', 'lead-north@test.example', 'admin@test.example']) {
+    for (const email of [
+      'tech-a@test.example',
+      'manager-ac@test.example',
+      'lead-north@test.example',
+      'admin@test.example',
+    ]) {
       const agent = await as(email);
       expect((await agent.get(`/api/saws/${sawId}`)).status, email).toBe(200);
       expect((await agent.get('/api/saws?q=A-NEW')).body.total, email).toBe(1);

@@ -16,7 +16,9 @@ describe('the foundation, as people use it', () => {
     await page.getByLabel('E-mail').fill(DEMO.manager);
     await page.getByLabel('Password').fill('not-the-password');
     await page.getByRole('button', { name: /sign in/i }).click();
-    await expect.poll(() => page.getByText('That e-mail and password do not match an account').count()).toBeGreaterThan(0);
+    await expect
+      .poll(() => page.getByText('That e-mail and password do not match an account').count())
+      .toBeGreaterThan(0);
     await shot(page, 'sign-in-error-phone');
     await context.close();
   });
@@ -26,19 +28,30 @@ describe('the foundation, as people use it', () => {
     await signIn(page, DEMO.manager);
     await page.waitForURL('**/sites');
     await expect.poll(() => page.getByText('Hammerfield Service Centre').count()).toBeGreaterThan(0);
-    for (const name of ['Riverbend Tube Works', 'Maasvlakte Bar Depot', 'Bayou Structural Yard', 'Sierra Cutting Hall']) {
+    for (const name of [
+      'Riverbend Tube Works',
+      'Maasvlakte Bar Depot',
+      'Bayou Structural Yard',
+      'Sierra Cutting Hall',
+    ]) {
       expect(await page.getByText(name).count(), name).toBeGreaterThan(0);
     }
     await shot(page, 'manager-sites-desktop');
 
-    await page.getByRole('link', { name: /Hammerfield Service Centre/ }).first().click();
+    await page
+      .getByRole('link', { name: /Hammerfield Service Centre/ })
+      .first()
+      .click();
     await page.waitForURL('**/sites/*');
     await expect.poll(() => page.getByText('HAM-S01').count()).toBeGreaterThan(0);
     // A manager reads; nothing to add.
     expect(await page.getByRole('link', { name: /add saw/i }).count()).toBe(0);
     await shot(page, 'manager-site-desktop');
 
-    await page.getByRole('link', { name: /HAM-S01/ }).first().click();
+    await page
+      .getByRole('link', { name: /HAM-S01/ })
+      .first()
+      .click();
     await page.waitForURL('**/saws/*');
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toMatch(/Bay 1 bar saw|HAM-S01/);
     expect(await page.getByRole('link', { name: /^edit/i }).count()).toBe(0);
@@ -50,8 +63,14 @@ describe('the foundation, as people use it', () => {
     const { context, page } = await newPage(browser, DESKTOP);
     await signIn(page, DEMO.siteAdmin);
     await page.goto('/sites');
-    await page.getByRole('link', { name: /Hammerfield Service Centre/ }).first().click();
-    await page.getByRole('link', { name: /HAM-S02/ }).first().click();
+    await page
+      .getByRole('link', { name: /Hammerfield Service Centre/ })
+      .first()
+      .click();
+    await page
+      .getByRole('link', { name: /HAM-S02/ })
+      .first()
+      .click();
     await page.waitForURL('**/saws/*');
     await page.getByRole('link', { name: /^edit/i }).click();
     await page.waitForURL('**/edit');
@@ -72,7 +91,10 @@ describe('the foundation, as people use it', () => {
     await expect.poll(() => page.getByText('Hammerfield Service Centre').count()).toBeGreaterThan(0);
     expect(await page.getByText('Bayou Structural Yard').count()).toBe(0);
     await shot(page, 'technician-sites-phone');
-    await page.getByRole('link', { name: /Hammerfield Service Centre/ }).first().click();
+    await page
+      .getByRole('link', { name: /Hammerfield Service Centre/ })
+      .first()
+      .click();
     await expect.poll(() => page.getByText('HAM-S01').count()).toBeGreaterThan(0);
     expect(await page.getByRole('link', { name: /add saw/i }).count()).toBe(0);
     await shot(page, 'technician-site-phone');

@@ -14,7 +14,12 @@ const database = BROWSER_PORT === 3210 ? 'kerfline_test_browser' : `kerfline_tes
 let server: ChildProcess | undefined;
 
 async function recreateDatabase(): Promise<void> {
-  const client = new pg.Client({ host: process.env.PGHOST ?? '127.0.0.1', port: Number(process.env.PGPORT ?? 55432), user: process.env.PGUSER ?? 'postgres', database: 'postgres' });
+  const client = new pg.Client({
+    host: process.env.PGHOST ?? '127.0.0.1',
+    port: Number(process.env.PGPORT ?? 55432),
+    user: process.env.PGUSER ?? 'postgres',
+    database: 'postgres',
+  });
   await client.connect();
   try {
     await client.query(`DROP DATABASE IF EXISTS ${database} WITH (FORCE)`);
@@ -39,15 +44,27 @@ async function waitForHealth(url: string, seconds: number): Promise<void> {
 
 export default async function setup(): Promise<() => Promise<void>> {
   for (const built of ['apps/api/dist/server.js', 'dist/web/index.html']) {
-    if (!existsSync(path.join(root, built))) throw new Error(`${built} is missing: run "npm run build" before the browser journeys`);
+    if (!existsSync(path.join(root, built)))
+      throw new Error(`${built} is missing: run "npm run build" before the browser journeys`);
   }
   await recreateDatabase();
-  const env = { ...process.env, PGDATABASE: database, PORT: String(BROWSER_PORT), SESSION_SECRET: 'browser-test-secret-only', LOG_LEVEL: 'warn', NODE_ENV: 'production' };
+  const env = {
+    ...process.env,
+    PGDATABASE: database,
+    PORT: String(BROWSER_PORT),
+    SESSION_SECRET: 'browser-test-secret-only',
+    LOG_LEVEL: 'warn',
+    NODE_ENV: 'production',
+  };
   for (const script of ['apps/api/dist/db/migrate-cli.js', 'apps/api/dist/db/seed-cli.js']) {
     const run = spawnSync(process.execPath, [script], { cwd: root, env, encoding: 'utf8' });
     if (run.status !== 0) throw new Error(`${script} failed:\n${run.stdout}\n${run.stderr}`);
   }
-  server = spawn(process.execPath, ['apps/api/dist/server.js'], { cwd: root, env, stdio: ['ignore', 'inherit', 'inherit'] });
+  server = spawn(process.execPath, ['apps/api/dist/server.js'], {
+    cwd: root,
+    env,
+    stdio: ['ignore', 'inherit', 'inherit'],
+  });
   await waitForHealth(`http://127.0.0.1:${BROWSER_PORT}/api/health`, 30);
   return async () => {
     server?.kill('SIGTERM');

@@ -27,8 +27,14 @@ const MODELS: Record<SubjectName, ModelStatic<Model>> = { Region, Site, Saw, Use
 async function mismatches(ability: AppAbility, action: (typeof ACTIONS)[number], type: SubjectName): Promise<string[]> {
   const model = MODELS[type];
   const all = (await model.findAll()).map((m) => m.get({ plain: true }) as { id: string });
-  const scoped = new Set((await model.findAll({ where: scopeWhere(ability, action, type, model), attributes: ['id'] })).map((m) => m.get('id') as string));
-  return all.filter((row) => ability.can(action, subject(type, row) as Parameters<AppAbility['can']>[1]) !== scoped.has(row.id)).map((row) => `${type} ${row.id}`);
+  const scoped = new Set(
+    (await model.findAll({ where: scopeWhere(ability, action, type, model), attributes: ['id'] })).map(
+      (m) => m.get('id') as string,
+    ),
+  );
+  return all
+    .filter((row) => ability.can(action, subject(type, row) as Parameters<AppAbility['can']>[1]) !== scoped.has(row.id))
+    .map((row) => `${type} ${row.id}`);
 }
 
 describe('CASL rules → SQL where', () => {
@@ -49,7 +55,11 @@ describe('CASL rules → SQL where', () => {
   it('agrees with CASL for random rule sets over nullable columns, including cannot rules', async () => {
     const siteIds = [world.sites.A.id, world.sites.B.id, world.sites.C.id];
     const value = (field: string) =>
-      field === 'siteId' ? fc.constantFrom(...siteIds) : field === 'make' ? fc.constantFrom('Testmake', null) : fc.constantFrom('in_service', 'retired', 'down');
+      field === 'siteId'
+        ? fc.constantFrom(...siteIds)
+        : field === 'make'
+          ? fc.constantFrom('Testmake', null)
+          : fc.constantFrom('in_service', 'retired', 'down');
     const condition = fc.constantFrom('siteId', 'make', 'status').chain((field) =>
       fc.oneof(
         value(field).map((v) => ({ [field]: v })),
@@ -61,7 +71,9 @@ describe('CASL rules → SQL where', () => {
     const rule = fc.record({ inverted: fc.boolean(), conditions: fc.option(condition, { nil: undefined }) });
     await fc.assert(
       fc.asyncProperty(fc.array(rule, { minLength: 0, maxLength: 4 }), async (rules) => {
-        const ability = createMongoAbility(rules.map((r) => ({ action: 'read', subject: 'Saw', ...r })) as AppRawRule[]) as AppAbility;
+        const ability = createMongoAbility(
+          rules.map((r) => ({ action: 'read', subject: 'Saw', ...r })) as AppRawRule[],
+        ) as AppAbility;
         expect(await mismatches(ability, 'read', 'Saw')).toEqual([]);
       }),
       { numRuns: 60 },
@@ -74,9 +86,13 @@ describe('CASL rules → SQL where', () => {
   });
 
   it('refuses operators and fields it cannot translate, instead of leaking rows', () => {
-    const gt = createMongoAbility([{ action: 'read', subject: 'Saw', conditions: { bandWidthMm: { $gt: 10 } } }]) as AppAbility;
+    const gt = createMongoAbility([
+      { action: 'read', subject: 'Saw', conditions: { bandWidthMm: { $gt: 10 } } },
+    ]) as AppAbility;
     expect(() => scopeWhere(gt, 'read', 'Saw', Saw)).toThrow(/Unsupported CASL operator 'gt'/);
-    const unknown = createMongoAbility([{ action: 'read', subject: 'Saw', conditions: { regionId: 'x' } }]) as AppAbility;
+    const unknown = createMongoAbility([
+      { action: 'read', subject: 'Saw', conditions: { regionId: 'x' } },
+    ]) as AppAbility;
     expect(() => scopeWhere(unknown, 'read', 'Saw', Saw)).toThrow(/not a column/);
   });
 });

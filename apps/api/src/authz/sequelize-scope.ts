@@ -16,7 +16,12 @@ const FALSE = literal('FALSE');
  * Each leaf is built so it is never SQL NULL (CASL's `$ne`/`$nin` match NULLs; `col = v` would be NULL),
  * which keeps `NOT` correct for rows with NULL columns.
  */
-export function scopeWhere(ability: AppAbility, action: Action, subject: SubjectName, model: ModelStatic<Model>): WhereOptions {
+export function scopeWhere(
+  ability: AppAbility,
+  action: Action,
+  subject: SubjectName,
+  model: ModelStatic<Model>,
+): WhereOptions {
   const ast = rulesToAST(ability, action, subject) as AstNode | null;
   // null means no rule grants access at all: the easiest leak to write is treating it as "no filter".
   if (ast === null) return FALSE;
@@ -42,7 +47,8 @@ function toWhere(node: AstNode, attributes: Set<string>, subject: string): Where
   }
 
   const field = node.field;
-  if (!attributes.has(field)) throw new Error(`CASL rule on ${subject} uses '${field}', which is not a column of the model`);
+  if (!attributes.has(field))
+    throw new Error(`CASL rule on ${subject} uses '${field}', which is not a column of the model`);
   switch (node.operator) {
     case 'eq':
       return equals(field, node.value);
@@ -65,7 +71,8 @@ function not(where: WhereOptions): WhereOptions {
 }
 
 function assertScalar(value: unknown, field: string): void {
-  if (value !== null && typeof value === 'object') throw new Error(`CASL condition on '${field}' compares with an object`);
+  if (value !== null && typeof value === 'object')
+    throw new Error(`CASL condition on '${field}' compares with an object`);
 }
 
 function equals(field: string, value: unknown): WhereOptions {

@@ -38,6 +38,8 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
 
 export function databaseUrl(env: Env): string {
   if (env.DATABASE_URL) return env.DATABASE_URL;
-  const auth = env.PGPASSWORD ? `${encodeURIComponent(env.PGUSER)}:${encodeURIComponent(env.PGPASSWORD)}` : encodeURIComponent(env.PGUSER);
+  const auth = env.PGPASSWORD
+    ? `${encodeURIComponent(env.PGUSER)}:${encodeURIComponent(env.PGPASSWORD)}`
+    : encodeURIComponent(env.PGUSER);
   return `postgres://${auth}@${env.PGHOST}:${env.PGPORT}/${encodeURIComponent(env.PGDATABASE)}`;
 }

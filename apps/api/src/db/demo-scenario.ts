@@ -14,7 +14,14 @@ import { Saw } from '../modules/saws/saw.model.js';
 
 export const DEMO_PASSWORD = 'corvane-demo-2026';
 
-export const DEMO_SIGN_INS: { role: Role; email: string; name: string; site?: string; region?: string; allSites?: boolean }[] = [
+export const DEMO_SIGN_INS: {
+  role: Role;
+  email: string;
+  name: string;
+  site?: string;
+  region?: string;
+  allSites?: boolean;
+}[] = [
   { role: 'admin', email: 'noor.haddad@corvane.example', name: 'Noor Haddad' },
   { role: 'manager', email: 'grace.okafor@corvane.example', name: 'Grace Okafor', allSites: true },
   { role: 'regional_lead', email: 'tomasz.wren@corvane.example', name: 'Tomasz Wren', region: 'Lakes & Lowlands' },
@@ -32,11 +39,51 @@ const EXTRA_PEOPLE: typeof DEMO_SIGN_INS = [
 const REGIONS = ['Lakes & Lowlands', 'Gulf & Sierra'] as const;
 
 const SITES = [
-  { code: 'CV-HAM', name: 'Hammerfield Service Centre', city: 'Hamilton, Ontario', timeZone: 'America/Toronto', currency: 'CAD', unitSystem: 'imperial', region: 'Lakes & Lowlands' },
-  { code: 'CV-DBN', name: 'Riverbend Tube Works', city: 'Dearborn, Michigan', timeZone: 'America/Detroit', currency: 'USD', unitSystem: 'imperial', region: 'Lakes & Lowlands' },
-  { code: 'CV-RTM', name: 'Maasvlakte Bar Depot', city: 'Rotterdam', timeZone: 'Europe/Amsterdam', currency: 'EUR', unitSystem: 'metric', region: 'Lakes & Lowlands' },
-  { code: 'CV-HOU', name: 'Bayou Structural Yard', city: 'Houston, Texas', timeZone: 'America/Chicago', currency: 'USD', unitSystem: 'imperial', region: 'Gulf & Sierra' },
-  { code: 'CV-MTY', name: 'Sierra Cutting Hall', city: 'Monterrey', timeZone: 'America/Monterrey', currency: 'MXN', unitSystem: 'metric', region: 'Gulf & Sierra' },
+  {
+    code: 'CV-HAM',
+    name: 'Hammerfield Service Centre',
+    city: 'Hamilton, Ontario',
+    timeZone: 'America/Toronto',
+    currency: 'CAD',
+    unitSystem: 'imperial',
+    region: 'Lakes & Lowlands',
+  },
+  {
+    code: 'CV-DBN',
+    name: 'Riverbend Tube Works',
+    city: 'Dearborn, Michigan',
+    timeZone: 'America/Detroit',
+    currency: 'USD',
+    unitSystem: 'imperial',
+    region: 'Lakes & Lowlands',
+  },
+  {
+    code: 'CV-RTM',
+    name: 'Maasvlakte Bar Depot',
+    city: 'Rotterdam',
+    timeZone: 'Europe/Amsterdam',
+    currency: 'EUR',
+    unitSystem: 'metric',
+    region: 'Lakes & Lowlands',
+  },
+  {
+    code: 'CV-HOU',
+    name: 'Bayou Structural Yard',
+    city: 'Houston, Texas',
+    timeZone: 'America/Chicago',
+    currency: 'USD',
+    unitSystem: 'imperial',
+    region: 'Gulf & Sierra',
+  },
+  {
+    code: 'CV-MTY',
+    name: 'Sierra Cutting Hall',
+    city: 'Monterrey',
+    timeZone: 'America/Monterrey',
+    currency: 'MXN',
+    unitSystem: 'metric',
+    region: 'Gulf & Sierra',
+  },
 ] as const;
 
 type SawClass = {
@@ -61,36 +108,171 @@ const FPM = 0.3048;
  */
 const CLASSES: Record<string, Record<'metric' | 'imperial', SawClass>> = {
   light: {
-    metric: { kind: 'horizontal', make: 'Orwin', model: 'H-260', wheelMm: 380, widthMm: 27, thicknessMm: 0.9, lengthMm: 3505, speed: [20, 90], roundMm: 260, rect: [300, 260] },
-    imperial: { kind: 'horizontal', make: 'Orwin', model: 'H-260', wheelMm: 15 * IN, widthMm: 1 * IN, thicknessMm: 0.035 * IN, lengthMm: 138 * IN, speed: [65 * FPM, 295 * FPM], roundMm: 10 * IN, rect: [12 * IN, 10 * IN] },
+    metric: {
+      kind: 'horizontal',
+      make: 'Orwin',
+      model: 'H-260',
+      wheelMm: 380,
+      widthMm: 27,
+      thicknessMm: 0.9,
+      lengthMm: 3505,
+      speed: [20, 90],
+      roundMm: 260,
+      rect: [300, 260],
+    },
+    imperial: {
+      kind: 'horizontal',
+      make: 'Orwin',
+      model: 'H-260',
+      wheelMm: 15 * IN,
+      widthMm: 1 * IN,
+      thicknessMm: 0.035 * IN,
+      lengthMm: 138 * IN,
+      speed: [65 * FPM, 295 * FPM],
+      roundMm: 10 * IN,
+      rect: [12 * IN, 10 * IN],
+    },
   },
   mid: {
-    metric: { kind: 'horizontal', make: 'Orwin', model: 'H-360A', wheelMm: 455, widthMm: 34, thicknessMm: 1.1, lengthMm: 4115, speed: [18, 110], roundMm: 360, rect: [460, 360] },
-    imperial: { kind: 'horizontal', make: 'Orwin', model: 'H-360A', wheelMm: 18 * IN, widthMm: 1.25 * IN, thicknessMm: 0.042 * IN, lengthMm: 162 * IN, speed: [60 * FPM, 360 * FPM], roundMm: 14 * IN, rect: [18 * IN, 14 * IN] },
+    metric: {
+      kind: 'horizontal',
+      make: 'Orwin',
+      model: 'H-360A',
+      wheelMm: 455,
+      widthMm: 34,
+      thicknessMm: 1.1,
+      lengthMm: 4115,
+      speed: [18, 110],
+      roundMm: 360,
+      rect: [460, 360],
+    },
+    imperial: {
+      kind: 'horizontal',
+      make: 'Orwin',
+      model: 'H-360A',
+      wheelMm: 18 * IN,
+      widthMm: 1.25 * IN,
+      thicknessMm: 0.042 * IN,
+      lengthMm: 162 * IN,
+      speed: [60 * FPM, 360 * FPM],
+      roundMm: 14 * IN,
+      rect: [18 * IN, 14 * IN],
+    },
   },
   heavy: {
-    metric: { kind: 'horizontal', make: 'Brandt-Kell', model: 'BK 560 Twin', wheelMm: 610, widthMm: 41, thicknessMm: 1.3, lengthMm: 6120, speed: [15, 100], roundMm: 560, rect: [700, 560] },
-    imperial: { kind: 'horizontal', make: 'Brandt-Kell', model: 'BK 560 Twin', wheelMm: 24 * IN, widthMm: 1.5 * IN, thicknessMm: 0.05 * IN, lengthMm: 241 * IN, speed: [50 * FPM, 330 * FPM], roundMm: 22 * IN, rect: [28 * IN, 22 * IN] },
+    metric: {
+      kind: 'horizontal',
+      make: 'Brandt-Kell',
+      model: 'BK 560 Twin',
+      wheelMm: 610,
+      widthMm: 41,
+      thicknessMm: 1.3,
+      lengthMm: 6120,
+      speed: [15, 100],
+      roundMm: 560,
+      rect: [700, 560],
+    },
+    imperial: {
+      kind: 'horizontal',
+      make: 'Brandt-Kell',
+      model: 'BK 560 Twin',
+      wheelMm: 24 * IN,
+      widthMm: 1.5 * IN,
+      thicknessMm: 0.05 * IN,
+      lengthMm: 241 * IN,
+      speed: [50 * FPM, 330 * FPM],
+      roundMm: 22 * IN,
+      rect: [28 * IN, 22 * IN],
+    },
   },
   beam: {
-    metric: { kind: 'horizontal', make: 'Brandt-Kell', model: 'BK 1100 Miter', wheelMm: 700, widthMm: 54, thicknessMm: 1.6, lengthMm: 8800, speed: [15, 95], roundMm: 700, rect: [1100, 600] },
-    imperial: { kind: 'horizontal', make: 'Brandt-Kell', model: 'BK 1100 Miter', wheelMm: 27.5 * IN, widthMm: 2 * IN, thicknessMm: 0.063 * IN, lengthMm: 346 * IN, speed: [50 * FPM, 310 * FPM], roundMm: 28 * IN, rect: [43 * IN, 24 * IN] },
+    metric: {
+      kind: 'horizontal',
+      make: 'Brandt-Kell',
+      model: 'BK 1100 Miter',
+      wheelMm: 700,
+      widthMm: 54,
+      thicknessMm: 1.6,
+      lengthMm: 8800,
+      speed: [15, 95],
+      roundMm: 700,
+      rect: [1100, 600],
+    },
+    imperial: {
+      kind: 'horizontal',
+      make: 'Brandt-Kell',
+      model: 'BK 1100 Miter',
+      wheelMm: 27.5 * IN,
+      widthMm: 2 * IN,
+      thicknessMm: 0.063 * IN,
+      lengthMm: 346 * IN,
+      speed: [50 * FPM, 310 * FPM],
+      roundMm: 28 * IN,
+      rect: [43 * IN, 24 * IN],
+    },
   },
   vertical: {
-    metric: { kind: 'vertical', make: 'Lindqvist', model: 'V-18 Contour', wheelMm: 460, widthMm: 13, thicknessMm: 0.65, lengthMm: 3960, speed: [15, 450], roundMm: 300, rect: [450, 300] },
-    imperial: { kind: 'vertical', make: 'Lindqvist', model: 'V-18 Contour', wheelMm: 18 * IN, widthMm: 0.5 * IN, thicknessMm: 0.025 * IN, lengthMm: 156 * IN, speed: [50 * FPM, 1500 * FPM], roundMm: 12 * IN, rect: [18 * IN, 12 * IN] },
+    metric: {
+      kind: 'vertical',
+      make: 'Lindqvist',
+      model: 'V-18 Contour',
+      wheelMm: 460,
+      widthMm: 13,
+      thicknessMm: 0.65,
+      lengthMm: 3960,
+      speed: [15, 450],
+      roundMm: 300,
+      rect: [450, 300],
+    },
+    imperial: {
+      kind: 'vertical',
+      make: 'Lindqvist',
+      model: 'V-18 Contour',
+      wheelMm: 18 * IN,
+      widthMm: 0.5 * IN,
+      thicknessMm: 0.025 * IN,
+      lengthMm: 156 * IN,
+      speed: [50 * FPM, 1500 * FPM],
+      roundMm: 12 * IN,
+      rect: [18 * IN, 12 * IN],
+    },
   },
 };
 
 const FLEET: Record<string, { cls: keyof typeof CLASSES; status?: SawStatus }[]> = {
-  'CV-HAM': [{ cls: 'mid' }, { cls: 'mid' }, { cls: 'mid', status: 'down' }, { cls: 'heavy' }, { cls: 'light' }, { cls: 'vertical' }, { cls: 'light', status: 'retired' }],
+  'CV-HAM': [
+    { cls: 'mid' },
+    { cls: 'mid' },
+    { cls: 'mid', status: 'down' },
+    { cls: 'heavy' },
+    { cls: 'light' },
+    { cls: 'vertical' },
+    { cls: 'light', status: 'retired' },
+  ],
   'CV-DBN': [{ cls: 'light' }, { cls: 'light' }, { cls: 'mid' }, { cls: 'mid' }, { cls: 'heavy' }, { cls: 'vertical' }],
   'CV-RTM': [{ cls: 'mid' }, { cls: 'mid' }, { cls: 'heavy' }, { cls: 'heavy', status: 'down' }, { cls: 'light' }],
-  'CV-HOU': [{ cls: 'beam' }, { cls: 'beam' }, { cls: 'heavy' }, { cls: 'heavy' }, { cls: 'mid' }, { cls: 'mid' }, { cls: 'light' }],
+  'CV-HOU': [
+    { cls: 'beam' },
+    { cls: 'beam' },
+    { cls: 'heavy' },
+    { cls: 'heavy' },
+    { cls: 'mid' },
+    { cls: 'mid' },
+    { cls: 'light' },
+  ],
   'CV-MTY': [{ cls: 'mid' }, { cls: 'mid' }, { cls: 'light' }, { cls: 'heavy' }, { cls: 'vertical' }],
 };
 
-const NICKNAMES = ['Bay 1 bar saw', 'Bay 2 bar saw', 'Tube line saw', 'Heavy bar saw', 'Offcut saw', 'Contour saw', 'Beam line saw', 'Bundle saw'];
+const NICKNAMES = [
+  'Bay 1 bar saw',
+  'Bay 2 bar saw',
+  'Tube line saw',
+  'Heavy bar saw',
+  'Offcut saw',
+  'Contour saw',
+  'Beam line saw',
+  'Bundle saw',
+];
 
 /** Loads the scenario in one transaction when the database holds no regions yet. Returns whether it loaded. */
 export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
@@ -103,7 +285,15 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
     const siteIds = new Map<string, string>();
     for (const s of SITES) {
       const site = await Site.create(
-        { code: s.code, name: s.name, city: s.city, timeZone: s.timeZone, currency: s.currency, unitSystem: s.unitSystem, regionId: regionIds.get(s.region)! },
+        {
+          code: s.code,
+          name: s.name,
+          city: s.city,
+          timeZone: s.timeZone,
+          currency: s.currency,
+          unitSystem: s.unitSystem,
+          regionId: regionIds.get(s.region)!,
+        },
         { transaction },
       );
       siteIds.set(s.code, site.id);
@@ -122,7 +312,12 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
           {
             siteId: siteIds.get(code)!,
             assetTag: `${code.slice(3)}-S${String(n).padStart(2, '0')}`,
-            name: cls === 'vertical' ? 'Contour saw' : cls === 'beam' ? `Beam line saw ${n}` : (NICKNAMES[(n - 1) % 5] ?? `Saw ${n}`),
+            name:
+              cls === 'vertical'
+                ? 'Contour saw'
+                : cls === 'beam'
+                  ? `Beam line saw ${n}`
+                  : (NICKNAMES[(n - 1) % 5] ?? `Saw ${n}`),
             kind: c.kind,
             make: c.make,
             model: c.model,
@@ -158,7 +353,10 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
         { transaction },
       );
       if (p.role === 'manager' && !p.allSites) {
-        await UserSite.bulkCreate([...siteIds.values()].map((siteId) => ({ userId: user.id, siteId })), { transaction });
+        await UserSite.bulkCreate(
+          [...siteIds.values()].map((siteId) => ({ userId: user.id, siteId })),
+          { transaction },
+        );
       }
     }
   });

@@ -8,7 +8,14 @@ import {
   DatabaseError,
   ConnectionError,
 } from 'sequelize';
-import { DomainInputError, HTTP_STATUS_BY_CODE, detailsFromZodError, type ErrorBody, type ErrorCode, type ErrorDetail } from '@kerfline/domain/errors';
+import {
+  DomainInputError,
+  HTTP_STATUS_BY_CODE,
+  detailsFromZodError,
+  type ErrorBody,
+  type ErrorCode,
+  type ErrorDetail,
+} from '@kerfline/domain/errors';
 import { AppError } from '../errors.js';
 
 /** Maps a Sequelize attribute list like `site_id, asset_tag` back to our field names. */
@@ -36,7 +43,10 @@ export function toAppError(err: unknown): { error: AppError; internal: boolean }
   if (err instanceof UniqueConstraintError) {
     const constraint = (err.parent as { constraint?: string } | undefined)?.constraint ?? '';
     const details: ErrorDetail[] = err.errors.map((e) => ({ path: camel(e.path ?? ''), message: 'already taken' }));
-    return { error: new AppError('CONFLICT', UNIQUE_MESSAGES[constraint] ?? 'That record already exists', details), internal: false };
+    return {
+      error: new AppError('CONFLICT', UNIQUE_MESSAGES[constraint] ?? 'That record already exists', details),
+      internal: false,
+    };
   }
   if (err instanceof ForeignKeyConstraintError) {
     return {
@@ -65,7 +75,10 @@ export function toAppError(err: unknown): { error: AppError; internal: boolean }
   if (bodyError?.type === 'entity.too.large') {
     return { error: AppError.validation('The request body is too large'), internal: false };
   }
-  return { error: new AppError('INTERNAL', 'Something went wrong on our side; the error has been logged'), internal: true };
+  return {
+    error: new AppError('INTERNAL', 'Something went wrong on our side; the error has been logged'),
+    internal: true,
+  };
 }
 
 export function errorBody(error: AppError, requestId: string | undefined): ErrorBody {

@@ -38,6 +38,8 @@ export class PgRateLimitStore implements Store {
   }
 
   async resetKey(key: string): Promise<void> {
-    await this.sequelize.query(`DELETE FROM rate_limit_hits WHERE key = :key`, { replacements: { key: this.prefix + key } });
+    await this.sequelize.query(`DELETE FROM rate_limit_hits WHERE key = :key`, {
+      replacements: { key: this.prefix + key },
+    });
   }
 }

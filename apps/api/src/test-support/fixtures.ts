@@ -29,7 +29,11 @@ export function sawBody(siteId: string, overrides: Record<string, unknown> = {})
 }
 
 function sawAttrs(siteId: string, overrides: Record<string, unknown>) {
-  return sawBody(siteId, overrides) as ReturnType<typeof sawBody> & { kind: 'horizontal'; make: string | null; model: string | null };
+  return sawBody(siteId, overrides) as ReturnType<typeof sawBody> & {
+    kind: 'horizontal';
+    make: string | null;
+    model: string | null;
+  };
 }
 
 /**
@@ -43,7 +47,15 @@ export async function buildWorld(sequelize: Sequelize) {
   const north = await Region.create({ name: 'North' });
   const south = await Region.create({ name: 'South' });
   const site = (code: string, regionId: string) =>
-    Site.create({ code, name: `Site ${code}`, city: null, timeZone: 'Europe/Berlin', currency: 'EUR', unitSystem: 'metric', regionId });
+    Site.create({
+      code,
+      name: `Site ${code}`,
+      city: null,
+      timeZone: 'Europe/Berlin',
+      currency: 'EUR',
+      unitSystem: 'metric',
+      regionId,
+    });
   const siteA = await site('A', north.id);
   const siteB = await site('B', north.id);
   const siteC = await site('C', south.id);
@@ -52,13 +64,34 @@ export async function buildWorld(sequelize: Sequelize) {
   for (const s of [siteA, siteB, siteC]) {
     saws[s.code] = [];
     for (const n of [1, 2]) {
-      saws[s.code]!.push(await Saw.create({ ...sawAttrs(s.id, { assetTag: `${s.code}-${n}`, make: 'Testmake', model: 'T1' }), retiredAt: null }));
+      saws[s.code]!.push(
+        await Saw.create({
+          ...sawAttrs(s.id, { assetTag: `${s.code}-${n}`, make: 'Testmake', model: 'T1' }),
+          retiredAt: null,
+        }),
+      );
     }
   }
-  const retiredA = await Saw.create({ ...sawAttrs(siteA.id, { assetTag: 'A-OLD', make: null, model: null }), status: 'retired', retiredAt: new Date() });
+  const retiredA = await Saw.create({
+    ...sawAttrs(siteA.id, { assetTag: 'A-OLD', make: null, model: null }),
+    status: 'retired',
+    retiredAt: new Date(),
+  });
 
-  const user = (email: string, role: Role, extra: Partial<{ siteId: string; regionId: string; allSites: boolean }> = {}) =>
-    User.create({ email, name: email.split('@')[0]!, role, passwordHash, siteId: extra.siteId ?? null, regionId: extra.regionId ?? null, allSites: extra.allSites ?? false });
+  const user = (
+    email: string,
+    role: Role,
+    extra: Partial<{ siteId: string; regionId: string; allSites: boolean }> = {},
+  ) =>
+    User.create({
+      email,
+      name: email.split('@')[0]!,
+      role,
+      passwordHash,
+      siteId: extra.siteId ?? null,
+      regionId: extra.regionId ?? null,
+      allSites: extra.allSites ?? false,
+    });
 
   const users = {
     admin: await user('admin@test.example', 'admin'),

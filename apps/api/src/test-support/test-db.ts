@@ -35,7 +35,9 @@ export function startTestApp(options: { signInLimit?: number } = {}): TestContex
 
 /** Empties every table (keeps the schema and the migration record). */
 export async function resetData(sequelize: Sequelize): Promise<void> {
-  await sequelize.query('TRUNCATE saws, user_sites, users, sites, regions, sessions, rate_limit_hits RESTART IDENTITY CASCADE');
+  await sequelize.query(
+    'TRUNCATE saws, user_sites, users, sites, regions, sessions, rate_limit_hits RESTART IDENTITY CASCADE',
+  );
 }
 
 /** A supertest agent that keeps cookies, signed in as `email`. */

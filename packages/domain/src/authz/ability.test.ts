@@ -24,7 +24,12 @@ const site = (id: string, regionId: string) => subject('Site', { id, regionId })
 const user = (id: string, siteId: string | null) => subject('User', { id, siteId });
 
 // The permission matrix: [role, action, object, expected].
-const matrix: [string, Parameters<ReturnType<typeof defineAbilityFor>['can']>[0], ReturnType<typeof saw> | ReturnType<typeof site> | ReturnType<typeof user>, boolean][] = [
+const matrix: [
+  string,
+  Parameters<ReturnType<typeof defineAbilityFor>['can']>[0],
+  ReturnType<typeof saw> | ReturnType<typeof site> | ReturnType<typeof user>,
+  boolean,
+][] = [
   ['admin', 'create', saw(C), true],
   ['admin', 'delete', site(B, NORTH), true],
   ['managerAll', 'read', saw(C), true],

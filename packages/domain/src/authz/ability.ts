@@ -1,4 +1,10 @@
-import { AbilityBuilder, createMongoAbility, type ForcedSubject, type MongoAbility, type RawRuleOf } from '@casl/ability';
+import {
+  AbilityBuilder,
+  createMongoAbility,
+  type ForcedSubject,
+  type MongoAbility,
+  type RawRuleOf,
+} from '@casl/ability';
 import type { Role } from '../users/schema.js';
 
 export const ACTIONS = ['manage', 'create', 'read', 'update', 'delete', 'export'] as const;

@@ -97,7 +97,11 @@ describe('band calculator schemas', () => {
 
 describe('centre distance input with a bad wheel', () => {
   it('reports the wheel instead of throwing', () => {
-    const result = centreDistanceInputSchema.safeParse({ driveWheelDiameterMm: 0, idlerWheelDiameterMm: 455, bandLengthMm: 4115 });
+    const result = centreDistanceInputSchema.safeParse({
+      driveWheelDiameterMm: 0,
+      idlerWheelDiameterMm: 455,
+      bandLengthMm: 4115,
+    });
     expect(result.success).toBe(false);
     expect(result.error?.issues.map((i) => i.path.join('.'))).toEqual(['driveWheelDiameterMm']);
   });

@@ -20,4 +20,8 @@ export type Page<T> = { items: T[]; total: number; limit: number; offset: number
 
 /** A trimmed, non-empty piece of text with a maximum length. */
 export const text = (max: number) =>
-  z.string().trim().min(1, { message: 'must not be empty' }).max(max, { message: `must be at most ${max} characters` });
+  z
+    .string()
+    .trim()
+    .min(1, { message: 'must not be empty' })
+    .max(max, { message: `must be at most ${max} characters` });

@@ -19,7 +19,12 @@ const base = {
 
 describe('saw inputs', () => {
   it('fills a new saw’s optional details with "not recorded" and puts it in service', () => {
-    expect(sawCreateSchema.parse(base)).toMatchObject({ make: null, model: null, capacityRoundMm: null, status: 'in_service' });
+    expect(sawCreateSchema.parse(base)).toMatchObject({
+      make: null,
+      model: null,
+      capacityRoundMm: null,
+      status: 'in_service',
+    });
   });
 
   it('keeps an update to the fields it names, so nothing else is reset', () => {
@@ -36,7 +41,11 @@ describe('saw inputs', () => {
   });
 
   it('reads list filters from a query string', () => {
-    expect(sawListQuerySchema.parse({ includeRetired: 'true', limit: '20' })).toMatchObject({ includeRetired: true, limit: 20, offset: 0 });
+    expect(sawListQuerySchema.parse({ includeRetired: 'true', limit: '20' })).toMatchObject({
+      includeRetired: true,
+      limit: 20,
+      offset: 0,
+    });
     expect(sawListQuerySchema.parse({})).toMatchObject({ includeRetired: false, limit: 100 });
   });
 });
@@ -44,7 +53,16 @@ describe('saw inputs', () => {
 describe('site inputs', () => {
   it('leaves a site’s city alone when an update does not name it', () => {
     expect(siteUpdateSchema.parse({ unitSystem: 'imperial' })).toEqual({ unitSystem: 'imperial' });
-    expect(siteCreateSchema.parse({ regionId: site, code: 'X-1', name: 'X', timeZone: 'UTC', currency: 'eur', unitSystem: 'metric' })).toMatchObject({
+    expect(
+      siteCreateSchema.parse({
+        regionId: site,
+        code: 'X-1',
+        name: 'X',
+        timeZone: 'UTC',
+        currency: 'eur',
+        unitSystem: 'metric',
+      }),
+    ).toMatchObject({
       city: null,
       currency: 'EUR',
     });

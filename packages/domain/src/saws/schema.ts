@@ -88,7 +88,11 @@ type SawRanges = {
 /** Cross-field rules shared by create and update (update checks them against the merged record in the API). */
 export function sawRangeIssues(v: SawRanges): { path: string; message: string }[] {
   const issues: { path: string; message: string }[] = [];
-  if (v.bandSpeedMinMPerMin !== undefined && v.bandSpeedMaxMPerMin !== undefined && v.bandSpeedMinMPerMin > v.bandSpeedMaxMPerMin) {
+  if (
+    v.bandSpeedMinMPerMin !== undefined &&
+    v.bandSpeedMaxMPerMin !== undefined &&
+    v.bandSpeedMinMPerMin > v.bandSpeedMaxMPerMin
+  ) {
     issues.push({ path: 'bandSpeedMaxMPerMin', message: 'Highest band speed must not be below the lowest' });
   }
   if (v.bandWidthMm !== undefined && v.bandThicknessMm !== undefined && v.bandThicknessMm >= v.bandWidthMm) {
@@ -98,7 +102,8 @@ export function sawRangeIssues(v: SawRanges): { path: string; message: string }[
 }
 
 export const sawCreateSchema = sawFields.superRefine((value, ctx) => {
-  for (const issue of sawRangeIssues(value)) ctx.addIssue({ code: 'custom', path: [issue.path], message: issue.message });
+  for (const issue of sawRangeIssues(value))
+    ctx.addIssue({ code: 'custom', path: [issue.path], message: issue.message });
 });
 export type SawCreate = z.input<typeof sawCreateSchema>;
 export type SawCreateParsed = z.output<typeof sawCreateSchema>;
@@ -109,7 +114,8 @@ export const sawUpdateSchema = z
   .partial()
   .strict()
   .superRefine((value, ctx) => {
-    for (const issue of sawRangeIssues(value)) ctx.addIssue({ code: 'custom', path: [issue.path], message: issue.message });
+    for (const issue of sawRangeIssues(value))
+      ctx.addIssue({ code: 'custom', path: [issue.path], message: issue.message });
   });
 export type SawUpdate = z.infer<typeof sawUpdateSchema>;
 

@@ -56,12 +56,20 @@ export const userCreateSchema = z
   })
   .superRefine((v, ctx) => {
     const needsSite = v.role === 'site_admin' || v.role === 'technician';
-    if (needsSite && !v.siteId) ctx.addIssue({ code: 'custom', path: ['siteId'], message: 'a site admin or technician needs a home site' });
-    if (!needsSite && v.siteId) ctx.addIssue({ code: 'custom', path: ['siteId'], message: 'only site admins and technicians have a home site' });
-    if (v.role === 'regional_lead' && !v.regionId) ctx.addIssue({ code: 'custom', path: ['regionId'], message: 'a regional lead needs a region' });
-    if (v.role !== 'regional_lead' && v.regionId) ctx.addIssue({ code: 'custom', path: ['regionId'], message: 'only regional leads have a region' });
+    if (needsSite && !v.siteId)
+      ctx.addIssue({ code: 'custom', path: ['siteId'], message: 'a site admin or technician needs a home site' });
+    if (!needsSite && v.siteId)
+      ctx.addIssue({ code: 'custom', path: ['siteId'], message: 'only site admins and technicians have a home site' });
+    if (v.role === 'regional_lead' && !v.regionId)
+      ctx.addIssue({ code: 'custom', path: ['regionId'], message: 'a regional lead needs a region' });
+    if (v.role !== 'regional_lead' && v.regionId)
+      ctx.addIssue({ code: 'custom', path: ['regionId'], message: 'only regional leads have a region' });
     if (v.role === 'manager' && !v.allSites && v.managedSiteIds.length === 0) {
-      ctx.addIssue({ code: 'custom', path: ['managedSiteIds'], message: 'a manager needs at least one site, or all sites' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['managedSiteIds'],
+        message: 'a manager needs at least one site, or all sites',
+      });
     }
     if (v.role !== 'manager' && (v.allSites || v.managedSiteIds.length > 0)) {
       ctx.addIssue({ code: 'custom', path: ['managedSiteIds'], message: 'only managers are assigned a list of sites' });

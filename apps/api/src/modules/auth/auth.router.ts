@@ -6,7 +6,10 @@ import { requireSignIn, signedInOf } from '../../http/authenticate.js';
 import { AppError } from '../../errors.js';
 import { loadSignedIn, toMe } from './auth.service.js';
 
-export function authRouter(deps: { passport: InstanceType<typeof passportModule.Passport>; signInLimiter: RequestHandler }): Router {
+export function authRouter(deps: {
+  passport: InstanceType<typeof passportModule.Passport>;
+  signInLimiter: RequestHandler;
+}): Router {
   const router = Router();
 
   router.post('/auth/sign-in', deps.signInLimiter, validate('body', signInSchema), (req, res, next) => {

@@ -38,17 +38,28 @@ export async function loadSignedIn(userId: string): Promise<SignedIn | null> {
     managedSiteIds = (await UserSite.findAll({ where: { userId }, attributes: ['siteId'] })).map((r) => r.siteId);
     if (!user.allSites) siteIds = managedSiteIds;
   } else if (user.role === 'regional_lead') {
-    siteIds = user.regionId ? (await Site.findAll({ where: { regionId: user.regionId }, attributes: ['id'] })).map((s) => s.id) : [];
+    siteIds = user.regionId
+      ? (await Site.findAll({ where: { regionId: user.regionId }, attributes: ['id'] })).map((s) => s.id)
+      : [];
     regionIds = user.regionId ? [user.regionId] : [];
   } else if (user.role === 'site_admin' || user.role === 'technician') {
     siteIds = user.siteId ? [user.siteId] : [];
   }
   if (siteIds !== 'all' && user.role !== 'regional_lead') {
-    const sites = siteIds.length ? await Site.findAll({ where: { id: { [Op.in]: siteIds } }, attributes: ['regionId'] }) : [];
+    const sites = siteIds.length
+      ? await Site.findAll({ where: { id: { [Op.in]: siteIds } }, attributes: ['regionId'] })
+      : [];
     regionIds = [...new Set(sites.map((s) => s.regionId))];
   }
 
-  const principal: Principal = { id: user.id, role: user.role, siteId: user.siteId, regionId: user.regionId, siteIds, regionIds };
+  const principal: Principal = {
+    id: user.id,
+    role: user.role,
+    siteId: user.siteId,
+    regionId: user.regionId,
+    siteIds,
+    regionIds,
+  };
   return { user, principal, ability: defineAbilityFor(principal), managedSiteIds };
 }
 

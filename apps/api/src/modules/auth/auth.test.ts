@@ -18,7 +18,9 @@ beforeEach(async () => {
 
 describe('sign-in', () => {
   it('signs in with the right password and answers who the user is and what they may do', async () => {
-    const res = await supertest(ctx.app).post('/api/auth/sign-in').send({ email: 'Tech-A@Test.example ', password: PASSWORD });
+    const res = await supertest(ctx.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'Tech-A@Test.example ', password: PASSWORD });
     expect(res.status).toBe(200);
     expect(res.body.user).toMatchObject({ email: 'tech-a@test.example', role: 'technician', siteId: world.sites.A.id });
     expect(res.body.user.passwordHash).toBeUndefined();
@@ -31,8 +33,12 @@ describe('sign-in', () => {
   });
 
   it('gives a wrong password and an unknown user the same answer', async () => {
-    const wrong = await supertest(ctx.app).post('/api/auth/sign-in').send({ email: 'tech-a@test.example', password: 'not-the-password' });
-    const unknown = await supertest(ctx.app).post('/api/auth/sign-in').send({ email: 'nobody@test.example', password: 'not-the-password' });
+    const wrong = await supertest(ctx.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'tech-a@test.example', password: 'not-the-password' });
+    const unknown = await supertest(ctx.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'nobody@test.example', password: 'not-the-password' });
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect(wrong.body.error.code).toBe('UNAUTHENTICATED');
@@ -45,7 +51,9 @@ describe('sign-in', () => {
     await agent.post('/api/auth/sign-in').send({ email: 'tech-a@test.example', password: PASSWORD }).expect(200);
     await User.update({ active: false }, { where: { id: world.users.techA.id } });
     expect((await agent.get('/api/me')).status).toBe(401);
-    const again = await supertest(ctx.app).post('/api/auth/sign-in').send({ email: 'tech-a@test.example', password: PASSWORD });
+    const again = await supertest(ctx.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'tech-a@test.example', password: PASSWORD });
     expect(again.status).toBe(401);
   });
 
@@ -57,7 +65,10 @@ describe('sign-in', () => {
   });
 
   it('answers malformed JSON with 400, not 500', async () => {
-    const res = await supertest(ctx.app).post('/api/auth/sign-in').set('Content-Type', 'application/json').send('{"email":');
+    const res = await supertest(ctx.app)
+      .post('/api/auth/sign-in')
+      .set('Content-Type', 'application/json')
+      .send('{"email":');
     expect(res.status).toBe(400);
     expect(res.body.error.message).toMatch(/not valid JSON/);
   });
@@ -90,7 +101,10 @@ describe('a session', () => {
   });
 
   it('survives an app restart, because it lives in PostgreSQL', async () => {
-    const res = await supertest(ctx.app).post('/api/auth/sign-in').send({ email: 'admin@test.example', password: PASSWORD }).expect(200);
+    const res = await supertest(ctx.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'admin@test.example', password: PASSWORD })
+      .expect(200);
     const cookie = res.headers['set-cookie']![0]!.split(';')[0]!;
     const restarted = startTestApp();
     try {
@@ -108,15 +122,26 @@ describe('the sign-in rate limit', () => {
     const limited = startTestApp({ signInLimit: 3 });
     try {
       for (let i = 0; i < 3; i += 1) {
-        await supertest(limited.app).post('/api/auth/sign-in').send({ email: 'x@test.example', password: 'wrong-password' }).expect(401);
+        await supertest(limited.app)
+          .post('/api/auth/sign-in')
+          .send({ email: 'x@test.example', password: 'wrong-password' })
+          .expect(401);
       }
-      const blocked = await supertest(limited.app).post('/api/auth/sign-in').send({ email: 'admin@test.example', password: PASSWORD });
+      const blocked = await supertest(limited.app)
+        .post('/api/auth/sign-in')
+        .send({ email: 'admin@test.example', password: PASSWORD });
       expect(blocked.status).toBe(429);
       expect(blocked.body.error.code).toBe('RATE_LIMITED');
       // A second process shares the count.
       const other = startTestApp({ signInLimit: 3 });
       try {
-        expect((await supertest(other.app).post('/api/auth/sign-in').send({ email: 'admin@test.example', password: PASSWORD })).status).toBe(429);
+        expect(
+          (
+            await supertest(other.app)
+              .post('/api/auth/sign-in')
+              .send({ email: 'admin@test.example', password: PASSWORD })
+          ).status,
+        ).toBe(429);
       } finally {
         await other.close();
       }

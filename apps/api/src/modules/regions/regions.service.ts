@@ -9,7 +9,10 @@ import { Region } from './region.model.js';
 const toDto = (r: Region): RegionDto => ({ id: r.id, name: r.name });
 
 export async function listRegions(ability: AppAbility): Promise<Page<RegionDto>> {
-  const rows = await Region.findAll({ where: scopedWhere(ability, 'read', 'Region', Region), order: [['name', 'ASC']] });
+  const rows = await Region.findAll({
+    where: scopedWhere(ability, 'read', 'Region', Region),
+    order: [['name', 'ASC']],
+  });
   return { items: rows.map(toDto), total: rows.length, limit: rows.length, offset: 0 };
 }
 

@@ -72,8 +72,12 @@ async function findReadable(ability: AppAbility, id: string): Promise<Saw> {
 
 /** The target site must be one the caller can see; otherwise it is reported like a missing site. */
 async function assertSiteReadable(ability: AppAbility, siteId: string): Promise<void> {
-  const site = await Site.findOne({ where: scopedWhere(ability, 'read', 'Site', Site, { id: siteId }), attributes: ['id'] });
-  if (!site) throw AppError.validation('That site does not exist', [{ path: 'siteId', message: 'choose one of your sites' }]);
+  const site = await Site.findOne({
+    where: scopedWhere(ability, 'read', 'Site', Site, { id: siteId }),
+    attributes: ['id'],
+  });
+  if (!site)
+    throw AppError.validation('That site does not exist', [{ path: 'siteId', message: 'choose one of your sites' }]);
 }
 
 export async function getSaw(ability: AppAbility, id: string): Promise<SawDto> {
@@ -94,7 +98,8 @@ export async function updateSaw(ability: AppAbility, id: string, patch: SawUpdat
   const current = saw.get({ plain: true });
   const forbid = ForbiddenError.from(ability).setMessage('You cannot change this saw');
   forbid.throwUnlessCan('update', subject('Saw', current));
-  if (current.status === 'retired') throw new AppError('CONFLICT', 'This saw is retired; retired saws are kept for history and cannot be changed');
+  if (current.status === 'retired')
+    throw new AppError('CONFLICT', 'This saw is retired; retired saws are kept for history and cannot be changed');
 
   const merged = { ...current, ...patch };
   const issues = sawRangeIssues(merged);
@@ -109,7 +114,9 @@ export async function updateSaw(ability: AppAbility, id: string, patch: SawUpdat
 
 export async function retireSaw(ability: AppAbility, id: string): Promise<SawDto> {
   const saw = await findReadable(ability, id);
-  ForbiddenError.from(ability).setMessage('You cannot retire this saw').throwUnlessCan('update', subject('Saw', saw.get({ plain: true })));
+  ForbiddenError.from(ability)
+    .setMessage('You cannot retire this saw')
+    .throwUnlessCan('update', subject('Saw', saw.get({ plain: true })));
   if (saw.status === 'retired') throw new AppError('CONFLICT', 'This saw is already retired');
   await saw.update({ status: 'retired', retiredAt: new Date() });
   return toSawDto(saw);

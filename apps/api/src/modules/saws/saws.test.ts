@@ -66,9 +66,19 @@ describe('each role sees only the saws in its scope', () => {
 
 describe('creating a saw', () => {
   it('lets a site admin add one at their site', async () => {
-    const res = await (await as('siteadmin-a@test.example')).post('/api/saws').send(sawBody(world.sites.A.id, { assetTag: 'A-NEW' }));
+    const res = await (
+      await as('siteadmin-a@test.example')
+    )
+      .post('/api/saws')
+      .send(sawBody(world.sites.A.id, { assetTag: 'A-NEW' }));
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ assetTag: 'A-NEW', siteId: world.sites.A.id, status: 'in_service', make: null, retiredAt: null });
+    expect(res.body).toMatchObject({
+      assetTag: 'A-NEW',
+      siteId: world.sites.A.id,
+      status: 'in_service',
+      make: null,
+      retiredAt: null,
+    });
   });
 
   it('refuses a technician, at their own site (403) and elsewhere (site unknown to them), writing nothing', async () => {
@@ -80,29 +90,47 @@ describe('creating a saw', () => {
     expect(elsewhere.status).toBe(400);
     expect(elsewhere.body.error.details).toEqual([{ path: 'siteId', message: 'choose one of your sites' }]);
     const nowhere = await agent.post('/api/saws').send(sawBody('00000000-0000-4000-8000-000000000999'));
-    expect(nowhere.body).toMatchObject({ error: { code: elsewhere.body.error.code, message: elsewhere.body.error.message } });
+    expect(nowhere.body).toMatchObject({
+      error: { code: elsewhere.body.error.code, message: elsewhere.body.error.message },
+    });
     expect((await ctx.sequelize.query('SELECT count(*)::int AS n FROM saws', { plain: true }))!.n).toBe(7);
   });
 
   it('refuses a site admin at another site and a manager anywhere', async () => {
-    expect((await (await as('siteadmin-a@test.example')).post('/api/saws').send(sawBody(world.sites.B.id))).status).toBe(400);
-    expect((await (await as('manager-all@test.example')).post('/api/saws').send(sawBody(world.sites.A.id))).status).toBe(403);
+    expect(
+      (await (await as('siteadmin-a@test.example')).post('/api/saws').send(sawBody(world.sites.B.id))).status,
+    ).toBe(400);
+    expect(
+      (await (await as('manager-all@test.example')).post('/api/saws').send(sawBody(world.sites.A.id))).status,
+    ).toBe(403);
   });
 
   it('says which fields need fixing', async () => {
-    const res = await (await as('siteadmin-a@test.example'))
+    const res = await (
+      await as('siteadmin-a@test.example')
+    )
       .post('/api/saws')
       .send(sawBody(world.sites.A.id, { bandWidthMm: -1, kind: 'diagonal', bandSpeedMinMPerMin: 120, name: '' }));
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('VALIDATION_FAILED');
     const paths = res.body.error.details.map((d: { path: string }) => d.path);
     expect(paths).toEqual(expect.arrayContaining(['bandWidthMm', 'kind', 'name']));
-    const speed = await (await as('siteadmin-a@test.example')).post('/api/saws').send(sawBody(world.sites.A.id, { bandSpeedMinMPerMin: 120 }));
-    expect(speed.body.error.details).toEqual([{ path: 'bandSpeedMaxMPerMin', message: 'Highest band speed must not be below the lowest' }]);
+    const speed = await (
+      await as('siteadmin-a@test.example')
+    )
+      .post('/api/saws')
+      .send(sawBody(world.sites.A.id, { bandSpeedMinMPerMin: 120 }));
+    expect(speed.body.error.details).toEqual([
+      { path: 'bandSpeedMaxMPerMin', message: 'Highest band speed must not be below the lowest' },
+    ]);
   });
 
   it('answers 409 for an asset tag already used at the site', async () => {
-    const res = await (await as('siteadmin-a@test.example')).post('/api/saws').send(sawBody(world.sites.A.id, { assetTag: 'A-1' }));
+    const res = await (
+      await as('siteadmin-a@test.example')
+    )
+      .post('/api/saws')
+      .send(sawBody(world.sites.A.id, { assetTag: 'A-1' }));
     expect(res.status).toBe(409);
     expect(res.body.error.message).toMatch(/asset tag/);
   });
@@ -137,12 +165,16 @@ describe('changing and retiring a saw', () => {
     const res = await agent.patch(`/api/saws/${world.saws.A![0]!.id}`).send({ siteId: world.sites.B.id });
     expect(res.status).toBe(400);
     const admin = await as('admin@test.example');
-    expect((await admin.patch(`/api/saws/${world.saws.A![0]!.id}`).send({ siteId: world.sites.B.id })).status).toBe(200);
+    expect((await admin.patch(`/api/saws/${world.saws.A![0]!.id}`).send({ siteId: world.sites.B.id })).status).toBe(
+      200,
+    );
   });
 
   it('refuses writes by read-only roles and hides other sites’ saws', async () => {
     const id = world.saws.A![0]!.id;
-    expect((await (await as('manager-all@test.example')).patch(`/api/saws/${id}`).send({ name: 'x' })).status).toBe(403);
+    expect((await (await as('manager-all@test.example')).patch(`/api/saws/${id}`).send({ name: 'x' })).status).toBe(
+      403,
+    );
     expect((await (await as('lead-north@test.example')).post(`/api/saws/${id}/retire`)).status).toBe(403);
     expect((await (await as('tech-c@test.example')).patch(`/api/saws/${id}`).send({ name: 'x' })).status).toBe(404);
     expect((await (await as('tech-c@test.example')).post(`/api/saws/${id}/retire`)).status).toBe(404);

@@ -56,7 +56,9 @@ export async function getSite(ability: AppAbility, id: string): Promise<SiteDto>
 export async function createSite(ability: AppAbility, input: SiteCreate): Promise<SiteDto> {
   ForbiddenError.from(ability).throwUnlessCan('create', subject('Site', { id: '', ...input }));
   if (!(await Region.findByPk(input.regionId))) {
-    throw AppError.validation('That region does not exist', [{ path: 'regionId', message: 'choose an existing region' }]);
+    throw AppError.validation('That region does not exist', [
+      { path: 'regionId', message: 'choose an existing region' },
+    ]);
   }
   const site = await Site.create(input);
   return getSite(ability, site.id);

@@ -46,15 +46,39 @@ describe('sites and regions by role', () => {
 describe('changing sites', () => {
   it('lets an admin add a site and says what is wrong with a bad one', async () => {
     const agent = await as('admin@test.example');
-    const ok = await agent
-      .post('/api/sites')
-      .send({ regionId: world.regions.south.id, code: 'D-1', name: 'Site D', timeZone: 'America/Chicago', currency: 'usd', unitSystem: 'imperial' });
+    const ok = await agent.post('/api/sites').send({
+      regionId: world.regions.south.id,
+      code: 'D-1',
+      name: 'Site D',
+      timeZone: 'America/Chicago',
+      currency: 'usd',
+      unitSystem: 'imperial',
+    });
     expect(ok.status).toBe(201);
     expect(ok.body).toMatchObject({ code: 'D-1', currency: 'USD', activeSawCount: 0 });
-    const bad = await agent.post('/api/sites').send({ regionId: world.regions.south.id, code: 'd 1', name: 'x', timeZone: 'Mars/Olympus', currency: 'dollars', unitSystem: 'cubits' });
+    const bad = await agent.post('/api/sites').send({
+      regionId: world.regions.south.id,
+      code: 'd 1',
+      name: 'x',
+      timeZone: 'Mars/Olympus',
+      currency: 'dollars',
+      unitSystem: 'cubits',
+    });
     expect(bad.status).toBe(400);
-    expect(bad.body.error.details.map((d: { path: string }) => d.path).sort()).toEqual(['code', 'currency', 'timeZone', 'unitSystem']);
-    const dup = await agent.post('/api/sites').send({ regionId: world.regions.south.id, code: 'A', name: 'Again', timeZone: 'UTC', currency: 'EUR', unitSystem: 'metric' });
+    expect(bad.body.error.details.map((d: { path: string }) => d.path).sort()).toEqual([
+      'code',
+      'currency',
+      'timeZone',
+      'unitSystem',
+    ]);
+    const dup = await agent.post('/api/sites').send({
+      regionId: world.regions.south.id,
+      code: 'A',
+      name: 'Again',
+      timeZone: 'UTC',
+      currency: 'EUR',
+      unitSystem: 'metric',
+    });
     expect(dup.status).toBe(409);
   });
 
@@ -68,7 +92,16 @@ describe('changing sites', () => {
     const manager = await as('manager-all@test.example');
     expect((await manager.patch(`/api/sites/${world.sites.A.id}`).send({ name: 'x' })).status).toBe(403);
     expect(
-      (await manager.post('/api/sites').send({ regionId: world.regions.south.id, code: 'E', name: 'E', timeZone: 'UTC', currency: 'EUR', unitSystem: 'metric' })).status,
+      (
+        await manager.post('/api/sites').send({
+          regionId: world.regions.south.id,
+          code: 'E',
+          name: 'E',
+          timeZone: 'UTC',
+          currency: 'EUR',
+          unitSystem: 'metric',
+        })
+      ).status,
     ).toBe(403);
   });
 });

@@ -35,7 +35,12 @@ export async function listUsers(ability: AppAbility, q: UserListQuery): Promise<
     offset: q.offset,
   });
   const managed = await managedSitesOf(rows.map((u) => u.id));
-  return { items: rows.map((u) => toUserDto(u, managed.get(u.id) ?? [])), total: count, limit: q.limit, offset: q.offset };
+  return {
+    items: rows.map((u) => toUserDto(u, managed.get(u.id) ?? [])),
+    total: count,
+    limit: q.limit,
+    offset: q.offset,
+  };
 }
 
 export async function createUser(
@@ -48,12 +53,15 @@ export async function createUser(
     .throwUnlessCan('create', subject('User', { id: '', siteId: input.siteId }));
 
   const details: { path: string; message: string }[] = [];
-  if (input.siteId && !(await Site.findByPk(input.siteId, { attributes: ['id'] }))) details.push({ path: 'siteId', message: 'no such site' });
-  if (input.regionId && !(await Region.findByPk(input.regionId, { attributes: ['id'] }))) details.push({ path: 'regionId', message: 'no such region' });
+  if (input.siteId && !(await Site.findByPk(input.siteId, { attributes: ['id'] })))
+    details.push({ path: 'siteId', message: 'no such site' });
+  if (input.regionId && !(await Region.findByPk(input.regionId, { attributes: ['id'] })))
+    details.push({ path: 'regionId', message: 'no such region' });
   const uniqueManaged = [...new Set(input.managedSiteIds)];
   if (uniqueManaged.length > 0) {
     const found = await Site.count({ where: { id: { [Op.in]: uniqueManaged } } });
-    if (found !== uniqueManaged.length) details.push({ path: 'managedSiteIds', message: 'one or more of these sites do not exist' });
+    if (found !== uniqueManaged.length)
+      details.push({ path: 'managedSiteIds', message: 'one or more of these sites do not exist' });
   }
   if (details.length > 0) throw AppError.validation('Some assignments refer to records that do not exist', details);
 
