@@ -2,6 +2,16 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { DEMO, DESKTOP, PHONE, launch, newPage, shot, signIn } from './support.js';
 
+/**
+ * Picks a unit system. The switch changes the address, and the page redraws the switch for the new
+ * address, so wait for the address and the redrawn radio rather than the clicked element.
+ */
+async function chooseUnits(page: Page, name: 'Metric' | 'Imperial'): Promise<void> {
+  await page.getByRole('radio', { name: new RegExp(name) }).click();
+  await page.waitForURL(`**units=${name.toLowerCase()}*`);
+  await expect.poll(() => page.getByRole('radio', { name: new RegExp(name) }).isChecked()).toBe(true);
+}
+
 let browser: Browser;
 
 beforeAll(async () => {
@@ -41,7 +51,7 @@ describe('the shop calculators, as a technician uses them on a phone', () => {
     // Teeth in the work, in millimetres.
     await page.getByRole('link', { name: /Teeth in the work and pitch/ }).click();
     await page.waitForURL('**/calculators/teeth-in-work?units=imperial');
-    await page.getByRole('radio', { name: /Metric/ }).check();
+    await chooseUnits(page, 'Metric');
     await page.waitForURL('**/calculators/teeth-in-work?units=metric');
     await page.getByRole('textbox', { name: /Diameter/ }).fill('50');
     await page.getByRole('combobox', { name: 'Pitch' }).selectOption({ label: '4/6 TPI (variable)' });
@@ -54,7 +64,7 @@ describe('the shop calculators, as a technician uses them on a phone', () => {
     await shot(page, 'calculators-teeth-in-work-metric-phone');
 
     // The same bar in inches: the length under the band changes unit and value together; the teeth stay.
-    await page.getByRole('radio', { name: /Imperial/ }).check();
+    await chooseUnits(page, 'Imperial');
     await page.waitForURL('**/calculators/teeth-in-work?units=imperial');
     const imperialMetal = await resultMatch(page, /Metal under the band\s+([\d.,]+)–([\d.,]+)\s+in/);
     expect(number(imperialMetal[1]!)).toBeCloseTo(number(metricMetal[1]!) / MM_PER_IN, 2);
@@ -78,7 +88,7 @@ describe('the shop calculators, as a technician uses them on a phone', () => {
     expect(inches[1]).toBe('162.55');
     await shot(page, 'calculators-band-length-imperial-phone');
 
-    await page.getByRole('radio', { name: /Metric/ }).check();
+    await chooseUnits(page, 'Metric');
     await page.waitForURL('**/calculators/band-length?units=metric');
     // 162.5487 in × 25.4 = 4,128.7 mm.
     const millimetres = await resultMatch(page, /take a band ([\d.,]+) mm long/);
