@@ -53,5 +53,7 @@ export async function signIn(page: Page, email: string): Promise<void> {
 export async function shot(page: Page, name: string): Promise<void> {
   // Let colour transitions (navigation highlights) settle so the picture shows the resting state.
   await page.waitForTimeout(300);
+  // A full-page picture taken while scrolled draws the sticky top bar mid-page.
+  await page.evaluate(() => window.scrollTo(0, 0));
   await page.screenshot({ path: path.join(SCREENSHOTS, `${name}.png`), fullPage: true });
 }
