@@ -87,6 +87,12 @@ describe('the foundation, as people use it', () => {
   it('shows a technician only their site, on a phone', async () => {
     const { context, page } = await newPage(browser, PHONE);
     await signIn(page, DEMO.technician);
+    // One site: the technician lands on it, with its saws one tap away.
+    await page.waitForURL('**/sites/*');
+    await expect
+      .poll(() => page.getByRole('heading', { level: 1 }).textContent())
+      .toContain('Hammerfield Service Centre');
+    await shot(page, 'technician-home-phone');
     await page.goto('/sites');
     await expect.poll(() => page.getByText('Hammerfield Service Centre').count()).toBeGreaterThan(0);
     expect(await page.getByText('Bayou Structural Yard').count()).toBe(0);

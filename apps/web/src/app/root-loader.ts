@@ -24,5 +24,17 @@ export function rootLoader(queryClient: QueryClient) {
 
 /** Only a path inside this app may follow sign-in (never `//elsewhere` or an absolute URL). */
 export function safeNextPath(next: string | null): string {
-  return next && next.startsWith('/') && !next.startsWith('//') && !next.startsWith('/\\') ? next : '/sites';
+  return next && next.startsWith('/') && !next.startsWith('//') && !next.startsWith('/\\') ? next : '/';
+}
+
+/**
+ * The first page after sign-in: people who work at one site (technicians, site admins) go straight to it,
+ * so the saws they work on are one tap away; everyone else starts from the list of sites.
+ */
+export function homeLoader(queryClient: QueryClient) {
+  return async () => {
+    const me = await queryClient.ensureQueryData(meQuery());
+    const [only, ...others] = me.siteIds;
+    return redirect(only && others.length === 0 ? `/sites/${only}` : '/sites');
+  };
 }

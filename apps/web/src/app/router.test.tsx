@@ -26,6 +26,19 @@ const signedInRoutes = (role: 'site_admin' | 'technician') => ({
 });
 
 describe('the web app', () => {
+  it('opens straight on the site of someone who works at one site', async () => {
+    installFakeApi(signedInRoutes('technician'));
+    const { router } = renderApp('/');
+    expect(await screen.findByRole('heading', { level: 1, name: 'Holt Bar Works' })).toBeInTheDocument();
+    expect(router.state.location.pathname).toBe(`/sites/${SITE_ID}`);
+  });
+
+  it('opens on the list of sites for someone who sees several', async () => {
+    installFakeApi({ ...signedInRoutes('site_admin'), 'GET /api/me': { status: 200, body: makeMe('admin') } });
+    const { router } = renderApp('/');
+    await waitFor(() => expect(router.state.location.pathname).toBe('/sites'));
+  });
+
   it('sends a visitor without a session to sign in, remembering the page they wanted', async () => {
     installFakeApi({
       'GET /api/me': unauthenticated,
@@ -89,7 +102,7 @@ describe('the web app', () => {
 
   it('keeps People out of a technician’s navigation, and lists their site with its figures', async () => {
     installFakeApi(signedInRoutes('technician'));
-    renderApp('/');
+    renderApp('/sites');
     const tile = await screen.findByRole('link', { name: /Holt Bar Works/ });
     expect(tile).toHaveTextContent('Great Lakes');
     expect(tile).toHaveTextContent('America/Chicago');

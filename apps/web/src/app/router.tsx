@@ -1,6 +1,6 @@
-import { createBrowserRouter, Navigate, type RouteObject } from 'react-router-dom';
+import { createBrowserRouter, type RouteObject } from 'react-router-dom';
 import type { QueryClient } from '@tanstack/react-query';
-import { rootLoader } from './root-loader';
+import { homeLoader, rootLoader } from './root-loader';
 import { AppShell } from './shell/app-shell';
 import { NotFoundPage } from './routes/errors/not-found-page';
 import { RouteError } from './routes/errors/route-error';
@@ -40,7 +40,7 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
           // Page failures render inside the shell, so the navigation stays.
           errorElement: <RouteError />,
           children: [
-            { index: true, element: <Navigate to="/sites" replace /> },
+            { index: true, loader: homeLoader(queryClient) },
             {
               path: 'sites',
               lazy: async () => {
