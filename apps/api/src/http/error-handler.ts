@@ -70,7 +70,7 @@ export function toAppError(err: unknown): { error: AppError; internal: boolean }
   }
   const bodyError = err as { type?: string; status?: number };
   if (bodyError?.type === 'entity.parse.failed') {
-    return { error: AppError.validation('The request body is not valid JSON'), internal: false };
+    return { error: AppError.validation('The request body must be a JSON object'), internal: false };
   }
   if (bodyError?.type === 'entity.too.large') {
     return { error: AppError.validation('The request body is too large'), internal: false };

@@ -1,5 +1,11 @@
 import { z } from 'zod';
 
+// One wording for a missing field everywhere (API answers and browser forms alike), instead of zod's
+// "expected string, received undefined".
+z.config({
+  customError: (issue) => (issue.code === 'invalid_type' && issue.input === undefined ? 'is required' : undefined),
+});
+
 export const idSchema = z.uuid({ message: 'must be an id (UUID)' });
 
 /** Paging shared by every list endpoint; `limit` is capped so no request can ask for a whole table. */
@@ -18,10 +24,17 @@ export function pageOf<T extends z.ZodType>(item: T) {
 }
 export type Page<T> = { items: T[]; total: number; limit: number; offset: number };
 
-/** A trimmed, non-empty piece of text with a maximum length. */
+// Control characters (NUL, escape, line breaks) have no place in a name or tag; PostgreSQL cannot store NUL.
+// eslint-disable-next-line no-control-regex
+const CONTROL_CHARACTERS = /[\u0000-\u001f\u007f]/;
+
+/** A trimmed, non-empty, single-line piece of text with a maximum length. */
 export const text = (max: number) =>
   z
     .string()
     .trim()
     .min(1, { message: 'must not be empty' })
-    .max(max, { message: `must be at most ${max} characters` });
+    .max(max, { message: `must be at most ${max} characters` })
+    .refine((value) => !CONTROL_CHARACTERS.test(value), {
+      message: 'must not contain control characters or line breaks',
+    });

@@ -70,7 +70,7 @@ describe('sign-in', () => {
       .set('Content-Type', 'application/json')
       .send('{"email":');
     expect(res.status).toBe(400);
-    expect(res.body.error.message).toMatch(/not valid JSON/);
+    expect(res.body.error.message).toMatch(/must be a JSON object/);
   });
 
   it('issues a new session id at sign-in, so a planted session cookie is worthless', async () => {
