@@ -10,6 +10,7 @@ import { formatDate } from '../../../lib/format';
 import { sawDetailQuery } from '../../../features/saws/api/queries';
 import { useRetireSaw } from '../../../features/saws/api/mutations';
 import { SawDetailPanel } from '../../../features/saws/components/saw-detail-panel';
+import { SawFiguresPanel } from '../../../features/saws/components/saw-figures-panel';
 import { SawStatusBadge } from '../../../features/saws/components/saw-status-badge';
 import { siteDetailQuery } from '../../../features/sites/api/queries';
 import { siteKeys } from '../../../features/sites/api/keys';
@@ -129,6 +130,7 @@ export function SawPage() {
       {retire.isSuccess ? <Notice tone="info">{saw.assetTag} is retired.</Notice> : null}
 
       <SawDetailPanel saw={saw} unitSystem={site.unitSystem} timeZone={site.timeZone} />
+      <SawFiguresPanel saw={saw} unitSystem={site.unitSystem} />
     </div>
   );
 }
