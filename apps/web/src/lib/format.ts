@@ -1,5 +1,6 @@
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
-import { fpmToMPerMin, inToMm, mPerMinToFpm, mmToIn } from '@kerfline/domain/units/units';
+import { mPerMinToFpm, mmToIn } from '@kerfline/domain/units/units';
+import { bandSpeedFromDisplay, lengthFromDisplay } from '@kerfline/domain/units/display';
 
 /**
  * Display formatting at the edge. Values arrive in SI (millimetres, metres per minute, ISO timestamps in
@@ -44,8 +45,7 @@ export function lengthFromMm(mm: number, system: UnitSystem): number {
  * and it keeps 1.25 in from being stored as 31.750000000000004 mm.
  */
 export function lengthToMm(value: number, system: UnitSystem): number {
-  const mm = system === 'imperial' ? inToMm(value) : value;
-  return Math.round(mm * 10_000) / 10_000;
+  return Math.round(lengthFromDisplay(value, system) * 10_000) / 10_000;
 }
 
 /** Metres per minute to the site's speed unit (m/min or ft/min), unrounded. */
@@ -55,8 +55,7 @@ export function speedFromMPerMin(mPerMin: number, system: UnitSystem): number {
 
 /** A band speed typed in the site's unit, in metres per minute, rounded to 0.001 m/min. */
 export function speedToMPerMin(value: number, system: UnitSystem): number {
-  const mPerMin = system === 'imperial' ? fpmToMPerMin(value) : value;
-  return Math.round(mPerMin * 1000) / 1000;
+  return Math.round(bandSpeedFromDisplay(value, system) * 1000) / 1000;
 }
 
 /** Decimals worth showing for a length: small bands need more (0.035 in, 0.89 mm), long ones none. */
