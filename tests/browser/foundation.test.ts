@@ -23,6 +23,31 @@ describe('the foundation, as people use it', () => {
     await context.close();
   });
 
+  it('signs in and moves around by keyboard alone', async () => {
+    const { context, page } = await newPage(browser, DESKTOP);
+    await page.goto('/sign-in');
+    // Tab until the e-mail field has focus: every control is reachable without a mouse.
+    for (
+      let i = 0;
+      i < 10 && !(await page.getByLabel('E-mail').evaluate((el) => el === document.activeElement));
+      i += 1
+    ) {
+      await page.keyboard.press('Tab');
+    }
+    await page.keyboard.type(DEMO.manager);
+    await page.keyboard.press('Tab');
+    await page.keyboard.type(DEMO.password);
+    await page.keyboard.press('Enter');
+    await page.waitForURL('**/sites');
+    await page.getByRole('heading', { level: 1, name: 'Sites' }).waitFor();
+    // The first Tab on a signed-in page offers the skip link, which lands on the main content.
+    await page.keyboard.press('Tab');
+    expect(await page.evaluate(() => document.activeElement?.textContent)).toContain('Skip to content');
+    await page.keyboard.press('Enter');
+    expect(await page.evaluate(() => window.location.hash)).toBe('#main');
+    await context.close();
+  });
+
   it('lets a manager see every site, open one and open a saw', async () => {
     const { context, page } = await newPage(browser, DESKTOP);
     await signIn(page, DEMO.manager);
