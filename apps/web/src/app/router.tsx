@@ -49,6 +49,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: 'sites/new',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-new-page');
+                return { loader: page.siteNewPageLoader(queryClient), Component: page.SiteNewPage };
+              },
+            },
+            {
               path: 'sites/:siteId',
               lazy: async () => {
                 const page = await import('./routes/sites/site-page');
@@ -88,6 +95,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               lazy: async () => {
                 const page = await import('./routes/people/people-page');
                 return { loader: page.peoplePageLoader(queryClient), Component: page.PeoplePage };
+              },
+            },
+            {
+              path: 'people/new',
+              lazy: async () => {
+                const page = await import('./routes/people/person-new-page');
+                return { loader: page.personNewPageLoader(queryClient), Component: page.PersonNewPage };
               },
             },
             {

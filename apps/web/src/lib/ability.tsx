@@ -9,9 +9,17 @@ import type { Me } from '@kerfline/domain/auth/schema';
  * controls the user may not use; the server checks every request again.
  */
 export function AppAbilityProvider({ rules, children }: { rules: Me['rules']; children: ReactNode }) {
-  // meSchema keeps actions and subjects as plain strings; they are the domain's own names by construction.
-  const ability = useMemo(() => abilityFromRules(rules as AppRawRule[]), [rules]);
+  const ability = useMemo(() => abilityFromMeRules(rules), [rules]);
   return <CaslAbilityProvider value={ability}>{children}</CaslAbilityProvider>;
+}
+
+/**
+ * The ability for the rules `/api/me` sent, built as the provider builds it; loaders use it to skip
+ * fetching what a page will not show to this user.
+ */
+export function abilityFromMeRules(rules: Me['rules']): AppAbility {
+  // meSchema keeps actions and subjects as plain strings; they are the domain's own names by construction.
+  return abilityFromRules(rules as AppRawRule[]);
 }
 
 /** Wraps an ability built elsewhere (tests build one with `defineAbilityFor`). */
@@ -29,4 +37,12 @@ export function useAppAbility(): AppAbility {
  */
 export function newSawSubject(siteId: string) {
   return subject('Saw', { id: '', siteId });
+}
+
+/**
+ * The subject for a person who does not exist yet, for `can('create', …)`. Only administrators may add
+ * people; the server checks the new person's site again when they are saved.
+ */
+export function newUserSubject() {
+  return subject('User', { id: '', siteId: null });
 }

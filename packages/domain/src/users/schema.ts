@@ -76,6 +76,8 @@ export const userCreateSchema = z
     }
   });
 export type UserCreate = z.input<typeof userCreateSchema>;
+/** A new person's input once checked, defaults applied: what the API's service receives. */
+export type UserCreateParsed = z.output<typeof userCreateSchema>;
 
 export const userListQuerySchema = pageQuerySchema.extend({
   siteId: idSchema.optional(),

@@ -1,9 +1,8 @@
 import { ForbiddenError, subject } from '@casl/ability';
 import { Op, type Sequelize, type WhereOptions } from 'sequelize';
 import type { AppAbility } from '@kerfline/domain/authz/ability';
-import type { User as UserDto, UserListQuery, userCreateSchema } from '@kerfline/domain/users/schema';
+import type { User as UserDto, UserCreateParsed, UserListQuery } from '@kerfline/domain/users/schema';
 import type { Page } from '@kerfline/domain/common/schema';
-import type { z } from 'zod';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
 import { hashPassword } from '../../security/passwords.js';
@@ -43,11 +42,7 @@ export async function listUsers(ability: AppAbility, q: UserListQuery): Promise<
   };
 }
 
-export async function createUser(
-  sequelize: Sequelize,
-  ability: AppAbility,
-  input: z.output<typeof userCreateSchema>,
-): Promise<UserDto> {
+export async function createUser(sequelize: Sequelize, ability: AppAbility, input: UserCreateParsed): Promise<UserDto> {
   ForbiddenError.from(ability)
     .setMessage('You cannot add people')
     .throwUnlessCan('create', subject('User', { id: '', siteId: input.siteId }));

@@ -1,6 +1,8 @@
-import { useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { useLocation, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { useQuery, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
 import { ROLES, ROLE_LABELS, type Role } from '@kerfline/domain/users/schema';
+import { newUserSubject, useAppAbility } from '../../../lib/ability';
+import { LinkButton } from '../../../lib/ui/button';
 import { Card } from '../../../lib/ui/card';
 import { Field, inputClass } from '../../../lib/ui/field';
 import { Notice } from '../../../lib/ui/notice';
@@ -10,6 +12,7 @@ import { siteListQuery } from '../../../features/sites/api/queries';
 import { regionListQuery } from '../../../features/regions/api/queries';
 import { userListQuery, userListQueryFromSearch } from '../../../features/users/api/queries';
 import { UsersTable } from '../../../features/users/components/users-table';
+import type { AddedPerson } from './person-new-page';
 
 /** The API lists people for these roles only (admins everyone, site admins their own site). */
 const PEOPLE_ROLES: Role[] = ['admin', 'site_admin'];
@@ -66,19 +69,43 @@ function PeopleList() {
   );
 }
 
+/** The person the add form has just saved, from the navigation's state (absent on a plain visit). */
+function useAddedPerson(): AddedPerson | undefined {
+  const state: unknown = useLocation().state;
+  if (!state || typeof state !== 'object' || !('added' in state)) return undefined;
+  const added = state.added as Partial<AddedPerson> | null;
+  return typeof added?.name === 'string' && typeof added.email === 'string'
+    ? { name: added.name, email: added.email }
+    : undefined;
+}
+
 /** The people at the user's sites, for administrators and site admins. */
 export function PeoplePage() {
   const { data: me } = useSuspenseQuery(meQuery());
+  const ability = useAppAbility();
+  const added = useAddedPerson();
   const allowed = PEOPLE_ROLES.includes(me.user.role);
   return (
     <div className="space-y-6">
       <title>People · Kerfline</title>
-      <div>
-        <h1 className="text-3xl font-extrabold tracking-tight text-ink">People</h1>
-        <p className="mt-1 text-ink-muted">
-          {me.user.role === 'admin' ? 'Everyone with an account.' : 'Everyone with an account at your site.'}
-        </p>
+      <div className="flex flex-wrap items-end justify-between gap-4">
+        <div>
+          <h1 className="text-3xl font-extrabold tracking-tight text-ink">People</h1>
+          <p className="mt-1 text-ink-muted">
+            {me.user.role === 'admin' ? 'Everyone with an account.' : 'Everyone with an account at your site.'}
+          </p>
+        </div>
+        {ability.can('create', newUserSubject()) ? (
+          <LinkButton to="/people/new" variant="primary">
+            Add person
+          </LinkButton>
+        ) : null}
       </div>
+      {added ? (
+        <Notice tone="info" title={`${added.name} added`}>
+          They can sign in as {added.email} with the password you chose; pass it on to them yourself.
+        </Notice>
+      ) : null}
       {allowed ? (
         <PeopleList />
       ) : (
