@@ -101,6 +101,23 @@ describe('an administrator sets up a new plant', () => {
     await expect.poll(() => page.getByText('No saws are recorded at this site yet.').count()).toBe(1);
     expect(await page.getByRole('link', { name: /add saw/i }).count()).toBe(0);
     await shot(page, 'admin-new-technician-home-375');
+
+    // The new technician replaces the password the admin gave them, from their own account page.
+    await page.getByRole('button', { name: 'Menu' }).click();
+    await page.getByRole('link', { name: /Your account/ }).click();
+    await page.waitForURL('**/account');
+    await page.getByLabel('Current password').fill(techPassword);
+    await page.getByLabel('New password').fill('my-own-secret-2026');
+    await page.getByRole('button', { name: 'Change password' }).click();
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Password changed' }).count()).toBe(1);
+    await shot(page, 'technician-password-changed-375');
+    await page.getByRole('button', { name: 'Menu' }).click();
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL('**/sign-in');
+    await page.getByLabel('E-mail').fill(techEmail);
+    await page.getByLabel('Password').fill('my-own-secret-2026');
+    await page.getByRole('button', { name: /sign in/i }).click();
+    await page.waitForURL((url) => url.pathname === siteUrl);
     await context.close();
   });
 });

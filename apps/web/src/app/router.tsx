@@ -91,6 +91,10 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: 'account',
+              lazy: async () => ({ Component: (await import('./routes/auth/account-page')).AccountPage }),
+            },
+            {
               path: 'people',
               lazy: async () => {
                 const page = await import('./routes/people/people-page');

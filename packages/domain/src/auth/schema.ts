@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { userSchema } from '../users/schema.js';
+import { passwordSchema, userSchema } from '../users/schema.js';
 
 export const signInSchema = z.object({
   email: z.string().trim().toLowerCase().min(1, { message: 'enter your e-mail address' }),
@@ -23,3 +23,15 @@ export const meSchema = z.object({
   rules: z.array(rawRuleSchema),
 });
 export type Me = z.infer<typeof meSchema>;
+
+/** A signed-in person changing their own password: the current one proves it is them. */
+export const passwordChangeSchema = z
+  .object({
+    currentPassword: z.string().min(1, { message: 'enter your current password' }),
+    newPassword: passwordSchema,
+  })
+  .refine((v) => v.newPassword !== v.currentPassword, {
+    path: ['newPassword'],
+    message: 'must differ from the current password',
+  });
+export type PasswordChange = z.infer<typeof passwordChangeSchema>;

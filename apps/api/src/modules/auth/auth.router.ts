@@ -1,10 +1,10 @@
 import { Router, type RequestHandler } from 'express';
 import type passportModule from 'passport';
-import { signInSchema } from '@kerfline/domain/auth/schema';
-import { validate } from '../../http/validate.js';
+import { passwordChangeSchema, signInSchema } from '@kerfline/domain/auth/schema';
+import { parsed, validate } from '../../http/validate.js';
 import { requireSignIn, signedInOf } from '../../http/authenticate.js';
 import { AppError } from '../../errors.js';
-import { loadSignedIn, toMe } from './auth.service.js';
+import { changePassword, loadSignedIn, toMe } from './auth.service.js';
 
 export function authRouter(deps: {
   passport: InstanceType<typeof passportModule.Passport>;
@@ -44,6 +44,17 @@ export function authRouter(deps: {
   router.get('/me', requireSignIn, async (_req, res) => {
     res.json(await toMe(signedInOf(res)));
   });
+
+  router.post(
+    '/me/password',
+    requireSignIn,
+    deps.signInLimiter,
+    validate('body', passwordChangeSchema),
+    async (req, res) => {
+      await changePassword(signedInOf(res).user.id, req.sessionID, parsed(res, 'body', passwordChangeSchema));
+      res.status(204).end();
+    },
+  );
 
   return router;
 }

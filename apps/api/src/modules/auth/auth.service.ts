@@ -5,6 +5,7 @@ import { User, UserSite } from '../users/user.model.js';
 import { Site } from '../sites/site.model.js';
 import { toUserDto } from '../users/user-dto.js';
 import { hashPassword, verifyPassword } from '../../security/passwords.js';
+import { AppError } from '../../errors.js';
 
 // Verified against when the e-mail is unknown, so both failures take the same time.
 let dummyHash: Promise<string> | undefined;
@@ -74,4 +75,27 @@ export async function toMe(signedIn: SignedIn): Promise<Me> {
     siteIds,
     rules: signedIn.ability.rules as Me['rules'],
   };
+}
+
+/**
+ * Changes the signed-in user's password after checking the current one, and ends their other sessions so a
+ * password someone else learned stops working everywhere at once.
+ */
+export async function changePassword(
+  userId: string,
+  currentSessionId: string,
+  input: { currentPassword: string; newPassword: string },
+): Promise<void> {
+  const user = await User.findByPk(userId);
+  if (!user || !(await verifyPassword(user.passwordHash, input.currentPassword))) {
+    throw AppError.validation('The current password is not right', [{ path: 'currentPassword', message: 'not right' }]);
+  }
+  const passwordHash = await hashPassword(input.newPassword);
+  await User.sequelize!.transaction(async (transaction) => {
+    await user.update({ passwordHash }, { transaction });
+    await User.sequelize!.query(
+      `DELETE FROM sessions WHERE sid <> :sid AND (sess -> 'passport' ->> 'user') = :userId`,
+      { replacements: { sid: currentSessionId, userId }, transaction },
+    );
+  });
 }

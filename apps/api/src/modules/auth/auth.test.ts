@@ -177,3 +177,47 @@ describe('security headers', () => {
     expect(res.headers['x-request-id']).toMatch(/^[0-9a-f-]{36}$/);
   });
 });
+
+describe('changing one’s own password', () => {
+  it('needs the current password, then signs in with the new one and ends the other sessions', async () => {
+    const here = supertest.agent(ctx.app);
+    const elsewhere = supertest.agent(ctx.app);
+    await here.post('/api/auth/sign-in').send({ email: 'tech-a@test.example', password: PASSWORD }).expect(200);
+    await elsewhere.post('/api/auth/sign-in').send({ email: 'tech-a@test.example', password: PASSWORD }).expect(200);
+    const otherUser = supertest.agent(ctx.app);
+    await otherUser.post('/api/auth/sign-in').send({ email: 'admin@test.example', password: PASSWORD }).expect(200);
+
+    const wrong = await here
+      .post('/api/me/password')
+      .send({ currentPassword: 'not-it', newPassword: 'a-brand-new-password' });
+    expect(wrong.status).toBe(400);
+    expect(wrong.body.error.details).toEqual([{ path: 'currentPassword', message: 'not right' }]);
+
+    const same = await here.post('/api/me/password').send({ currentPassword: PASSWORD, newPassword: PASSWORD });
+    expect(same.status).toBe(400);
+    expect(same.body.error.details[0].path).toBe('newPassword');
+
+    await here
+      .post('/api/me/password')
+      .send({ currentPassword: PASSWORD, newPassword: 'a-brand-new-password' })
+      .expect(204);
+    await here.get('/api/me').expect(200);
+    expect((await elsewhere.get('/api/me')).status).toBe(401);
+    await otherUser.get('/api/me').expect(200);
+    const old = await supertest(ctx.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'tech-a@test.example', password: PASSWORD });
+    expect(old.status).toBe(401);
+    await supertest(ctx.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'tech-a@test.example', password: 'a-brand-new-password' })
+      .expect(200);
+  });
+
+  it('is only for someone signed in', async () => {
+    const res = await supertest(ctx.app)
+      .post('/api/me/password')
+      .send({ currentPassword: 'x', newPassword: 'a-brand-new-password' });
+    expect(res.status).toBe(401);
+  });
+});

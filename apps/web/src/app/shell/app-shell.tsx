@@ -49,10 +49,15 @@ export function AppShell() {
   };
 
   const userBlock = (
-    <div className="text-sm leading-tight">
-      <p className="font-bold text-ink">{me.user.name}</p>
-      <p className="text-ink-muted">{ROLE_LABELS[me.user.role]}</p>
-    </div>
+    <Link
+      to="/account"
+      onClick={closeMenu}
+      className="block min-h-11 rounded-sheet px-2 py-1 text-sm leading-tight hover:bg-paper-deep"
+      aria-label={`Your account: ${me.user.name}, ${ROLE_LABELS[me.user.role]}`}
+    >
+      <span className="block font-bold text-ink">{me.user.name}</span>
+      <span className="block text-ink-muted">{ROLE_LABELS[me.user.role]}</span>
+    </Link>
   );
 
   return (

@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { meSchema, type SignIn } from '@kerfline/domain/auth/schema';
+import { meSchema, type PasswordChange, type SignIn } from '@kerfline/domain/auth/schema';
 import { api } from '../../../lib/api-client';
 import { meKeys } from './keys';
 
@@ -19,5 +19,13 @@ export function useSignIn() {
 export function useSignOut() {
   return useMutation({
     mutationFn: () => api.post('/auth/sign-out', undefined, null),
+  });
+}
+
+/** Changes the signed-in person's own password; their other sessions end on the server. Nothing is cached. */
+export function useChangePassword() {
+  return useMutation({
+    mutationFn: (input: PasswordChange) => api.post('/me/password', input, null),
+    gcTime: 0,
   });
 }
