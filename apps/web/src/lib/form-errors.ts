@@ -1,4 +1,6 @@
-import type { FieldErrors, FieldValues, Path, UseFormSetError } from 'react-hook-form';
+import type { FieldErrors, FieldValues, Path, Resolver, ResolverOptions, UseFormSetError } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
 import { isApiError } from './api-client';
 
 export type PathMessage = { path: string; type: string; message: string };
@@ -41,4 +43,36 @@ export function showServerError<T extends FieldValues>(
     return;
   }
   setError('root.server', { type: 'server', message: error instanceof Error ? error.message : fallback });
+}
+
+/**
+ * A react-hook-form resolver that converts the form's values to the domain input and parses them with the
+ * domain schema — the very schema the server parses. Schema messages go beside the fields `fieldForPath`
+ * names and the rest above the form; `formChecks` adds the form's own words (a blank choice, say).
+ */
+export function domainSchemaResolver<TForm extends FieldValues, TSchema extends z.ZodType<FieldValues, FieldValues>>(
+  schema: TSchema,
+  toInput: (values: TForm) => z.input<TSchema>,
+  fieldForPath: (path: string, values: TForm) => Path<TForm> | undefined,
+  formChecks: (values: TForm) => Partial<Record<Path<TForm>, string>> = () => ({}),
+  /** Rewords a schema message for this form (limits in the site's units, say). */
+  reword: (message: string) => string = (message) => message,
+): Resolver<TForm, unknown, z.output<TSchema>> {
+  const schemaResolver = zodResolver(schema) as Resolver<FieldValues, unknown, FieldValues>;
+  return async (values, context, options) => {
+    const result = await schemaResolver(toInput(values), context, options as unknown as ResolverOptions<FieldValues>);
+    const errors: Record<string, { type: string; message: string }> = {};
+    const unplaced: string[] = [];
+    for (const { path, type, message } of messagesByPath(result.errors)) {
+      const field = fieldForPath(path, values);
+      if (field) errors[field] ??= { type, message: reword(message) };
+      else unplaced.push(`${path}: ${message}`);
+    }
+    for (const [field, message] of Object.entries(formChecks(values))) {
+      if (typeof message === 'string') errors[field] = { type: 'form', message };
+    }
+    if (unplaced.length > 0) errors.root = { type: 'schema', message: unplaced.join('; ') };
+    if (Object.keys(errors).length > 0) return { values: {}, errors: errors as FieldErrors<TForm> };
+    return { values: result.values as z.output<TSchema>, errors: {} };
+  };
 }

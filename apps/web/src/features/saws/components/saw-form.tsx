@@ -1,7 +1,7 @@
 import { useMemo, type ReactNode } from 'react';
-import { useForm, type FieldErrors, type Resolver, type ResolverOptions } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
-import { sawCreateSchema, type Saw, type SawCreate, type SawCreateParsed } from '@kerfline/domain/saws/schema';
+import { useForm, type Resolver } from 'react-hook-form';
+import { domainSchemaResolver } from '../../../lib/form-errors';
+import { sawCreateSchema, type Saw, type SawCreateParsed } from '@kerfline/domain/saws/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { mmToIn } from '@kerfline/domain/units/units';
 import { isApiError } from '../../../lib/api-client';
@@ -36,26 +36,13 @@ function inSiteUnits(message: string, system: UnitSystem): string {
  * server parses, while the user types in the site's units. Errors come back under the form's field names.
  */
 function sawFormResolver(siteId: string, system: UnitSystem): Resolver<SawFormValues, unknown, SawCreateParsed> {
-  const schemaResolver = zodResolver(sawCreateSchema);
-  return async (values, context, options) => {
-    const { input, fieldErrors } = sawInputFromForm(values, siteId, system);
-    const result = await schemaResolver(input, context, options as unknown as ResolverOptions<SawCreate>);
-    const errors: FieldErrors<SawFormValues> = {};
-    const unplaced: string[] = [];
-    for (const [path, error] of Object.entries(result.errors)) {
-      if (!error || typeof error.message !== 'string') continue;
-      const field = formFieldForPath(path);
-      if (field) errors[field] = { type: String(error.type), message: inSiteUnits(error.message, system) };
-      else unplaced.push(`${path}: ${error.message}`);
-    }
-    for (const [field, message] of Object.entries(fieldErrors) as [SawFormField, string][]) {
-      errors[field] = { type: 'format', message };
-    }
-    if (unplaced.length > 0)
-      errors.root = { type: 'schema', message: unplaced.join('; ') } as FieldErrors<SawFormValues>['root'];
-    if (Object.keys(errors).length > 0) return { values: {}, errors };
-    return { values: result.values as SawCreateParsed, errors: {} };
-  };
+  return domainSchemaResolver(
+    sawCreateSchema,
+    (values: SawFormValues) => sawInputFromForm(values, siteId, system).input,
+    (path) => formFieldForPath(path),
+    (values) => sawInputFromForm(values, siteId, system).fieldErrors,
+    (message) => inSiteUnits(message, system),
+  );
 }
 
 type SawFormProps = {

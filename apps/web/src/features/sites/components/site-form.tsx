@@ -1,9 +1,8 @@
 import { useEffect, useMemo, type ReactNode } from 'react';
-import { useForm, useWatch, type FieldErrors, type Resolver, type ResolverOptions } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
+import { useForm, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
 import { UNIT_SYSTEMS, siteCreateSchema, type SiteCreate, type UnitSystem } from '@kerfline/domain/sites/schema';
-import { messagesByPath, showServerError } from '../../../lib/form-errors';
+import { domainSchemaResolver, showServerError } from '../../../lib/form-errors';
 import { Button } from '../../../lib/ui/button';
 import { ChoiceGroup, ChoiceTile } from '../../../lib/ui/choice-group';
 import { Field, inputClass } from '../../../lib/ui/field';
@@ -62,36 +61,19 @@ export function siteInputFromForm(values: SiteFormValues): z.input<typeof siteCr
   };
 }
 
-/** zodResolver(siteCreateSchema) on the converted values: the very schema the server parses. */
-function siteFormResolver(): Resolver<SiteFormValues, unknown, SiteCreate> {
-  const schemaResolver = zodResolver(siteCreateSchema);
-  return async (values, context, options) => {
-    const result = await schemaResolver(
-      siteInputFromForm(values),
-      context,
-      options as unknown as ResolverOptions<z.input<typeof siteCreateSchema>>,
-    );
-    const errors: FieldErrors<SiteFormValues> = {};
-    const unplaced: string[] = [];
-    for (const { path, type, message } of messagesByPath(result.errors)) {
-      const field = fieldForPath(path, values);
-      if (field) errors[field] ??= { type, message };
-      else unplaced.push(`${path}: ${message}`);
-    }
-    for (const [field, message] of Object.entries(BLANK_CHOICES) as [SiteFormField, string][]) {
-      if (values[field] === '') errors[field] = { type: 'required', message };
-    }
-    if (values.currency === OTHER_CURRENCY && values.otherCurrency.trim() === '')
-      errors.otherCurrency = { type: 'required', message: 'Type the three-letter code, such as SGD' };
-    if (unplaced.length > 0)
-      errors.root = { type: 'schema', message: unplaced.join('; ') } as FieldErrors<SiteFormValues>['root'];
-    if (Object.keys(errors).length > 0) return { values: {}, errors };
-    return { values: result.values as SiteCreate, errors: {} };
-  };
+/** zodResolver(siteCreateSchema) on the converted values, with the form's own words for blank choices. */
+function siteFormChecks(values: SiteFormValues): Partial<Record<SiteFormField, string>> {
+  const found: Partial<Record<SiteFormField, string>> = {};
+  for (const [field, message] of Object.entries(BLANK_CHOICES) as [SiteFormField, string][]) {
+    if (values[field] === '') found[field] = message;
+  }
+  if (values.currency === OTHER_CURRENCY && values.otherCurrency.trim() === '')
+    found.otherCurrency = 'Type the three-letter code, such as SGD';
+  return found;
 }
 
 /** The resolver holds no state, so one serves every form. */
-const resolver = siteFormResolver();
+const resolver = domainSchemaResolver(siteCreateSchema, siteInputFromForm, fieldForPath, siteFormChecks);
 
 export type RegionOption = { id: string; name: string };
 

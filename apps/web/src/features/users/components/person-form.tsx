@@ -1,9 +1,8 @@
 import { useState, type ReactNode } from 'react';
-import { Controller, useForm, useWatch, type FieldErrors, type Resolver, type ResolverOptions } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
+import { Controller, useForm, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
 import { ROLES, ROLE_LABELS, userCreateSchema, type Role } from '@kerfline/domain/users/schema';
-import { messagesByPath, showServerError } from '../../../lib/form-errors';
+import { domainSchemaResolver, showServerError } from '../../../lib/form-errors';
 import { Button } from '../../../lib/ui/button';
 import { ChoiceGroup, ChoiceTile } from '../../../lib/ui/choice-group';
 import { Field, inputClass } from '../../../lib/ui/field';
@@ -70,38 +69,19 @@ export function personInputFromForm(values: PersonFormValues): z.input<typeof us
  * zodResolver(userCreateSchema) on the converted values: the very schema the server parses. A missing
  * assignment is asked for in the form's own words, alongside whatever else the schema found.
  */
-function personFormResolver(): Resolver<PersonFormValues, unknown, UserCreateParsed> {
-  const schemaResolver = zodResolver(userCreateSchema);
-  return async (values, context, options) => {
-    const result = await schemaResolver(
-      personInputFromForm(values),
-      context,
-      options as unknown as ResolverOptions<z.input<typeof userCreateSchema>>,
-    );
-    const errors: FieldErrors<PersonFormValues> = {};
-    const unplaced: string[] = [];
-    for (const { path, type, message } of messagesByPath(result.errors)) {
-      const field = fieldForPath(path);
-      if (field) errors[field] ??= { type, message };
-      else unplaced.push(`${path}: ${message}`);
-    }
-    const role = values.role;
-    if (role === '') errors.role = { type: 'required', message: 'Choose a role' };
-    if (AT_ONE_SITE.includes(role as Role) && !values.siteId)
-      errors.siteId = { type: 'required', message: 'Choose the site they work at' };
-    if (role === 'regional_lead' && !values.regionId)
-      errors.regionId = { type: 'required', message: 'Choose the region they look after' };
-    if (role === 'manager' && values.managerScope === 'chosen' && values.managedSiteIds.length === 0)
-      errors.managedSiteIds = { type: 'required', message: 'Tick at least one site, or choose every site' };
-    if (unplaced.length > 0)
-      errors.root = { type: 'schema', message: unplaced.join('; ') } as FieldErrors<PersonFormValues>['root'];
-    if (Object.keys(errors).length > 0) return { values: {}, errors };
-    return { values: result.values as UserCreateParsed, errors: {} };
-  };
+function personFormChecks(values: PersonFormValues): Partial<Record<PersonFormField, string>> {
+  const found: Partial<Record<PersonFormField, string>> = {};
+  const role = values.role;
+  if (role === '') found.role = 'Choose a role';
+  if (AT_ONE_SITE.includes(role as Role) && !values.siteId) found.siteId = 'Choose the site they work at';
+  if (role === 'regional_lead' && !values.regionId) found.regionId = 'Choose the region they look after';
+  if (role === 'manager' && values.managerScope === 'chosen' && values.managedSiteIds.length === 0)
+    found.managedSiteIds = 'Tick at least one site, or choose every site';
+  return found;
 }
 
 /** The resolver holds no state, so one serves every form. */
-const resolver = personFormResolver();
+const resolver = domainSchemaResolver(userCreateSchema, personInputFromForm, fieldForPath, personFormChecks);
 
 export type PlaceOption = { id: string; name: string };
 
