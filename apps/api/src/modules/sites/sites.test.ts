@@ -105,3 +105,26 @@ describe('changing sites', () => {
     ).toBe(403);
   });
 });
+
+describe('adding regions', () => {
+  it('lets an admin add a region, refuses a duplicate name and everyone below admin', async () => {
+    const admin = await as('admin@test.example');
+    const ok = await admin.post('/api/regions').send({ name: 'West' });
+    expect(ok.status).toBe(201);
+    expect(ok.body.name).toBe('West');
+    expect((await admin.post('/api/regions').send({ name: 'West' })).status).toBe(409);
+    expect((await admin.post('/api/regions').send({ name: '  ' })).status).toBe(400);
+    for (const email of [
+      'manager-all@test.example',
+      'lead-north@test.example',
+      'siteadmin-a@test.example',
+      'tech-a@test.example',
+    ]) {
+      expect((await (await as(email)).post('/api/regions').send({ name: `By ${email}` })).status, email).toBe(403);
+    }
+    // A region is seen only by those whose sites lie in it: the new, empty one by nobody but the admin.
+    expect(
+      (await (await as('manager-ac@test.example')).get('/api/regions')).body.items.map((r: { name: string }) => r.name),
+    ).not.toContain('West');
+  });
+});
