@@ -22,6 +22,7 @@ import { regionsRouter } from './modules/regions/regions.router.js';
 import { sitesRouter } from './modules/sites/sites.router.js';
 import { sawsRouter } from './modules/saws/saws.router.js';
 import { usersRouter } from './modules/users/users.router.js';
+import { auditRouter } from './modules/audit/audit.router.js';
 
 export type AppDeps = {
   sequelize: Sequelize;
@@ -119,6 +120,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(sitesRouter());
   api.use(sawsRouter());
   api.use(usersRouter(deps.sequelize));
+  api.use(auditRouter());
   api.use(notFoundHandler);
   app.use('/api', api);
 

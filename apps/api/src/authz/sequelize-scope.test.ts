@@ -10,6 +10,7 @@ import { Region } from '../modules/regions/region.model.js';
 import { Site } from '../modules/sites/site.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
 import { User } from '../modules/users/user.model.js';
+import { AuditEntry } from '../modules/audit/audit-entry.model.js';
 import { scopeWhere } from './sequelize-scope.js';
 
 let ctx: TestContext;
@@ -18,10 +19,22 @@ let world: World;
 beforeAll(async () => {
   ctx = startTestApp();
   world = await buildWorld(ctx.sequelize);
+  // Audit entries of two sites and one fleet-wide entry (site NULL), so the parity check sees every case.
+  await AuditEntry.bulkCreate(
+    [world.sites.A.id, world.sites.C.id, null].map((siteId, n) => ({
+      actorId: world.users.admin.id,
+      siteId,
+      entity: 'Saw',
+      entityId: String(n),
+      action: 'create' as const,
+      before: null,
+      after: { n },
+    })),
+  );
 });
 afterAll(async () => ctx.close());
 
-const MODELS: Record<SubjectName, ModelStatic<Model>> = { Region, Site, Saw, User };
+const MODELS: Record<SubjectName, ModelStatic<Model>> = { Region, Site, Saw, User, AuditEntry };
 
 /** For every row: does the scoped query return it exactly when `ability.can` says yes? */
 async function mismatches(ability: AppAbility, action: (typeof ACTIONS)[number], type: SubjectName): Promise<string[]> {
@@ -49,7 +62,7 @@ describe('CASL rules → SQL where', () => {
         }
       }
     }
-    expect(checks).toBe(Object.keys(world.users).length * ACTIONS.length * 4);
+    expect(checks).toBe(Object.keys(world.users).length * ACTIONS.length * Object.keys(MODELS).length);
   });
 
   it('agrees with CASL for random rule sets over nullable columns, including cannot rules', async () => {

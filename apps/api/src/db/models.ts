@@ -1,14 +1,29 @@
-import type { Sequelize } from 'sequelize';
+import type { Sequelize, Transaction } from 'sequelize';
 import { Region } from '../modules/regions/region.model.js';
 import { Site } from '../modules/sites/site.model.js';
 import { User, UserSite } from '../modules/users/user.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
+import { AuditEntry } from '../modules/audit/audit-entry.model.js';
 
 /** Binds every model to this Sequelize instance. Model names equal the CASL subject names. */
 export function initModels(sequelize: Sequelize): void {
+  bound = sequelize;
   Region.initModel(sequelize);
   Site.initModel(sequelize);
   User.initModel(sequelize);
   UserSite.initModel(sequelize);
   Saw.initModel(sequelize);
+  AuditEntry.initModel(sequelize);
+}
+
+let bound: Sequelize | undefined;
+
+/**
+ * Runs `work` in one database transaction on the Sequelize instance the models are bound to: every write that
+ * touches several rows (a record and its audit entry, an import) goes through here, so it commits whole or not
+ * at all.
+ */
+export function inTransaction<T>(work: (transaction: Transaction) => Promise<T>): Promise<T> {
+  if (!bound) throw new Error('initModels must run before a transaction');
+  return bound.transaction(work);
 }

@@ -2,6 +2,7 @@ import type { NextFunction, Request, Response } from 'express';
 import type { AppAbility, Principal } from '@kerfline/domain/authz/ability';
 import { AppError } from '../errors.js';
 import { loadSignedIn, type SignedIn } from '../modules/auth/auth.service.js';
+import type { Actor } from '../audit/write-audit.js';
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
@@ -34,4 +35,10 @@ export function abilityOf(res: Response): AppAbility {
 
 export function principalOf(res: Response): Principal {
   return signedInOf(res).principal;
+}
+
+/** The caller as services see them: what they may do, and who they are for the audit trail. */
+export function actorOf(res: Response): Actor {
+  const signedIn = signedInOf(res);
+  return { ability: signedIn.ability, userId: signedIn.user.id };
 }

@@ -22,12 +22,13 @@ const principals: Record<string, Principal> = {
 const saw = (siteId: string) => subject('Saw', { id: 's', siteId });
 const site = (id: string, regionId: string) => subject('Site', { id, regionId });
 const user = (id: string, siteId: string | null) => subject('User', { id, siteId });
+const audit = (siteId: string | null) => subject('AuditEntry', { id: 'e', siteId });
 
 // The permission matrix: [role, action, object, expected].
 const matrix: [
   string,
   Parameters<ReturnType<typeof defineAbilityFor>['can']>[0],
-  ReturnType<typeof saw> | ReturnType<typeof site> | ReturnType<typeof user>,
+  ReturnType<typeof saw> | ReturnType<typeof site> | ReturnType<typeof user> | ReturnType<typeof audit>,
   boolean,
 ][] = [
   ['admin', 'create', saw(C), true],
@@ -63,6 +64,15 @@ const matrix: [
   ['techA', 'read', site(B, NORTH), false],
   ['techA', 'read', user(OTHER, A), false],
   ['techA', 'read', user(ME, A), true],
+  // The audit trail: admins everywhere, a site admin their own site's, nobody else.
+  ['admin', 'read', audit(null), true],
+  ['siteAdminA', 'read', audit(A), true],
+  ['siteAdminA', 'read', audit(B), false],
+  ['siteAdminA', 'read', audit(null), false],
+  ['siteAdminA', 'create', audit(A), false],
+  ['managerAll', 'read', audit(A), false],
+  ['leadNorth', 'read', audit(A), false],
+  ['techA', 'read', audit(A), false],
 ];
 
 describe('who can do what', () => {
@@ -99,6 +109,7 @@ describe('rules stay translatable to SQL', () => {
     Site: new Set(['id', 'regionId']),
     Saw: new Set(['id', 'siteId']),
     User: new Set(['id', 'siteId']),
+    AuditEntry: new Set(['id', 'siteId']),
   };
 
   it('uses only $eq, $ne, $in and $nin on the subject’s own columns, for every role', () => {

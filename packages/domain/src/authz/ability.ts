@@ -11,7 +11,7 @@ export const ACTIONS = ['manage', 'create', 'read', 'update', 'delete', 'export'
 export type Action = (typeof ACTIONS)[number];
 
 /** Subject names equal the API's model names, so Sequelize instances and plain rows are typed alike. */
-export const SUBJECTS = ['Region', 'Site', 'Saw', 'User'] as const;
+export const SUBJECTS = ['Region', 'Site', 'Saw', 'User', 'AuditEntry'] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
 /** The columns rules may test, per subject (CASL types each rule's conditions from these). */
@@ -19,6 +19,7 @@ type RegionFields = { id: string };
 type SiteFields = { id: string; regionId: string };
 type SawFields = { id: string; siteId: string };
 type UserFields = { id: string; siteId: string | null };
+type AuditEntryFields = { id: string; siteId: string | null };
 
 type Subjects =
   | 'all'
@@ -26,7 +27,8 @@ type Subjects =
   | (RegionFields & ForcedSubject<'Region'>)
   | (SiteFields & ForcedSubject<'Site'>)
   | (SawFields & ForcedSubject<'Saw'>)
-  | (UserFields & ForcedSubject<'User'>);
+  | (UserFields & ForcedSubject<'User'>)
+  | (AuditEntryFields & ForcedSubject<'AuditEntry'>);
 
 export type AppAbility = MongoAbility<[Action, Subjects]>;
 export type AppRawRule = RawRuleOf<AppAbility>;
@@ -86,6 +88,8 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can(['read', 'update'], 'Site', { id: p.siteId });
         can(['create', 'read', 'update'], 'Saw', { siteId: p.siteId });
         can('read', 'User', { siteId: p.siteId });
+        // The history of their own site's records; fleet-wide records (siteId NULL) stay with admins.
+        can('read', 'AuditEntry', { siteId: p.siteId });
       }
       break;
     case 'technician':

@@ -1,5 +1,6 @@
 import type { MigrationContext } from '../umzug.js';
 import * as foundation from './20261201-0001-foundation.js';
+import * as audit from './20261202-0001-audit.js';
 
 type Migration = {
   name: string;
@@ -8,4 +9,7 @@ type Migration = {
 };
 
 /** Append-only, in order. A migration's name never changes once it has run anywhere. */
-export const migrations: Migration[] = [{ name: '20261201-0001-foundation', ...foundation }];
+export const migrations: Migration[] = [
+  { name: '20261201-0001-foundation', ...foundation },
+  { name: '20261202-0001-audit', ...audit },
+];

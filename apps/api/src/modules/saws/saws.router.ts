@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { sawCreateSchema, sawListQuerySchema, sawUpdateSchema } from '@kerfline/domain/saws/schema';
 import { idSchema } from '@kerfline/domain/common/schema';
-import { abilityOf } from '../../http/authenticate.js';
+import { abilityOf, actorOf } from '../../http/authenticate.js';
 import { parsed, validate } from '../../http/validate.js';
 import { createSaw, getSaw, listSaws, retireSaw, updateSaw } from './saws.service.js';
 
@@ -17,13 +17,13 @@ export function sawsRouter(): Router {
     res.json(await getSaw(abilityOf(res), parsed(res, 'params', params).id));
   });
   router.post('/saws', validate('body', sawCreateSchema), async (_req, res) => {
-    res.status(201).json(await createSaw(abilityOf(res), parsed(res, 'body', sawCreateSchema)));
+    res.status(201).json(await createSaw(actorOf(res), parsed(res, 'body', sawCreateSchema)));
   });
   router.patch('/saws/:id', validate('params', params), validate('body', sawUpdateSchema), async (_req, res) => {
-    res.json(await updateSaw(abilityOf(res), parsed(res, 'params', params).id, parsed(res, 'body', sawUpdateSchema)));
+    res.json(await updateSaw(actorOf(res), parsed(res, 'params', params).id, parsed(res, 'body', sawUpdateSchema)));
   });
   router.post('/saws/:id/retire', validate('params', params), async (_req, res) => {
-    res.json(await retireSaw(abilityOf(res), parsed(res, 'params', params).id));
+    res.json(await retireSaw(actorOf(res), parsed(res, 'params', params).id));
   });
   return router;
 }

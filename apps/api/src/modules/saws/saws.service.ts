@@ -13,6 +13,8 @@ import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
 import { Saw } from './saw.model.js';
 import { Site } from '../sites/site.model.js';
+import { writeAudit, type Actor } from '../../audit/write-audit.js';
+import { inTransaction } from '../../db/models.js';
 
 export function toSawDto(saw: Saw): SawDto {
   const s = saw.get({ plain: true });
@@ -84,16 +86,28 @@ export async function getSaw(ability: AppAbility, id: string): Promise<SawDto> {
   return toSawDto(await findReadable(ability, id));
 }
 
-export async function createSaw(ability: AppAbility, input: SawCreateParsed): Promise<SawDto> {
+/**
+ * A copy of the saw's stored fields for the audit trail. A copy, because `get({ plain: true })` hands back the
+ * instance's own value object, which the update would then change under us.
+ */
+const auditValues = (saw: Saw): Record<string, unknown> => ({ ...saw.get({ plain: true }) });
+
+export async function createSaw({ ability, userId }: Actor, input: SawCreateParsed): Promise<SawDto> {
   await assertSiteReadable(ability, input.siteId);
   ForbiddenError.from(ability)
     .setMessage('You cannot add saws at this site')
     .throwUnlessCan('create', subject('Saw', { id: '', ...input }));
-  const saw = await Saw.create({ ...input, retiredAt: null });
+  const saw = await inTransaction(async (transaction) => {
+    const created = await Saw.create({ ...input, retiredAt: null }, { transaction });
+    await writeAudit(transaction, userId, [
+      { siteId: created.siteId, entity: 'Saw', entityId: created.id, action: 'create', after: auditValues(created) },
+    ]);
+    return created;
+  });
   return toSawDto(saw);
 }
 
-export async function updateSaw(ability: AppAbility, id: string, patch: SawUpdate): Promise<SawDto> {
+export async function updateSaw({ ability, userId }: Actor, id: string, patch: SawUpdate): Promise<SawDto> {
   const saw = await findReadable(ability, id);
   const current = saw.get({ plain: true });
   const forbid = ForbiddenError.from(ability).setMessage('You cannot change this saw');
@@ -108,16 +122,28 @@ export async function updateSaw(ability: AppAbility, id: string, patch: SawUpdat
   // Check the record as it will be, so nobody can move a saw into a site they do not manage.
   forbid.throwUnlessCan('update', subject('Saw', merged));
 
-  await saw.update(patch);
+  await inTransaction(async (transaction) => {
+    const before = auditValues(saw);
+    await saw.update(patch, { transaction });
+    await writeAudit(transaction, userId, [
+      { siteId: saw.siteId, entity: 'Saw', entityId: saw.id, action: 'update', before, after: auditValues(saw) },
+    ]);
+  });
   return toSawDto(saw);
 }
 
-export async function retireSaw(ability: AppAbility, id: string): Promise<SawDto> {
+export async function retireSaw({ ability, userId }: Actor, id: string): Promise<SawDto> {
   const saw = await findReadable(ability, id);
   ForbiddenError.from(ability)
     .setMessage('You cannot retire this saw')
     .throwUnlessCan('update', subject('Saw', saw.get({ plain: true })));
   if (saw.status === 'retired') throw new AppError('CONFLICT', 'This saw is already retired');
-  await saw.update({ status: 'retired', retiredAt: new Date() });
+  await inTransaction(async (transaction) => {
+    const before = auditValues(saw);
+    await saw.update({ status: 'retired', retiredAt: new Date() }, { transaction });
+    await writeAudit(transaction, userId, [
+      { siteId: saw.siteId, entity: 'Saw', entityId: saw.id, action: 'retire', before, after: auditValues(saw) },
+    ]);
+  });
   return toSawDto(saw);
 }
