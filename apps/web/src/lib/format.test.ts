@@ -1,7 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import {
+  formatArea,
   formatDateTime,
+  formatDual,
+  formatForce,
   formatLength,
+  formatMoneyPerArea,
+  formatSmallLength,
+  formatStress,
   formatNumber,
   formatSpeed,
   formatSpeedRange,
@@ -46,6 +52,22 @@ describe('display', () => {
     expect(plain(formatSpeed(121.92, 'imperial'))).toBe('400 ft/min');
     expect(plain(formatSpeedRange(20, 120, 'metric'))).toBe('20–120 m/min');
     expect(plain(formatSpeedRange(24.384, 121.92, 'imperial'))).toBe('80–400 ft/min');
+  });
+
+  it('shows every other quantity in the site’s own unit, by the domain’s policy', () => {
+    // Exact factors: 1 lbf = 4.4482216152605 N, 1 psi = 6894.757… Pa, 1 in² = 645.16 mm² (NIST SP 811 B.8).
+    expect(plain(formatSmallLength(1.0668, 'imperial'))).toBe('0.042 in');
+    expect(plain(formatSmallLength(1.0668, 'metric'))).toBe('1.07 mm');
+    expect(plain(formatForce(35.585772922084, 'imperial'))).toBe('8 lbf');
+    expect(plain(formatStress(206.84e6, 'imperial'))).toBe('30,000 psi');
+    expect(plain(formatArea(645.16 * 12.57, 'imperial'))).toBe('12.57 in²');
+    expect(plain(formatMoneyPerArea(0.0019, 'USD', 'imperial'))).toBe('$0.012/in²');
+  });
+
+  it('puts the imperial figure first on an imperial site, the metric one second', () => {
+    expect(plain(formatDual('smallLength', 1.0922, 'imperial'))).toBe('0.043 in (1.09 mm)');
+    expect(plain(formatDual('smallLength', 1.0922, 'metric'))).toBe('1.09 mm (0.043 in)');
+    expect(formatDual('force', 35.585772922084, 'imperial')).toBe('8\u00a0lbf (35.6\u00a0N)');
   });
 
   it('shows a moment as the clock at the site, with the zone when asked', () => {

@@ -1,11 +1,27 @@
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { mPerMinToFpm, mmToIn } from '@kerfline/domain/units/units';
-import { bandSpeedFromDisplay, lengthFromDisplay } from '@kerfline/domain/units/display';
+import {
+  areaToDisplay,
+  bandSpeedFromDisplay,
+  bandSpeedToDisplay,
+  forceToDisplay,
+  lengthFromDisplay,
+  lengthToDisplay,
+  moneyPerAreaToDisplay,
+  OTHER_SYSTEM,
+  quantityNumber,
+  quantityToDisplay,
+  smallLengthToDisplay,
+  stressToDisplay,
+  type DisplayQuantityKind,
+  type DisplayValue,
+} from '@kerfline/domain/units/display';
 
 /**
  * Display formatting at the edge. Values arrive in SI (millimetres, metres per minute, ISO timestamps in
- * UTC) and leave as text in the site's unit system and time zone. One locale everywhere, so the decimal
- * point shown is the one the forms accept.
+ * UTC) and leave as text in the site's unit system and time zone. Quantities follow the domain's one
+ * formatting policy (`@kerfline/domain/units/display`); this file only joins figure and unit with a
+ * non-breaking space. One locale everywhere, so the decimal point shown is the one the forms accept.
  */
 export const APP_LOCALE = 'en-US';
 
@@ -58,38 +74,70 @@ export function speedToMPerMin(value: number, system: UnitSystem): number {
   return Math.round(bandSpeedFromDisplay(value, system) * 1000) / 1000;
 }
 
-/** Decimals worth showing for a length: small bands need more (0.035 in, 0.89 mm), long ones none. */
-function lengthDigits(value: number, system: UnitSystem): number {
-  const size = Math.abs(value);
-  if (system === 'imperial') return size < 10 ? 3 : size < 100 ? 2 : 1;
-  return size < 10 ? 2 : size < 1000 ? 1 : 0;
+/** A policy figure with its unit joined by a non-breaking space, so the two never part at a line end. */
+function withUnit(shown: DisplayValue): string {
+  return shown.text.replace(' ', NBSP);
+}
+
+/** Any quantity (in SI: mm, m/min, mm², N, Pa) in the site's unit, by the domain's one formatting policy. */
+export function formatQuantity(kind: DisplayQuantityKind, si: number, system: UnitSystem): string {
+  return withUnit(quantityToDisplay(kind, si, system));
 }
 
 /** Just the figure of a length in the site's unit, e.g. `1.25` for 31.75 mm on an imperial site. */
 export function formatLengthValue(mm: number, system: UnitSystem): string {
-  const value = lengthFromMm(mm, system);
-  return formatNumber(value, lengthDigits(value, system));
+  return quantityNumber('length', mm, system);
 }
 
 /** A length with its unit, e.g. `31.8 mm` or `1.25 in`. */
 export function formatLength(mm: number, system: UnitSystem): string {
-  return `${formatLengthValue(mm, system)}${NBSP}${lengthUnit(system)}`;
+  return withUnit(lengthToDisplay(mm, system));
 }
 
-/** Just the figure of a band speed in the site's unit: whole numbers from 100 up, one decimal below. */
+/** A band gauge, clearance or wear in thousandths of an inch or hundredths of a millimetre: `0.042 in`, `1.07 mm`. */
+export function formatSmallLength(mm: number, system: UnitSystem): string {
+  return withUnit(smallLengthToDisplay(mm, system));
+}
+
+/** Just the figure of a band speed in the site's unit, in whole ft/min or m/min. */
 export function formatSpeedValue(mPerMin: number, system: UnitSystem): string {
-  const value = speedFromMPerMin(mPerMin, system);
-  return formatNumber(value, Math.abs(value) < 100 ? 1 : 0);
+  return quantityNumber('bandSpeed', mPerMin, system);
 }
 
 /** A band speed with its unit, e.g. `75 m/min` or `246 ft/min`. */
 export function formatSpeed(mPerMin: number, system: UnitSystem): string {
-  return `${formatSpeedValue(mPerMin, system)}${NBSP}${speedUnit(system)}`;
+  return withUnit(bandSpeedToDisplay(mPerMin, system));
 }
 
 /** A band speed range with one unit, e.g. `20–120 m/min`. */
 export function formatSpeedRange(minMPerMin: number, maxMPerMin: number, system: UnitSystem): string {
   return `${formatSpeedValue(minMPerMin, system)}–${formatSpeedValue(maxMPerMin, system)}${NBSP}${speedUnit(system)}`;
+}
+
+/** A force, e.g. `8 lbf` or `35.6 N`. */
+export function formatForce(newtons: number, system: UnitSystem): string {
+  return withUnit(forceToDisplay(newtons, system));
+}
+
+/** A stress, e.g. `30,000 psi` or `206.8 MPa`. */
+export function formatStress(pascals: number, system: UnitSystem): string {
+  return withUnit(stressToDisplay(pascals, system));
+}
+
+/** An area, e.g. `12.57 in²` or `81.1 cm²`. */
+export function formatArea(mm2: number, system: UnitSystem): string {
+  return withUnit(areaToDisplay(mm2, system));
+}
+
+/** A figure in the site's unit first and the other system's second: `0.043 in (1.09 mm)`. */
+export function formatDual(kind: DisplayQuantityKind, si: number, system: UnitSystem): string {
+  // A plain space before the bracket: on a narrow screen the second figure may wrap to the next line.
+  return `${formatQuantity(kind, si, system)} (${formatQuantity(kind, si, OTHER_SYSTEM[system])})`;
+}
+
+/** Cost per area cut (minor units of `currency` per mm²), e.g. `$0.012/in²` or `€0.0019/cm²`. */
+export function formatMoneyPerArea(minorUnitsPerMm2: number, currency: string, system: UnitSystem): string {
+  return moneyPerAreaToDisplay(minorUnitsPerMm2, currency, system).text;
 }
 
 /**

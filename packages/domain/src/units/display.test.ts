@@ -6,6 +6,13 @@ import {
   areaRateFromDisplay,
   areaRateToDisplay,
   areaToDisplay,
+  DISPLAY_QUANTITIES,
+  dualText,
+  moneyPerAreaToDisplay,
+  quantityFromDisplay,
+  quantityNumber,
+  quantityToDisplay,
+  smallLengthToDisplay,
   bandSpeedFromDisplay,
   bandSpeedToDisplay,
   forceFromDisplay,
@@ -37,9 +44,9 @@ describe('showing quantities in a unit system', () => {
 
   it('shows areas in in² or cm² and cutting rates per minute', () => {
     // 645.16 mm² is 1 in² exactly and 6.4516 cm² (NIST SP 811 B.8, square inch).
-    expect(areaToDisplay(645.16, 'imperial').text).toBe('1.00 in²');
-    expect(areaToDisplay(645.16, 'metric').text).toBe('6.5 cm²');
-    expect(areaRateToDisplay(6451.6, 'imperial').text).toBe('10.00 in²/min');
+    expect(areaToDisplay(645.16, 'imperial').text).toBe('1 in²');
+    expect(areaToDisplay(645.16, 'metric').text).toBe('6.45 cm²');
+    expect(areaRateToDisplay(6451.6, 'imperial').text).toBe('10 in²/min');
     expect(areaRateToDisplay(6451.6, 'metric').text).toBe('64.5 cm²/min');
   });
 
@@ -52,12 +59,14 @@ describe('showing quantities in a unit system', () => {
 
   it('takes decimals and locale from the options', () => {
     expect(lengthToDisplay(4000, 'metric', { decimals: 0 }).text).toBe('4,000 mm');
-    expect(lengthToDisplay(1234.5, 'metric', { locale: 'de-DE' }).text).toBe('1.234,5 mm');
+    expect(lengthToDisplay(123.45, 'metric', { locale: 'de-DE' }).text).toBe('123,5 mm');
+    expect(lengthToDisplay(1234.5, 'metric', { locale: 'de-DE', decimals: 1 }).text).toBe('1.234,5 mm');
   });
 
   it('never prints a negative zero', () => {
-    expect(lengthToDisplay(-0.01, 'metric').text).toBe('0.0 mm');
-    expect(lengthToDisplay(-0.01, 'metric').value).toBe(0);
+    expect(lengthToDisplay(-0.01, 'metric', { decimals: 1 }).text).toBe('0.0 mm');
+    expect(lengthToDisplay(-0.01, 'metric', { decimals: 1 }).value).toBe(0);
+    expect(lengthToDisplay(-0.00001, 'metric').text).toBe('0 mm');
     expect(formatNumber(-0.0001, 2)).toBe('0.00');
   });
 
@@ -68,6 +77,77 @@ describe('showing quantities in a unit system', () => {
         expect(units[system].decimals).toBeGreaterThanOrEqual(0);
       }
     }
+  });
+});
+
+describe('the formatting policy', () => {
+  // Conversions by the exact factors of NIST SP 811 (2008), Appendix B.8; the decimals are the policy's own.
+  it('shows lengths with the decimals their size deserves, without trailing zeros', () => {
+    const inches = (value: number) => lengthToDisplay(value * 25.4, 'imperial').text;
+    expect(inches(0.042)).toBe('0.042 in');
+    expect(inches(1.25)).toBe('1.25 in');
+    expect(inches(1.5)).toBe('1.5 in');
+    expect(inches(52.874)).toBe('52.87 in');
+    expect(inches(162.01)).toBe('162 in');
+    expect(inches(1234.56)).toBe('1,235 in');
+    expect(lengthToDisplay(0.9, 'metric').text).toBe('0.9 mm');
+    expect(lengthToDisplay(455, 'metric').text).toBe('455 mm');
+    expect(lengthToDisplay(3505, 'metric').text).toBe('3,505 mm');
+  });
+
+  it('shows gauges and clearances in thousandths of an inch or hundredths of a millimetre, zeros kept', () => {
+    expect(smallLengthToDisplay(0.05 * 25.4, 'imperial').text).toBe('0.050 in');
+    expect(smallLengthToDisplay(1.0668, 'imperial').text).toBe('0.042 in');
+    expect(smallLengthToDisplay(1.0668, 'metric').text).toBe('1.07 mm');
+    expect(smallLengthToDisplay(1.1, 'metric').text).toBe('1.10 mm');
+    // A tolerance of 0.001 in (0.0254 mm) keeps two significant digits instead of printing 0.
+    expect(smallLengthToDisplay(0.0254, 'imperial').text).toBe('0.001 in');
+    expect(smallLengthToDisplay(0.0254, 'metric').text).toBe('0.025 mm');
+    expect(lengthToDisplay(0.0254, 'metric').text).toBe('0.025 mm');
+  });
+
+  it('shows speeds whole, forces to a tenth below 100, stresses in whole psi or tenths of a MPa', () => {
+    expect(bandSpeedToDisplay(24.384, 'imperial').text).toBe('80 ft/min');
+    expect(bandSpeedToDisplay(24.384, 'metric').text).toBe('24 m/min');
+    expect(forceToDisplay(35.585772922084, 'imperial').text).toBe('8 lbf');
+    expect(forceToDisplay(35.585772922084, 'metric').text).toBe('35.6 N');
+    expect(forceToDisplay(4448.2216152605, 'metric').text).toBe('4,448 N');
+    expect(stressToDisplay(206.84e6, 'imperial').text).toBe('30,000 psi');
+    expect(stressToDisplay(200e6, 'metric').text).toBe('200 MPa');
+  });
+
+  it('offers every quantity through one pair of functions', () => {
+    for (const kind of DISPLAY_QUANTITIES) {
+      for (const system of systems) {
+        const shown = quantityToDisplay(kind, 1234.5, system);
+        expect(shown.unit).toBe(DISPLAY_UNITS[kind][system].unit);
+        expect(
+          quantityFromDisplay(kind, quantityToDisplay(kind, 1234.5, system, { decimals: 9 }).value, system),
+        ).toBeCloseTo(1234.5, 3);
+        expect(`${quantityNumber(kind, 1234.5, system)} ${shown.unit}`).toBe(shown.text);
+      }
+    }
+  });
+
+  it('puts the site’s own unit first and the other system’s second', () => {
+    expect(dualText('smallLength', 1.0922, 'imperial')).toBe('0.043 in (1.09 mm)');
+    expect(dualText('smallLength', 1.0922, 'metric')).toBe('1.09 mm (0.043 in)');
+    expect(dualText('bandSpeed', 121.92, 'imperial')).toBe('400 ft/min (122 m/min)');
+    expect(dualText('stress', 206.84e6, 'imperial')).toBe('30,000 psi (206.8 MPa)');
+    expect(dualText('force', 35.585772922084, 'imperial')).toBe('8 lbf (35.6 N)');
+  });
+
+  it('shows money per area cut per square inch or square centimetre, with two significant digits at least', () => {
+    // 1 in² = 645.16 mm² and 1 cm² = 100 mm² exactly (NIST SP 811 B.8); worked by hand.
+    // 0.0019 cents/mm² = $0.000019/mm² → $0.012258/in² → "$0.012/in²".
+    expect(moneyPerAreaToDisplay(0.0019, 'USD', 'imperial').text).toBe('$0.012/in²');
+    // 0.0019 cents/mm² → €0.0019/cm².
+    expect(moneyPerAreaToDisplay(0.0019, 'EUR', 'metric').text).toBe('€0.0019/cm²');
+    // 0.2 cents/mm² → $1.29032/in² → "$1.29/in²".
+    expect(moneyPerAreaToDisplay(0.2, 'USD', 'imperial').text).toBe('$1.29/in²');
+    // Yen have no minor unit: 0.01 yen/mm² → ¥6.4516/in² → "¥6/in²"; 0.001 yen/mm² → ¥0.645/in² → "¥0.65/in²".
+    expect(moneyPerAreaToDisplay(0.01, 'JPY', 'imperial').text).toBe('¥6/in²');
+    expect(moneyPerAreaToDisplay(0.001, 'JPY', 'imperial').text).toBe('¥0.65/in²');
   });
 });
 

@@ -54,8 +54,8 @@ describe('BreakInCalculator', () => {
     await user.click(screen.getByRole('radio', { name: 'By area cut' }));
     const plan = planBreakIn({ mode: 'area' }, null);
     // The defaults are 50 in² at the starting feed and 25 in² a step: 100 in² in all (common practice, no source).
-    expect(areaToDisplay(plan.totalAreaMm2!, 'imperial').text).toBe('100.00 in²');
-    expect(result()).toHaveTextContent('Area cut in break-in100.00in²');
+    expect(areaToDisplay(plan.totalAreaMm2!, 'imperial').text).toBe('100 in²');
+    expect(result()).toHaveTextContent('Area cut in break-in100in²');
     expect(result()).toHaveTextContent('Time to normal feed—');
   });
 
@@ -64,7 +64,7 @@ describe('BreakInCalculator', () => {
     const rate = screen.getByRole('textbox', { name: /Normal cutting rate/ });
     await user.type(rate, '-5');
     await user.tab();
-    expect(rate).toHaveAccessibleDescription(/Normal cutting rate must be greater than 0 mm²\/min/);
+    expect(rate).toHaveAccessibleDescription(/Normal cutting rate must be greater than 0\scm²\/min/);
     expect(result()).not.toHaveTextContent(/NaN/);
   });
 });

@@ -72,7 +72,7 @@ describe('CheckTargetsCalculator', () => {
     const { user } = renderCalculator('metric');
     await user.type(field(/Band thickness/), '9');
     await user.tab();
-    expect(field(/Band thickness/)).toHaveAccessibleDescription(/Band thickness must be at most 5 mm/);
+    expect(field(/Band thickness/)).toHaveAccessibleDescription(/Band thickness must be at most 5\smm/);
     expect(check('Guide bearing clearance')).toHaveTextContent('Correct the figure with a message to get this target.');
   });
 });

@@ -36,27 +36,44 @@ describe('entries typed in one unit system and shown in the other', () => {
 
 describe('figures and messages in the user’s units', () => {
   it('prints a figure with its unit on one line, and a range with one unit', () => {
-    expect(figure('length', 4115.42, 'metric')).toEqual({ number: '4,115.4', unit: 'mm', text: '4,115.4\u00a0mm' });
+    expect(figure('length', 4115.42, 'metric')).toEqual({ number: '4,115', unit: 'mm', text: '4,115\u00a0mm' });
+    expect(figure('length', 4115.42, 'metric', 1).text).toBe('4,115.4\u00a0mm');
     // 50–90 m/min ÷ 0.3048 = 164.04–295.28 ft/min, shown whole.
     expect(rangeFigure('bandSpeed', 50, 90, 'imperial').text).toBe('164–295\u00a0ft/min');
-    expect(rangeFigure('length', 50, 50, 'metric').text).toBe('50.0\u00a0mm');
+    expect(rangeFigure('length', 50, 50, 'metric').text).toBe('50\u00a0mm');
   });
 
-  it('adds the user’s unit beside the SI limits a schema states', () => {
-    // 3000 mm ÷ 25.4 = 118.11 in.
+  it('puts the user’s unit first in a message, with the SI figure the domain wrote second', () => {
+    // 3000 mm ÷ 25.4 = 118.11 in, shown to 0.1 in above 100 in.
     expect(messageInUnits('Diameter must be at most 3000 mm', 'imperial')).toBe(
-      'Diameter must be at most 3,000 mm (118.11\u00a0in)',
+      'Diameter must be at most 118.1\u00a0in (3,000\u00a0mm)',
     );
-    expect(messageInUnits('Diameter must be at most 3000 mm', 'metric')).toBe('Diameter must be at most 3,000 mm');
-    // 10,000,000 mm²/min = 100,000 cm²/min: the metric field is in cm², so the figure is repeated in it.
+    expect(messageInUnits('Diameter must be at most 3000 mm', 'metric')).toBe('Diameter must be at most 3,000\u00a0mm');
+    // 10,000,000 mm²/min = 100,000 cm²/min: the metric field is in cm², so the figure is given in it.
     expect(messageInUnits('Normal cutting rate must be at most 10 000 000 mm²/min', 'metric')).toBe(
-      'Normal cutting rate must be at most 10,000,000 mm²/min (100,000.0\u00a0cm²/min)',
+      'Normal cutting rate must be at most 100,000\u00a0cm²/min',
     );
     expect(messageInUnits('Band width must be greater than 0 mm', 'imperial')).toBe(
-      'Band width must be greater than 0 mm',
+      'Band width must be greater than 0\u00a0in',
     );
     // A long float tail from arithmetic on the user's figures is rounded.
-    expect(messageInUnits('more than 454.99999999999994 mm', 'metric')).toBe('more than 455 mm');
+    expect(messageInUnits('more than 454.99999999999994 mm', 'metric')).toBe('more than 455\u00a0mm');
+  });
+
+  it('turns a figure the domain gave in both systems round on an imperial site', () => {
+    // 1.092 mm ÷ 25.4 = 0.04299 in.
+    expect(messageInUnits('Set the opening to 1.092 mm (0.0430 in).', 'imperial')).toBe(
+      'Set the opening to 0.043\u00a0in (1.09\u00a0mm).',
+    );
+    expect(messageInUnits('Set the opening to 1.092 mm (0.0430 in).', 'metric')).toBe(
+      'Set the opening to 1.09\u00a0mm (0.043\u00a0in).',
+    );
+    // 30,000 psi = 206.843 MPa and 35,000 psi = 241.317 MPa (1 psi = 6,894.757 Pa, NIST SP 811 B.8).
+    expect(messageInUnits('Tension to 206.843–241.317 MPa (30,000–35,000 psi) on a meter.', 'imperial')).toBe(
+      'Tension to 30,000–35,000\u00a0psi (206.8–241.3\u00a0MPa) on a meter.',
+    );
+    // An inch figure alone is left as written: "in" is also a word.
+    expect(messageInUnits('3 in a row', 'metric')).toBe('3 in a row');
   });
 
   it('reads the unit system from the address, ignoring anything else', () => {

@@ -1,66 +1,42 @@
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import {
   DISPLAY_UNITS,
-  formatNumber,
-  areaFromDisplay,
-  areaRateFromDisplay,
-  areaRateToDisplay,
-  areaToDisplay,
-  bandSpeedFromDisplay,
-  bandSpeedToDisplay,
-  forceFromDisplay,
-  forceToDisplay,
-  lengthFromDisplay,
-  lengthToDisplay,
+  OTHER_SYSTEM,
   parseDisplayNumber,
-  stressFromDisplay,
-  stressToDisplay,
-  type DisplayOptions,
+  quantityFromDisplay,
+  quantityNumber,
+  quantityToDisplay,
   type DisplayQuantityKind,
   type DisplayValue,
 } from '@kerfline/domain/units/display';
+import { MM2_PER_IN2, MM_PER_INCH, M_PER_FOOT, N_PER_LBF, PA_PER_PSI } from '@kerfline/domain/units/units';
 import { UNIT_SYSTEMS } from '@kerfline/domain/sites/schema';
 
 /**
  * The calculators' edge between what people type (in their unit system) and what the domain computes with
- * (SI: mm, mm², m/min, N, Pa). Conversions are the domain's own (`units/display.ts`, exact NIST factors).
+ * (SI: mm, mm², m/min, N, Pa). Conversions and the formatting policy are the domain's own (`units/display.ts`,
+ * exact NIST factors).
  */
 
 export type Quantity = DisplayQuantityKind;
 
-const FROM_DISPLAY: Record<Quantity, (value: number, system: UnitSystem) => number> = {
-  length: lengthFromDisplay,
-  bandSpeed: bandSpeedFromDisplay,
-  area: areaFromDisplay,
-  areaRate: areaRateFromDisplay,
-  force: forceFromDisplay,
-  stress: stressFromDisplay,
-};
+const NBSP = '\u00a0';
 
-const TO_DISPLAY: Record<Quantity, (si: number, system: UnitSystem, options?: DisplayOptions) => DisplayValue> = {
-  length: lengthToDisplay,
-  bandSpeed: bandSpeedToDisplay,
-  area: areaToDisplay,
-  areaRate: areaRateToDisplay,
-  force: forceToDisplay,
-  stress: stressToDisplay,
-};
-
-/** The label printed beside a value of this quantity: mm or in, m/min or fpm, cm² or in²… */
+/** The label printed beside a value of this quantity: mm or in, m/min or ft/min, cm² or in²… */
 export function unitLabel(quantity: Quantity, system: UnitSystem): string {
   return DISPLAY_UNITS[quantity][system].unit;
 }
 
 /** A value typed in the user's unit, in SI (mm, mm², m/min, N or Pa). */
 export function toSi(quantity: Quantity, value: number, system: UnitSystem): number {
-  return FROM_DISPLAY[quantity](value, system);
+  return quantityFromDisplay(quantity, value, system);
 }
 
-/** An SI value ready to print in the user's unit; `decimals` overrides the quantity's default. */
+/** An SI value ready to print in the user's unit, by the policy or with fixed `decimals`. */
 export function showQuantity(quantity: Quantity, si: number, system: UnitSystem, decimals?: number): DisplayValue {
-  const shown = TO_DISPLAY[quantity](si, system, decimals === undefined ? {} : { decimals });
+  const shown = quantityToDisplay(quantity, si, system, decimals === undefined ? {} : { decimals });
   // A non-breaking space keeps a value and its unit on one line.
-  return { ...shown, text: shown.text.replace(' ', '\u00a0') };
+  return { ...shown, text: shown.text.replace(' ', NBSP) };
 }
 
 /** A figure split for display: the number as printed (thousands grouped) and its unit. */
@@ -71,11 +47,12 @@ export interface Figure {
   text: string;
 }
 
-/** An SI value as a figure in the user's unit, at the quantity's usual decimals unless `decimals` is given. */
+/** An SI value as a figure in the user's unit, by the formatting policy unless fixed `decimals` are given. */
 export function figure(quantity: Quantity, si: number, system: UnitSystem, decimals?: number): Figure {
-  const places = decimals ?? DISPLAY_UNITS[quantity][system].decimals;
-  const shown = showQuantity(quantity, si, system, places);
-  return { number: formatNumber(shown.value, places), unit: shown.unit, text: shown.text };
+  const options = decimals === undefined ? {} : { decimals };
+  const number = quantityNumber(quantity, si, system, options);
+  const unit = unitLabel(quantity, system);
+  return { number, unit, text: `${number}${NBSP}${unit}` };
 }
 
 /** Two SI values as one range in the user's unit, e.g. `50–90` m/min; one figure when they print alike. */
@@ -90,7 +67,7 @@ export function rangeFigure(
   const high = figure(quantity, maxSi, system, decimals);
   if (low.number === high.number) return low;
   const number = `${low.number}–${high.number}`;
-  return { number, unit: low.unit, text: `${number}\u00a0${low.unit}` };
+  return { number, unit: low.unit, text: `${number}${NBSP}${low.unit}` };
 }
 
 /**
@@ -99,6 +76,7 @@ export function rangeFigure(
  */
 const CARRY_DECIMALS: Record<Quantity, Record<UnitSystem, number>> = {
   length: { imperial: 4, metric: 2 },
+  smallLength: { imperial: 4, metric: 3 },
   bandSpeed: { imperial: 1, metric: 1 },
   area: { imperial: 3, metric: 2 },
   areaRate: { imperial: 3, metric: 2 },
@@ -140,41 +118,70 @@ export function readQuantity(entry: Entry, quantity: Quantity): Reading {
   return reading.kind === 'value' ? { kind: 'value', value: toSi(quantity, reading.value, entry.system) } : reading;
 }
 
-/** The units the domain's messages are written in, each with the quantity it measures and its factor to SI. */
-const SI_UNITS: { unit: string; quantity: Quantity; toSi: number }[] = [
-  { unit: 'mm²/min', quantity: 'areaRate', toSi: 1 },
-  { unit: 'mm²', quantity: 'area', toSi: 1 },
-  { unit: 'mm', quantity: 'length', toSi: 1 },
-  { unit: 'm/min', quantity: 'bandSpeed', toSi: 1 },
-  { unit: 'MPa', quantity: 'stress', toSi: 1e6 },
-  { unit: 'N', quantity: 'force', toSi: 1 },
+/** The units a message may write a figure in: its quantity, its system and its factor to SI. */
+const MESSAGE_UNITS: { unit: string; quantity: Quantity; system: UnitSystem; toSi: number }[] = [
+  { unit: 'mm²/min', quantity: 'areaRate', system: 'metric', toSi: 1 },
+  { unit: 'cm²/min', quantity: 'areaRate', system: 'metric', toSi: 100 },
+  { unit: 'in²/min', quantity: 'areaRate', system: 'imperial', toSi: MM2_PER_IN2 },
+  { unit: 'mm²', quantity: 'area', system: 'metric', toSi: 1 },
+  { unit: 'cm²', quantity: 'area', system: 'metric', toSi: 100 },
+  { unit: 'in²', quantity: 'area', system: 'imperial', toSi: MM2_PER_IN2 },
+  { unit: 'mm', quantity: 'length', system: 'metric', toSi: 1 },
+  { unit: 'in', quantity: 'length', system: 'imperial', toSi: MM_PER_INCH },
+  { unit: 'm/min', quantity: 'bandSpeed', system: 'metric', toSi: 1 },
+  { unit: 'ft/min', quantity: 'bandSpeed', system: 'imperial', toSi: M_PER_FOOT },
+  { unit: 'fpm', quantity: 'bandSpeed', system: 'imperial', toSi: M_PER_FOOT },
+  { unit: 'MPa', quantity: 'stress', system: 'metric', toSi: 1e6 },
+  { unit: 'psi', quantity: 'stress', system: 'imperial', toSi: PA_PER_PSI },
+  { unit: 'lbf', quantity: 'force', system: 'imperial', toSi: N_PER_LBF },
+  { unit: 'N', quantity: 'force', system: 'metric', toSi: 1 },
 ];
+/** The SI units the domain writes its messages in: a figure in one of these may stand alone. */
+const SI_MESSAGE_UNITS = new Set(['mm²/min', 'mm²', 'mm', 'm/min', 'MPa', 'N']);
 
 const escape = (text: string) => text.replace(/[/]/g, '\\/');
-// A figure (thousands grouped by commas or spaces, as the domain writes them) followed by one of its units.
+const UNIT_PATTERN = MESSAGE_UNITS.map((u) => escape(u.unit)).join('|');
+// A figure as the domain writes it: thousands grouped by commas or spaces, or not at all; maybe negative.
+const NUMBER = '-?(?:\\d{1,3}(?:[ ,]\\d{3})+(?:\\.\\d+)?|\\d+(?:\\.\\d+)?)';
+// A figure or a range ("207–241") with its unit, optionally followed by the same in another unit in brackets.
 const FIGURE_WITH_UNIT = new RegExp(
-  `(\\d{1,3}(?:[ ,]\\d{3})+(?:\\.\\d+)?|\\d+(?:\\.\\d+)?)[ \\u00a0](${SI_UNITS.map((u) => escape(u.unit)).join('|')})(?![\\w²/])`,
+  `(${NUMBER})(?:–(${NUMBER}))?[ \\u00a0](${UNIT_PATTERN})(?![\\w²/])` +
+    `(?: \\((${NUMBER})(?:–(${NUMBER}))?[ \\u00a0](${UNIT_PATTERN})(?![\\w²/])\\))?`,
   'g',
 );
 
+const readFigure = (text: string) => Number(text.replace(/[ ,]/g, ''));
+
+/** SI figures of one quantity in a system's unit, as a figure or a range with one unit. */
+function figuresIn(quantity: Quantity, values: number[], system: UnitSystem): string {
+  const numbers = values.map((si) => quantityNumber(quantity, si, system));
+  const distinct = numbers.length === 2 && numbers[0] === numbers[1] ? [numbers[0]!] : numbers;
+  return `${distinct.join('–')}${NBSP}${unitLabel(quantity, system)}`;
+}
+
 /**
- * A domain message (written in SI) made readable in the user's system: each figure keeps its SI unit and, where
- * the user works in another unit, gains its equivalent in brackets — "at most 3000 mm" reads "at most 3,000 mm
- * (118.11 in)" to an imperial user. Figures are regrouped with commas and long float tails rounded.
+ * A domain message made readable in the user's system, by the product's one formatting policy. Each figure
+ * reads in the user's unit first; where the message gave it in two systems, or the user works in other units
+ * than the SI the domain writes in, the other system's figure follows in brackets: "at most 3000 mm" reads
+ * "at most 118.11 in (3,000 mm)" to an imperial user, and "1.092 mm (0.0430 in)" reads "0.043 in (1.09 mm)".
  */
 export function messageInUnits(message: string, system: UnitSystem): string {
-  return message.replace(FIGURE_WITH_UNIT, (_whole, figure: string, unit: string) => {
-    const info = SI_UNITS.find((u) => u.unit === unit)!;
-    const value = Number(figure.replace(/[ ,]/g, ''));
-    const written = `${new Intl.NumberFormat('en-US', { maximumFractionDigits: 4 }).format(value)} ${unit}`;
-    const shownUnit = unitLabel(info.quantity, system);
-    // Zero is zero in every unit: "greater than 0 mm" needs no "(0.00 in)".
-    if (shownUnit === unit || value === 0) return written;
-    const si = value * info.toSi;
-    let converted = showQuantity(info.quantity, si, system);
-    // A small limit (a few hundredths of a millimetre) would print as 0.00 in at the default decimals.
-    if (converted.value === 0 && si !== 0) converted = showQuantity(info.quantity, si, system, 4);
-    return `${written} (${converted.text})`;
+  return message.replace(FIGURE_WITH_UNIT, (whole: string, ...groups: (string | undefined)[]) => {
+    const [low, high, unit, , , unit2] = groups as [string, string | undefined, string, unknown, unknown, string?];
+    const info = MESSAGE_UNITS.find((u) => u.unit === unit)!;
+    const second = unit2 === undefined ? undefined : MESSAGE_UNITS.find((u) => u.unit === unit2);
+    const paired = second !== undefined && second.quantity === info.quantity && second.system !== info.system;
+    // An imperial unit alone is left as written: "in" is also a word ("3 in a row").
+    if (!paired && !SI_MESSAGE_UNITS.has(unit)) return whole;
+    const values = [low, high].filter((v): v is string => v !== undefined).map((v) => readFigure(v) * info.toSi);
+    const first = figuresIn(info.quantity, values, system);
+    const rest = unit2 !== undefined && !paired ? whole.slice(whole.indexOf(' (')) : '';
+    // Zero is zero in every unit: "greater than 0 mm" needs no "(0 in)".
+    const allZero = values.every((v) => v === 0);
+    const showOther = !allZero && (paired || info.system !== system);
+    return showOther
+      ? `${first} (${figuresIn(info.quantity, values, OTHER_SYSTEM[system])})${rest}`
+      : `${first}${rest}`;
   });
 }
 

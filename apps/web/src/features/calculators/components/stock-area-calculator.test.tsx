@@ -20,8 +20,8 @@ describe('StockAreaCalculator', () => {
     await user.type(field(/Pieces in the bundle/), '6');
     // By hand, sharp corners: 2t(W + H − 2t) = 2 × 0.25 × (4 + 2 − 0.5) = 2.75 in² a piece; × 6 = 16.5 in².
     const areaMm2 = bundleCutAreaMm2({ kind: 'rect_tube', widthMm: 101.6, heightMm: 50.8, wallMm: 6.35 }, 6);
-    expect(areaToDisplay(areaMm2, 'imperial').text).toBe('16.50 in²');
-    expect(result()).toHaveTextContent('Cut area of 6 pieces16.50in²');
+    expect(areaToDisplay(areaMm2, 'imperial').text).toBe('16.5 in²');
+    expect(result()).toHaveTextContent('Cut area of 6 pieces16.5in²');
     expect(result()).toHaveTextContent(
       'One pass through 6 pieces of this 4 × 2 in rectangular tube with a 0.25 in wall',
     );

@@ -34,11 +34,11 @@ describe('TeethInWorkCalculator', () => {
     );
     expect(result()).toHaveTextContent('Best: 6–12 teeth');
     // 39.27–50 mm of metal under the band.
-    expect(result()).toHaveTextContent('Metal under the band39.3–50.0mm');
+    expect(result()).toHaveTextContent('Metal under the band39.3–50mm');
 
     rerender(<TeethInWorkCalculator system="imperial" />);
-    // The same bar in inches: 39.27 mm = 1.55 in, 50 mm = 1.97 in; the teeth do not change.
-    expect(result()).toHaveTextContent('Metal under the band1.55–1.97in');
+    // The same bar in inches: 39.27 mm = 1.546 in, 50 mm = 1.969 in; the teeth do not change.
+    expect(result()).toHaveTextContent('Metal under the band1.546–1.969in');
     expect(result()).toHaveTextContent(`puts ${low} to ${high} teeth in this 1.969 in round bar`);
     expect(field(/Diameter/)).toHaveValue('1.9685');
   });
@@ -84,9 +84,9 @@ describe('TeethInWorkCalculator', () => {
     await user.clear(field(/Outside diameter/));
     await user.type(field(/Outside diameter/), '200');
     await user.tab();
-    // 3000 mm ÷ 25.4 = 118.11 in.
+    // 3000 mm ÷ 25.4 = 118.11 in, shown to 0.1 in above 100 in.
     expect(field(/Outside diameter/)).toHaveAccessibleDescription(
-      /Outside diameter must be at most 3,000 mm \(118\.11\sin\)/,
+      /Outside diameter must be at most 118\.1\sin \(3,000\smm\)/,
     );
     expect(result()).not.toHaveTextContent(/NaN/);
   });

@@ -47,7 +47,7 @@ describe('the figures for a saw', () => {
     render(<SawFiguresPanel saw={saw} unitSystem="metric" />);
     const panel = within(screen.getByLabelText('Figures for this saw'));
     expect(panel.getByText('4,116 mm')).toBeInTheDocument();
-    expect(panel.getByText('483.0 MPa')).toBeInTheDocument();
+    expect(panel.getByText('483 MPa')).toBeInTheDocument();
     expect(panel.getByText('3,200')).toBeInTheDocument();
     expect(screen.queryByRole('note')).not.toBeInTheDocument();
   });
