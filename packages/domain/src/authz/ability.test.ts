@@ -23,12 +23,19 @@ const saw = (siteId: string) => subject('Saw', { id: 's', siteId });
 const site = (id: string, regionId: string) => subject('Site', { id, regionId });
 const user = (id: string, siteId: string | null) => subject('User', { id, siteId });
 const audit = (siteId: string | null) => subject('AuditEntry', { id: 'e', siteId });
+const setting = (siteId: string) => subject('SiteSetting', { id: 'k', siteId });
 
 // The permission matrix: [role, action, object, expected].
 const matrix: [
   string,
   Parameters<ReturnType<typeof defineAbilityFor>['can']>[0],
-  ReturnType<typeof saw> | ReturnType<typeof site> | ReturnType<typeof user> | ReturnType<typeof audit>,
+  (
+    | ReturnType<typeof saw>
+    | ReturnType<typeof site>
+    | ReturnType<typeof user>
+    | ReturnType<typeof audit>
+    | ReturnType<typeof setting>
+  ),
   boolean,
 ][] = [
   ['admin', 'create', saw(C), true],
@@ -73,6 +80,25 @@ const matrix: [
   ['managerAll', 'read', audit(A), false],
   ['leadNorth', 'read', audit(A), false],
   ['techA', 'read', audit(A), false],
+  // Site settings: whoever reads a site reads its settings; admins and that site's admin change them.
+  ['admin', 'update', setting(C), true],
+  ['managerAll', 'read', setting(C), true],
+  ['managerAll', 'update', setting(C), false],
+  ['managerAC', 'read', setting(A), true],
+  ['managerAC', 'read', setting(B), false],
+  ['leadNorth', 'read', setting(B), true],
+  ['leadNorth', 'read', setting(C), false],
+  ['leadNorth', 'update', setting(A), false],
+  ['siteAdminA', 'read', setting(A), true],
+  ['siteAdminA', 'create', setting(A), true],
+  ['siteAdminA', 'update', setting(A), true],
+  ['siteAdminA', 'delete', setting(A), true],
+  ['siteAdminA', 'read', setting(B), false],
+  ['siteAdminA', 'update', setting(B), false],
+  ['techA', 'read', setting(A), true],
+  ['techA', 'read', setting(B), false],
+  ['techA', 'update', setting(A), false],
+  ['techA', 'delete', setting(A), false],
 ];
 
 describe('who can do what', () => {
@@ -110,6 +136,7 @@ describe('rules stay translatable to SQL', () => {
     Saw: new Set(['id', 'siteId']),
     User: new Set(['id', 'siteId']),
     AuditEntry: new Set(['id', 'siteId']),
+    SiteSetting: new Set(['id', 'siteId']),
   };
 
   it('uses only $eq, $ne, $in and $nin on the subject’s own columns, for every role', () => {

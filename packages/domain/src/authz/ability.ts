@@ -11,7 +11,7 @@ export const ACTIONS = ['manage', 'create', 'read', 'update', 'delete', 'export'
 export type Action = (typeof ACTIONS)[number];
 
 /** Subject names equal the API's model names, so Sequelize instances and plain rows are typed alike. */
-export const SUBJECTS = ['Region', 'Site', 'Saw', 'User', 'AuditEntry'] as const;
+export const SUBJECTS = ['Region', 'Site', 'Saw', 'User', 'AuditEntry', 'SiteSetting'] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
 /** The columns rules may test, per subject (CASL types each rule's conditions from these). */
@@ -20,6 +20,7 @@ type SiteFields = { id: string; regionId: string };
 type SawFields = { id: string; siteId: string };
 type UserFields = { id: string; siteId: string | null };
 type AuditEntryFields = { id: string; siteId: string | null };
+type SiteSettingFields = { id: string; siteId: string };
 
 type Subjects =
   | 'all'
@@ -28,7 +29,8 @@ type Subjects =
   | (SiteFields & ForcedSubject<'Site'>)
   | (SawFields & ForcedSubject<'Saw'>)
   | (UserFields & ForcedSubject<'User'>)
-  | (AuditEntryFields & ForcedSubject<'AuditEntry'>);
+  | (AuditEntryFields & ForcedSubject<'AuditEntry'>)
+  | (SiteSettingFields & ForcedSubject<'SiteSetting'>);
 
 export type AppAbility = MongoAbility<[Action, Subjects]>;
 export type AppRawRule = RawRuleOf<AppAbility>;
@@ -69,10 +71,10 @@ export function defineAbilityFor(p: Principal): AppAbility {
       else can('read', 'Region');
       if (inSites) {
         can(['read', 'export'], 'Site', { id: inSites });
-        can('read', 'Saw', { siteId: inSites });
+        can('read', ['Saw', 'SiteSetting'], { siteId: inSites });
       } else {
         can(['read', 'export'], 'Site');
-        can('read', 'Saw');
+        can('read', ['Saw', 'SiteSetting']);
       }
       break;
     case 'regional_lead':
@@ -80,7 +82,7 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can('read', 'Region', { id: p.regionId });
         can('read', 'Site', { regionId: p.regionId });
       }
-      can('read', 'Saw', { siteId: inSites ?? { $in: [] } });
+      can('read', ['Saw', 'SiteSetting'], { siteId: inSites ?? { $in: [] } });
       break;
     case 'site_admin':
       if (p.siteId) {
@@ -90,13 +92,15 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can('read', 'User', { siteId: p.siteId });
         // The history of their own site's records; fleet-wide records (siteId NULL) stay with admins.
         can('read', 'AuditEntry', { siteId: p.siteId });
+        // Their site's figures with no single printed value (band speeds, tension ranges, check limits).
+        can(['read', 'create', 'update', 'delete'], 'SiteSetting', { siteId: p.siteId });
       }
       break;
     case 'technician':
       if (p.siteId) {
         can('read', 'Region', { id: inRegions ?? { $in: [] } });
         can('read', 'Site', { id: p.siteId });
-        can('read', 'Saw', { siteId: p.siteId });
+        can('read', ['Saw', 'SiteSetting'], { siteId: p.siteId });
       }
       break;
   }

@@ -4,6 +4,14 @@ import { idSchema, pageQuerySchema, text } from '../common/schema.js';
 export const SAW_KINDS = ['horizontal', 'vertical'] as const;
 export type SawKind = (typeof SAW_KINDS)[number];
 
+/**
+ * How the saw's head is fed down into the cut: by its own weight held back by a spring or counterweight
+ * (`gravity_spring`), or by a hydraulic cylinder (`hydraulic`). The spring-balance head-force check applies only
+ * to the first: a hydraulic head's down-force is set by its feed valve, not read on a balance.
+ */
+export const HEAD_FEEDS = ['gravity_spring', 'hydraulic'] as const;
+export type HeadFeed = (typeof HEAD_FEEDS)[number];
+
 /** in_service: available to cut; down: stopped for a fault or repair; retired: kept for history only. */
 export const SAW_STATUSES = ['in_service', 'down', 'retired'] as const;
 export type SawStatus = (typeof SAW_STATUSES)[number];
@@ -24,6 +32,7 @@ export const sawSchema = z.object({
   assetTag: z.string(),
   name: z.string(),
   kind: z.enum(SAW_KINDS),
+  headFeed: z.enum(HEAD_FEEDS),
   make: z.string().nullable(),
   model: z.string().nullable(),
   wheelDiameterMm: z.number(),
@@ -52,6 +61,7 @@ const sawFieldShapes = {
   assetTag: text(40),
   name: text(120),
   kind: z.enum(SAW_KINDS, { message: 'choose horizontal or vertical' }),
+  headFeed: z.enum(HEAD_FEEDS, { message: 'choose gravity or spring, or hydraulic' }),
   make: text(80).nullable(),
   model: text(80).nullable(),
   wheelDiameterMm: positiveMm('Wheel diameter', 3000),
@@ -70,6 +80,8 @@ const sawFieldShapes = {
 /** On create, optional details default to "not recorded" and a new saw is in service. */
 const sawFields = z.object({
   ...sawFieldShapes,
+  // Production saws are mostly fed hydraulically; a gravity- or spring-fed head is said so.
+  headFeed: sawFieldShapes.headFeed.default('hydraulic'),
   make: sawFieldShapes.make.default(null),
   model: sawFieldShapes.model.default(null),
   capacityRoundMm: sawFieldShapes.capacityRoundMm.default(null),
