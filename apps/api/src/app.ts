@@ -23,6 +23,7 @@ import { sitesRouter } from './modules/sites/sites.router.js';
 import { sawsRouter } from './modules/saws/saws.router.js';
 import { usersRouter } from './modules/users/users.router.js';
 import { auditRouter } from './modules/audit/audit.router.js';
+import { siteSettingsRouter } from './modules/site-settings/site-settings.router.js';
 
 export type AppDeps = {
   sequelize: Sequelize;
@@ -118,6 +119,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(requireSignIn);
   api.use(regionsRouter());
   api.use(sitesRouter());
+  api.use(siteSettingsRouter());
   api.use(sawsRouter());
   api.use(usersRouter(deps.sequelize));
   api.use(auditRouter());

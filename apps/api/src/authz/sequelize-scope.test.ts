@@ -11,6 +11,7 @@ import { Site } from '../modules/sites/site.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
 import { User } from '../modules/users/user.model.js';
 import { AuditEntry } from '../modules/audit/audit-entry.model.js';
+import { SiteSetting } from '../modules/site-settings/site-setting.model.js';
 import { scopeWhere } from './sequelize-scope.js';
 
 let ctx: TestContext;
@@ -31,10 +32,19 @@ beforeAll(async () => {
       after: { n },
     })),
   );
+  // A setting changed at every site, so each role's scope over settings is checked against rows.
+  await SiteSetting.bulkCreate(
+    [world.sites.A.id, world.sites.B.id, world.sites.C.id].map((siteId) => ({
+      siteId,
+      key: 'band_tension.bimetal',
+      value: { minMPa: 200, maxMPa: 240 },
+      changedBy: world.users.admin.id,
+    })),
+  );
 });
 afterAll(async () => ctx.close());
 
-const MODELS: Record<SubjectName, ModelStatic<Model>> = { Region, Site, Saw, User, AuditEntry };
+const MODELS: Record<SubjectName, ModelStatic<Model>> = { Region, Site, Saw, User, AuditEntry, SiteSetting };
 
 /** For every row: does the scoped query return it exactly when `ability.can` says yes? */
 async function mismatches(ability: AppAbility, action: (typeof ACTIONS)[number], type: SubjectName): Promise<string[]> {

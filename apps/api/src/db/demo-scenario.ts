@@ -1,11 +1,15 @@
 import type { Sequelize } from 'sequelize';
 import type { Role } from '@kerfline/domain/users/schema';
-import type { SawKind, SawStatus } from '@kerfline/domain/saws/schema';
+import type { HeadFeed, SawKind, SawStatus } from '@kerfline/domain/saws/schema';
+import { settingDefinition } from '@kerfline/domain/settings/registry';
+import { psiToPa } from '@kerfline/domain/units/units';
 import { hashPassword } from '../security/passwords.js';
 import { Region } from '../modules/regions/region.model.js';
 import { Site } from '../modules/sites/site.model.js';
 import { User, UserSite } from '../modules/users/user.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
+import { SiteSetting } from '../modules/site-settings/site-setting.model.js';
+import { AuditEntry } from '../modules/audit/audit-entry.model.js';
 
 /*
  * The demo scenario: Corvane Metals, an invented bar, tube and structural distributor with five cutting
@@ -88,6 +92,7 @@ const SITES = [
 
 type SawClass = {
   kind: SawKind;
+  headFeed: HeadFeed;
   make: string;
   model: string;
   wheelMm: number;
@@ -103,15 +108,17 @@ const IN = 25.4;
 const FPM = 0.3048;
 
 /**
- * Saw classes of the demo fleet (invented makes), in the sizes each kind of site buys: metric bands at
- * metric sites, inch bands (1-1/4 x .042 and so on) at imperial ones.
+ * Saw classes of the demo fleet, in the sizes each kind of site buys: metric bands at metric sites, inch bands
+ * (1-1/4 x .042 and so on) at imperial ones. Makers and models are invented words, never model numbers. The small
+ * saws' heads feed by gravity against a spring; the rest are hydraulic.
  */
 const CLASSES: Record<string, Record<'metric' | 'imperial', SawClass>> = {
   light: {
     metric: {
       kind: 'horizontal',
-      make: 'Orwin',
-      model: 'H-260',
+      make: 'Harrowdale',
+      model: 'Kestrel',
+      headFeed: 'gravity_spring',
       wheelMm: 380,
       widthMm: 27,
       thicknessMm: 0.9,
@@ -122,8 +129,9 @@ const CLASSES: Record<string, Record<'metric' | 'imperial', SawClass>> = {
     },
     imperial: {
       kind: 'horizontal',
-      make: 'Orwin',
-      model: 'H-260',
+      make: 'Harrowdale',
+      model: 'Kestrel',
+      headFeed: 'gravity_spring',
       wheelMm: 15 * IN,
       widthMm: 1 * IN,
       thicknessMm: 0.035 * IN,
@@ -136,8 +144,9 @@ const CLASSES: Record<string, Record<'metric' | 'imperial', SawClass>> = {
   mid: {
     metric: {
       kind: 'horizontal',
-      make: 'Orwin',
-      model: 'H-360A',
+      make: 'Harrowdale',
+      model: 'Marlstone',
+      headFeed: 'hydraulic',
       wheelMm: 455,
       widthMm: 34,
       thicknessMm: 1.1,
@@ -148,8 +157,9 @@ const CLASSES: Record<string, Record<'metric' | 'imperial', SawClass>> = {
     },
     imperial: {
       kind: 'horizontal',
-      make: 'Orwin',
-      model: 'H-360A',
+      make: 'Harrowdale',
+      model: 'Marlstone',
+      headFeed: 'hydraulic',
       wheelMm: 18 * IN,
       widthMm: 1.25 * IN,
       thicknessMm: 0.042 * IN,
@@ -162,8 +172,9 @@ const CLASSES: Record<string, Record<'metric' | 'imperial', SawClass>> = {
   heavy: {
     metric: {
       kind: 'horizontal',
-      make: 'Brandt-Kell',
-      model: 'BK 560 Twin',
+      make: 'Quernwick',
+      model: 'Greywether',
+      headFeed: 'hydraulic',
       wheelMm: 610,
       widthMm: 41,
       thicknessMm: 1.3,
@@ -174,8 +185,9 @@ const CLASSES: Record<string, Record<'metric' | 'imperial', SawClass>> = {
     },
     imperial: {
       kind: 'horizontal',
-      make: 'Brandt-Kell',
-      model: 'BK 560 Twin',
+      make: 'Quernwick',
+      model: 'Greywether',
+      headFeed: 'hydraulic',
       wheelMm: 24 * IN,
       widthMm: 1.5 * IN,
       thicknessMm: 0.05 * IN,
@@ -188,8 +200,9 @@ const CLASSES: Record<string, Record<'metric' | 'imperial', SawClass>> = {
   beam: {
     metric: {
       kind: 'horizontal',
-      make: 'Brandt-Kell',
-      model: 'BK 1100 Miter',
+      make: 'Quernwick',
+      model: 'Longreach',
+      headFeed: 'hydraulic',
       wheelMm: 700,
       widthMm: 54,
       thicknessMm: 1.6,
@@ -200,8 +213,9 @@ const CLASSES: Record<string, Record<'metric' | 'imperial', SawClass>> = {
     },
     imperial: {
       kind: 'horizontal',
-      make: 'Brandt-Kell',
-      model: 'BK 1100 Miter',
+      make: 'Quernwick',
+      model: 'Longreach',
+      headFeed: 'hydraulic',
       wheelMm: 27.5 * IN,
       widthMm: 2 * IN,
       thicknessMm: 0.063 * IN,
@@ -214,8 +228,9 @@ const CLASSES: Record<string, Record<'metric' | 'imperial', SawClass>> = {
   vertical: {
     metric: {
       kind: 'vertical',
-      make: 'Lindqvist',
-      model: 'V-18 Contour',
+      make: 'Ostlemere',
+      model: 'Brindle',
+      headFeed: 'hydraulic',
       wheelMm: 460,
       widthMm: 13,
       thicknessMm: 0.65,
@@ -226,8 +241,9 @@ const CLASSES: Record<string, Record<'metric' | 'imperial', SawClass>> = {
     },
     imperial: {
       kind: 'vertical',
-      make: 'Lindqvist',
-      model: 'V-18 Contour',
+      make: 'Ostlemere',
+      model: 'Brindle',
+      headFeed: 'hydraulic',
       wheelMm: 18 * IN,
       widthMm: 0.5 * IN,
       thicknessMm: 0.025 * IN,
@@ -262,6 +278,20 @@ const FLEET: Record<string, { cls: keyof typeof CLASSES; status?: SawStatus }[]>
   ],
   'CV-MTY': [{ cls: 'mid' }, { cls: 'mid' }, { cls: 'light' }, { cls: 'heavy' }, { cls: 'vertical' }],
 };
+
+/**
+ * Riverbend keeps its own tension range for carbon bands (a blade maker's figure its admin typed in), so the
+ * demo shows a site's own setting, with its history, beside Kerfline's shipped values.
+ */
+const DEMO_SETTINGS = [
+  {
+    site: 'CV-DBN',
+    key: 'band_tension.carbon',
+    by: 'noor.haddad@corvane.example',
+    at: new Date('2026-10-14T15:20:00Z'),
+    value: { minMPa: psiToPa(17000) / 1e6, maxMPa: psiToPa(22000) / 1e6 },
+  },
+];
 
 const NICKNAMES = [
   'Bay 1 bar saw',
@@ -319,6 +349,7 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
                   ? `Beam line saw ${n}`
                   : (NICKNAMES[(n - 1) % 5] ?? `Saw ${n}`),
             kind: c.kind,
+            headFeed: c.headFeed,
             make: c.make,
             model: c.model,
             wheelDiameterMm: c.wheelMm,
@@ -339,6 +370,7 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
       }
     }
 
+    const userIds = new Map<string, string>();
     for (const p of [...DEMO_SIGN_INS, ...EXTRA_PEOPLE]) {
       const user = await User.create(
         {
@@ -358,6 +390,28 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
           { transaction },
         );
       }
+      userIds.set(p.email, user.id);
+    }
+
+    for (const d of DEMO_SETTINGS) {
+      const def = settingDefinition(d.key);
+      if (!def) continue;
+      const siteId = siteIds.get(d.site)!;
+      const changedBy = userIds.get(d.by)!;
+      await SiteSetting.create({ siteId, key: d.key, value: d.value, changedBy, changedAt: d.at }, { transaction });
+      await AuditEntry.create(
+        {
+          at: d.at,
+          actorId: changedBy,
+          siteId,
+          entity: 'SiteSetting',
+          entityId: d.key,
+          action: 'update',
+          before: { ...def.defaults, source: 'shipped' },
+          after: { ...d.value, source: 'site' },
+        },
+        { transaction },
+      );
     }
   });
   return true;

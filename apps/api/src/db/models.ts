@@ -4,6 +4,7 @@ import { Site } from '../modules/sites/site.model.js';
 import { User, UserSite } from '../modules/users/user.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
 import { AuditEntry } from '../modules/audit/audit-entry.model.js';
+import { SiteSetting } from '../modules/site-settings/site-setting.model.js';
 
 /** Binds every model to this Sequelize instance. Model names equal the CASL subject names. */
 export function initModels(sequelize: Sequelize): void {
@@ -14,6 +15,7 @@ export function initModels(sequelize: Sequelize): void {
   UserSite.initModel(sequelize);
   Saw.initModel(sequelize);
   AuditEntry.initModel(sequelize);
+  SiteSetting.initModel(sequelize);
 }
 
 let bound: Sequelize | undefined;

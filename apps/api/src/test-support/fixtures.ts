@@ -66,7 +66,7 @@ export async function buildWorld(sequelize: Sequelize) {
     for (const n of [1, 2]) {
       saws[s.code]!.push(
         await Saw.create({
-          ...sawAttrs(s.id, { assetTag: `${s.code}-${n}`, make: 'Testmake', model: 'T1' }),
+          ...sawAttrs(s.id, { assetTag: `${s.code}-${n}`, make: 'Testmake', model: 'Testmodel' }),
           retiredAt: null,
         }),
       );

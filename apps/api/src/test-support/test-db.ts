@@ -36,7 +36,7 @@ export function startTestApp(options: { signInLimit?: number } = {}): TestContex
 /** Empties every table (keeps the schema and the migration record). */
 export async function resetData(sequelize: Sequelize): Promise<void> {
   await sequelize.query(
-    'TRUNCATE audit_entries, saws, user_sites, users, sites, regions, sessions, rate_limit_hits RESTART IDENTITY CASCADE',
+    'TRUNCATE site_settings, audit_entries, saws, user_sites, users, sites, regions, sessions, rate_limit_hits RESTART IDENTITY CASCADE',
   );
 }
 

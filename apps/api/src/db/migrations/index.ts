@@ -1,6 +1,8 @@
 import type { MigrationContext } from '../umzug.js';
 import * as foundation from './20261201-0001-foundation.js';
 import * as audit from './20261202-0001-audit.js';
+import * as siteSettings from './20261203-0201-site-settings.js';
+import * as sawHeadFeed from './20261203-0202-saw-head-feed.js';
 
 type Migration = {
   name: string;
@@ -12,4 +14,6 @@ type Migration = {
 export const migrations: Migration[] = [
   { name: '20261201-0001-foundation', ...foundation },
   { name: '20261202-0001-audit', ...audit },
+  { name: '20261203-0201-site-settings', ...siteSettings },
+  { name: '20261203-0202-saw-head-feed', ...sawHeadFeed },
 ];

@@ -6,7 +6,7 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize';
-import type { SawKind, SawStatus } from '@kerfline/domain/saws/schema';
+import type { HeadFeed, SawKind, SawStatus } from '@kerfline/domain/saws/schema';
 
 /** Lengths in millimetres, band speeds in metres per minute. */
 export class Saw extends Model<InferAttributes<Saw>, InferCreationAttributes<Saw>> {
@@ -15,6 +15,7 @@ export class Saw extends Model<InferAttributes<Saw>, InferCreationAttributes<Saw
   declare assetTag: string;
   declare name: string;
   declare kind: SawKind;
+  declare headFeed: CreationOptional<HeadFeed>;
   declare make: string | null;
   declare model: string | null;
   declare wheelDiameterMm: number;
@@ -41,6 +42,7 @@ export class Saw extends Model<InferAttributes<Saw>, InferCreationAttributes<Saw
         assetTag: { type: DataTypes.TEXT, allowNull: false },
         name: { type: DataTypes.TEXT, allowNull: false },
         kind: { type: DataTypes.TEXT, allowNull: false },
+        headFeed: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'hydraulic' },
         make: { type: DataTypes.TEXT, allowNull: true },
         model: { type: DataTypes.TEXT, allowNull: true },
         wheelDiameterMm: mm(),

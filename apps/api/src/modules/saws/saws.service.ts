@@ -24,6 +24,7 @@ export function toSawDto(saw: Saw): SawDto {
     assetTag: s.assetTag,
     name: s.name,
     kind: s.kind,
+    headFeed: s.headFeed,
     make: s.make,
     model: s.model,
     wheelDiameterMm: s.wheelDiameterMm,

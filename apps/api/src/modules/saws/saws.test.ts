@@ -76,9 +76,25 @@ describe('creating a saw', () => {
       assetTag: 'A-NEW',
       siteId: world.sites.A.id,
       status: 'in_service',
+      // Not said: counted as hydraulic, as most production saws are.
+      headFeed: 'hydraulic',
       make: null,
       retiredAt: null,
     });
+  });
+
+  it('records how the head is fed, and refuses a feed it does not know', async () => {
+    const agent = await as('siteadmin-a@test.example');
+    const spring = await agent
+      .post('/api/saws')
+      .send(sawBody(world.sites.A.id, { assetTag: 'A-GRAV', headFeed: 'gravity_spring' }));
+    expect(spring.status).toBe(201);
+    expect(spring.body.headFeed).toBe('gravity_spring');
+    const changed = await agent.patch(`/api/saws/${spring.body.id}`).send({ headFeed: 'hydraulic' });
+    expect(changed.body.headFeed).toBe('hydraulic');
+    const bad = await agent.post('/api/saws').send(sawBody(world.sites.A.id, { headFeed: 'pneumatic' }));
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.details).toEqual([{ path: 'headFeed', message: 'choose gravity or spring, or hydraulic' }]);
   });
 
   it('refuses a technician, at their own site (403) and elsewhere (site unknown to them), writing nothing', async () => {
@@ -157,7 +173,7 @@ describe('changing and retiring a saw', () => {
     const before = (await agent.get(`/api/saws/${id}`)).body;
     const after = (await agent.patch(`/api/saws/${id}`).send({ name: 'Renamed' })).body;
     expect(after).toEqual({ ...before, name: 'Renamed', updatedAt: after.updatedAt });
-    expect(after).toMatchObject({ status: 'down', make: 'Testmake', model: 'T1', capacityRoundMm: 300 });
+    expect(after).toMatchObject({ status: 'down', make: 'Testmake', model: 'Testmodel', capacityRoundMm: 300 });
   });
 
   it('does not let a site admin move a saw to a site they do not manage', async () => {
