@@ -63,6 +63,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: 'sites/:siteId/settings',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-settings-page');
+                return { loader: page.siteSettingsPageLoader(queryClient), Component: page.SiteSettingsPage };
+              },
+            },
+            {
               path: 'saws',
               lazy: async () => {
                 const page = await import('./routes/saws/saws-page');

@@ -71,7 +71,7 @@ export function toSearchParams(query: Query): URLSearchParams {
 }
 
 type RequestOptions = {
-  method?: 'GET' | 'POST' | 'PATCH' | 'DELETE';
+  method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
   query?: Query;
   body?: unknown;
   signal?: AbortSignal;
@@ -152,4 +152,6 @@ export const api = {
   post: <T>(path: string, body: unknown, schema: z.ZodType<T> | null) =>
     apiRequest(path, schema, { method: 'POST', body }),
   patch: <T>(path: string, body: unknown, schema: z.ZodType<T>) => apiRequest(path, schema, { method: 'PATCH', body }),
+  put: <T>(path: string, body: unknown, schema: z.ZodType<T>) => apiRequest(path, schema, { method: 'PUT', body }),
+  delete: <T>(path: string, schema: z.ZodType<T> | null) => apiRequest(path, schema, { method: 'DELETE' }),
 };

@@ -7,6 +7,7 @@ import { sawListQuery } from '../../../features/saws/api/queries';
 import { sawFilterValuesFromSearch, sawListQueryFromSearch } from '../../../features/saws/api/list-search';
 import { SawFilters } from '../../../features/saws/components/saw-filters';
 import { SawsTable } from '../../../features/saws/components/saws-table';
+import { LinkButton } from '../../../lib/ui/button';
 import { Pager } from '../../../lib/ui/pager';
 
 export function sitePageLoader(queryClient: QueryClient) {
@@ -36,7 +37,11 @@ export function SitePage() {
   return (
     <div className="space-y-6">
       <title>{`${site.name} · Kerfline`}</title>
-      <SiteHeader site={site} regionName={regions?.items.find((region) => region.id === site.regionId)?.name} />
+      <SiteHeader
+        site={site}
+        regionName={regions?.items.find((region) => region.id === site.regionId)?.name}
+        actions={<LinkButton to={`/sites/${site.id}/settings`}>Site settings</LinkButton>}
+      />
       <SawsTable
         heading="Saws"
         saws={saws.items}

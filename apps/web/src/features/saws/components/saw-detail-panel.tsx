@@ -3,7 +3,7 @@ import type { Saw } from '@kerfline/domain/saws/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { formatDateTime, formatLength, formatSpeed } from '../../../lib/format';
 import { Card } from '../../../lib/ui/card';
-import { SAW_KIND_LABELS } from './saws-table';
+import { HEAD_FEED_LABELS, SAW_KIND_LABELS } from './saws-table';
 
 function Fact({ label, children }: { label: string; children: ReactNode }) {
   return (
@@ -35,6 +35,7 @@ export function SawDetailPanel({ saw, unitSystem, timeZone }: { saw: Saw; unitSy
     <div className="grid gap-4 lg:grid-cols-2">
       <Section title="Machine">
         <Fact label="Kind">{SAW_KIND_LABELS[saw.kind]}</Fact>
+        <Fact label="Head feed">{HEAD_FEED_LABELS[saw.headFeed]}</Fact>
         <Fact label="Make">{saw.make ?? notRecorded}</Fact>
         <Fact label="Model">{saw.model ?? notRecorded}</Fact>
         <Fact label="Wheel diameter">{formatLength(saw.wheelDiameterMm, unitSystem)}</Fact>

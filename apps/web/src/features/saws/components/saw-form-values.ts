@@ -1,4 +1,4 @@
-import type { Saw, SawCreate, SawCreateParsed, SawKind } from '@kerfline/domain/saws/schema';
+import type { HeadFeed, Saw, SawCreate, SawCreateParsed, SawKind } from '@kerfline/domain/saws/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { lengthFromMm, lengthToMm, speedFromMPerMin, speedToMPerMin } from '../../../lib/format';
 
@@ -47,6 +47,7 @@ export type SawFormValues = {
   assetTag: string;
   name: string;
   kind: SawKind | '';
+  headFeed: HeadFeed;
   status: 'in_service' | 'down';
   make: string;
   model: string;
@@ -54,7 +55,7 @@ export type SawFormValues = {
 
 export type SawFormField = keyof SawFormValues;
 
-const TEXT_FIELDS = ['assetTag', 'name', 'kind', 'status', 'make', 'model'] as const;
+const TEXT_FIELDS = ['assetTag', 'name', 'kind', 'headFeed', 'status', 'make', 'model'] as const;
 
 const FORM_FIELD_BY_PATH: Record<string, SawFormField> = Object.fromEntries([
   ...TEXT_FIELDS.map((field) => [field, field]),
@@ -79,6 +80,8 @@ export function emptySawFormValues(): SawFormValues {
     assetTag: '',
     name: '',
     kind: '',
+    // Most production saws feed hydraulically; the form says what the other choice means.
+    headFeed: 'hydraulic',
     status: 'in_service',
     make: '',
     model: '',
@@ -106,6 +109,7 @@ export function sawFormValuesFromSaw(saw: Saw, system: UnitSystem): SawFormValue
   values.assetTag = saw.assetTag;
   values.name = saw.name;
   values.kind = saw.kind;
+  values.headFeed = saw.headFeed;
   values.status = saw.status === 'down' ? 'down' : 'in_service';
   values.make = saw.make ?? '';
   values.model = saw.model ?? '';
@@ -168,6 +172,7 @@ export function sawInputFromForm(
     assetTag: values.assetTag,
     name: values.name,
     kind: values.kind === '' ? undefined : values.kind,
+    headFeed: values.headFeed,
     status: values.status,
     make: optionalText(values.make),
     model: optionalText(values.model),

@@ -24,6 +24,7 @@ async function fillValidImperialSaw(user: ReturnType<typeof userEvent.setup>) {
   await user.type(field(/Asset tag/), 'HS-07');
   await user.type(field(/^Name/), 'Bar line saw');
   await user.selectOptions(screen.getByRole('combobox', { name: 'Kind' }), 'horizontal');
+  await user.selectOptions(screen.getByRole('combobox', { name: 'Head feed' }), 'Gravity or spring');
   await user.type(field(/Wheel diameter/), '14');
   await user.type(field(/Wheel centre distance/), '40');
   await user.type(field(/Band width/), '1.25');
@@ -87,6 +88,7 @@ describe('SawForm', () => {
       assetTag: 'HS-07',
       name: 'Bar line saw',
       kind: 'horizontal',
+      headFeed: 'gravity_spring',
       status: 'in_service',
       make: null,
       model: null,
@@ -136,6 +138,7 @@ describe('SawForm', () => {
     const onSubmit = vi.fn<Submit>().mockResolvedValue(undefined);
     const user = renderForm(onSubmit, 'imperial', makeSaw());
     expect(field(/Band width/)).toHaveValue('1.25');
+    expect(screen.getByRole('combobox', { name: 'Head feed' })).toHaveDisplayValue('Gravity or spring');
     expect(field(/Highest band speed/)).toHaveValue('400');
     await user.clear(field(/Band length/));
     await user.type(field(/Band length/), '164.5');
@@ -143,6 +146,7 @@ describe('SawForm', () => {
     expect(onSubmit).toHaveBeenCalledTimes(1);
     const [input, changed] = onSubmit.mock.calls[0]!;
     expect(changed).toEqual(['bandLengthMm']);
+    expect(input.headFeed).toBe('gravity_spring');
     // 164.5 in × 25.4 mm/in = 4178.3 mm.
     expect(input.bandLengthMm).toBe(4178.3);
   });

@@ -1,7 +1,7 @@
 import { useMemo, type ReactNode } from 'react';
 import { useForm, type Resolver } from 'react-hook-form';
 import { domainSchemaResolver } from '../../../lib/form-errors';
-import { sawCreateSchema, type Saw, type SawCreateParsed } from '@kerfline/domain/saws/schema';
+import { HEAD_FEEDS, sawCreateSchema, type Saw, type SawCreateParsed } from '@kerfline/domain/saws/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { mmToIn } from '@kerfline/domain/units/units';
 import { isApiError } from '../../../lib/api-client';
@@ -9,6 +9,7 @@ import { formatNumber, lengthUnit, speedUnit } from '../../../lib/format';
 import { Button } from '../../../lib/ui/button';
 import { Field, inputClass } from '../../../lib/ui/field';
 import { Notice } from '../../../lib/ui/notice';
+import { HEAD_FEED_LABELS } from './saws-table';
 import {
   MEASURE_LABELS,
   SPEED_FIELDS,
@@ -138,6 +139,21 @@ export function SawForm({ siteId, unitSystem, saw, submitLabel, onSubmit, cancel
               <option value="">Choose…</option>
               <option value="horizontal">Horizontal</option>
               <option value="vertical">Vertical</option>
+            </select>
+          )}
+        </Field>
+        <Field
+          label="Head feed"
+          hint="How the head comes down into the cut. Gravity- or spring-fed heads get the spring-balance check."
+          error={errors.headFeed?.message}
+        >
+          {(props) => (
+            <select {...props} {...register('headFeed')} className={inputClass}>
+              {HEAD_FEEDS.map((feed) => (
+                <option key={feed} value={feed}>
+                  {HEAD_FEED_LABELS[feed]}
+                </option>
+              ))}
             </select>
           )}
         </Field>

@@ -17,6 +17,8 @@ import { Card } from '../../../lib/ui/card';
 import { SawStatusBadge } from './saw-status-badge';
 
 export const SAW_KIND_LABELS = { horizontal: 'Horizontal', vertical: 'Vertical' } as const;
+/** How the head comes down into the cut, in the words the saw form and page use. */
+export const HEAD_FEED_LABELS = { gravity_spring: 'Gravity or spring', hydraulic: 'Hydraulic' } as const;
 
 /** Width × thickness × length of the band a saw takes, one unit for all three. */
 export function formatBandSize(saw: Saw, system: UnitSystem): string {
