@@ -4,7 +4,8 @@ import userEvent from '@testing-library/user-event';
 import { createMemoryRouter } from 'react-router-dom';
 import { createQueryClient } from '../../../lib/query-client';
 import { installFakeApi } from '../../../test-support/fake-api';
-import { makeMe, makeSaw, makeSite, page } from '../../../test-support/fixtures';
+import { SAW_ID, SITE_ID, makeMe, makeSaw, makeSite, page } from '../../../test-support/fixtures';
+import { shippedSettings } from '@kerfline/domain/settings/schema';
 import { AppProviders } from '../../providers';
 import { appRoutes } from '../../router';
 
@@ -41,9 +42,12 @@ describe('the shop calculators', () => {
 
     await user.click(screen.getByRole('radio', { name: /Metric/ }));
     await waitFor(() => expect(router.state.location.search).toBe('?units=metric'));
-    expect(screen.getByRole('link', { name: /Band length/ })).toHaveAttribute(
-      'href',
-      '/calculators/band-length?units=metric',
+    // The tiles redraw for the new address once the route's data is in.
+    await waitFor(() =>
+      expect(screen.getByRole('link', { name: /Band length/ })).toHaveAttribute(
+        'href',
+        '/calculators/band-length?units=metric',
+      ),
     );
 
     await user.click(screen.getByRole('link', { name: /Band length/ }));
@@ -78,6 +82,73 @@ describe('the shop calculators', () => {
     expect(await screen.findByRole('heading', { level: 1, name: 'Band speed for a material' })).toBeInTheDocument();
     expect(screen.queryByRole('combobox', { name: 'Fill in from a saw' })).not.toBeInTheDocument();
     expect(screen.getByRole('radio', { name: /Metric/ })).toBeChecked();
+  });
+
+  it('opens the check targets for a saw in its site’s units, with the site’s own settings and their source', async () => {
+    const settings = shippedSettings().map((setting) =>
+      setting.key === 'band_tension.bimetal'
+        ? {
+            ...setting,
+            // 25,000–28,000 psi, kept by the site (1 psi = 6,894.757 Pa, NIST SP 811 B.8).
+            value: { minMPa: 172.369, maxMPa: 193.053 },
+            source: 'site' as const,
+            changedById: null,
+            changedByName: 'Ines Carvalho',
+            changedAt: '2026-11-30T15:00:00.000Z',
+          }
+        : setting,
+    );
+    installFakeApi({
+      'GET /api/me': { status: 200, body: makeMe('technician') },
+      'GET /api/sites': { status: 200, body: page([makeSite({ unitSystem: 'imperial' })]) },
+      'GET /api/saws': { status: 200, body: page([makeSaw()]) },
+      [`GET /api/saws/${SAW_ID}`]: { status: 200, body: makeSaw() },
+      [`GET /api/sites/${SITE_ID}`]: { status: 200, body: makeSite({ unitSystem: 'imperial' }) },
+      [`GET /api/sites/${SITE_ID}/settings`]: { status: 200, body: { siteId: SITE_ID, items: settings } },
+    });
+    renderApp(`/calculators/check-targets?sawId=${SAW_ID}`);
+    expect(await screen.findByRole('heading', { level: 1, name: 'Check targets' })).toBeInTheDocument();
+    // No units in the address: the saw's site works in inches. Its band fills the fields.
+    expect(screen.getByRole('radio', { name: /Imperial/ })).toBeChecked();
+    expect(screen.getByRole('textbox', { name: /Band thickness/ })).toHaveValue('0.042');
+    expect(screen.getByRole('combobox', { name: 'Fill in from a saw' })).toHaveDisplayValue('HS-07 · Bar line saw');
+    expect(screen.getByText(/^For/)).toHaveTextContent(
+      'For HS-07 · Bar line saw, with the settings of Holt Bar Works.',
+    );
+    const tension = screen.getByRole('article', { name: 'Band tension' });
+    expect(tension).toHaveTextContent('Passes25,000–28,000 psi');
+    expect(tension).toHaveTextContent('Source: Your site’s setting, changed by Ines Carvalho on Nov 30, 2026.');
+    // The fixture saw's head feeds by gravity against a spring: the spring-balance check is there.
+    expect(screen.getByRole('article', { name: 'Feed / head pressure' })).toHaveTextContent(
+      'Source: Kerfline’s starting value (no printed source gives one value).',
+    );
+    // The answer comes before the full cautions; a one-line caution opens the page.
+    const result = screen.getByRole('heading', { name: 'Targets' });
+    const cautions = screen.getByRole('region', { name: /Caution: work on the saw safely/ });
+    expect(result.compareDocumentPosition(cautions) & Node.DOCUMENT_POSITION_FOLLOWING).toBeTruthy();
+    expect(screen.getByRole('link', { name: 'All the cautions' })).toHaveAttribute('href', '#safety-cautions');
+  });
+
+  it('leaves out the spring-balance check for a saw whose head feeds hydraulically', async () => {
+    const hydraulic = makeSaw({ headFeed: 'hydraulic' });
+    installFakeApi({
+      'GET /api/me': { status: 200, body: makeMe('technician') },
+      'GET /api/sites': { status: 200, body: page([makeSite({ unitSystem: 'metric' })]) },
+      'GET /api/saws': { status: 200, body: page([hydraulic]) },
+      [`GET /api/saws/${SAW_ID}`]: { status: 200, body: hydraulic },
+      [`GET /api/sites/${SITE_ID}`]: { status: 200, body: makeSite({ unitSystem: 'metric' }) },
+      [`GET /api/sites/${SITE_ID}/settings`]: { status: 200, body: { siteId: SITE_ID, items: shippedSettings() } },
+    });
+    renderApp(`/calculators/check-targets?units=metric&sawId=${SAW_ID}&thickness=1.07`);
+    expect(await screen.findByRole('heading', { level: 1, name: 'Check targets' })).toBeInTheDocument();
+    // The address's figure wins over the saw's record.
+    expect(screen.getByRole('textbox', { name: /Band thickness/ })).toHaveValue('1.07');
+    expect(screen.queryByRole('article', { name: 'Feed / head pressure' })).not.toBeInTheDocument();
+    expect(screen.getByText(/No spring-balance check: this saw’s head feeds hydraulically/)).toBeInTheDocument();
+    // Another calculator keeps the saw.
+    expect(
+      within(screen.getByRole('navigation', { name: 'Calculators' })).getByRole('link', { name: 'Break-in' }),
+    ).toHaveAttribute('href', expect.stringContaining(`sawId=${SAW_ID}`));
   });
 
   it('answers an unknown calculator with a plain not-found page', async () => {

@@ -1,4 +1,4 @@
-import { Link, Outlet, useMatch, useOutletContext, useSearchParams } from 'react-router-dom';
+import { Link, Outlet, useMatch, useOutletContext, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { useQuery, type QueryClient } from '@tanstack/react-query';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { siteListQuery } from '../../../features/sites/api/queries';
@@ -9,6 +9,14 @@ import {
   calculatorHref,
 } from '../../../features/calculators/components/calculator-nav';
 import { unitSystemParam } from '../../../features/calculators/components/quantities';
+import { loadCalculatorSite, sawIdFromSearch, useCalculatorSite } from './calculator-site';
+import { startTextsFromSearch } from '../../../features/calculators/components/saw-links';
+
+/** The saw a calculator was opened for, and its figures, carried to the other calculators. */
+function sawParams(search: URLSearchParams): Record<string, string> {
+  const sawId = sawIdFromSearch(search);
+  return sawId ? { sawId, ...startTextsFromSearch(search) } : {};
+}
 
 /** What the calculators' frame hands to each calculator page. */
 export interface CalculatorsContext {
@@ -21,21 +29,27 @@ export function useCalculatorsContext(): CalculatorsContext {
 }
 
 export function calculatorsLoader(queryClient: QueryClient) {
-  return async () => {
+  return async ({ request }: LoaderFunctionArgs) => {
     // The sites only suggest the starting unit system: a failure there must not stop the calculators.
-    await queryClient.ensureQueryData(siteListQuery()).catch(() => undefined);
+    await Promise.all([
+      queryClient.ensureQueryData(siteListQuery()).catch(() => undefined),
+      loadCalculatorSite(queryClient, new URL(request.url).searchParams),
+    ]);
     return null;
   };
 }
 
 /**
  * The frame of the shop calculators. The unit system lives in the address (`?units=`), so a link to a
- * calculator opens in the same units; without it, the user's first site's units, else metric.
+ * calculator opens in the same units; without it, the units of the saw it was opened for (`?sawId=`), else of
+ * the user's first site, else metric.
  */
 export function CalculatorsLayout() {
   const [search, setSearch] = useSearchParams();
   const { data: sites } = useQuery(siteListQuery());
-  const system = unitSystemParam(search.get('units')) ?? sites?.items[0]?.unitSystem ?? 'metric';
+  const calculatorSite = useCalculatorSite(search);
+  const system =
+    unitSystemParam(search.get('units')) ?? calculatorSite.site?.unitSystem ?? sites?.items[0]?.unitSystem ?? 'metric';
   const onCalculator = useMatch('/calculators/:calculator') !== null;
 
   const setSystem = (next: UnitSystem) =>
@@ -64,7 +78,7 @@ export function CalculatorsLayout() {
             </nav>
             <UnitSwitch value={system} onChange={setSystem} />
           </div>
-          <CalculatorSwitcher system={system} />
+          <CalculatorSwitcher system={system} params={sawParams(search)} />
         </div>
       ) : null}
       <Outlet context={context} />

@@ -14,6 +14,8 @@ import { SawFiguresPanel } from '../../../features/saws/components/saw-figures-p
 import { SawStatusBadge } from '../../../features/saws/components/saw-status-badge';
 import { siteDetailQuery } from '../../../features/sites/api/queries';
 import { siteKeys } from '../../../features/sites/api/keys';
+import { calculatorHrefForSaw } from '../../../features/calculators/components/saw-links';
+import { calculatorSaw } from '../calculators/calculator-site';
 
 export function sawPageLoader(queryClient: QueryClient) {
   return async ({ params }: LoaderFunctionArgs) => {
@@ -128,6 +130,20 @@ export function SawPage() {
         </Card>
       ) : null}
       {retire.isSuccess ? <Notice tone="info">{saw.assetTag} is retired.</Notice> : null}
+
+      {saw.status !== 'retired' ? (
+        <nav aria-label="Figures for the band on this saw" className="flex flex-wrap gap-2">
+          <LinkButton to={calculatorHrefForSaw('check-targets', calculatorSaw(saw), site.unitSystem)}>
+            Check targets for this band
+          </LinkButton>
+          <LinkButton to={calculatorHrefForSaw('break-in', calculatorSaw(saw), site.unitSystem)}>
+            Break-in plan
+          </LinkButton>
+          <LinkButton to={calculatorHrefForSaw('band-speed', calculatorSaw(saw), site.unitSystem)}>
+            Band speed
+          </LinkButton>
+        </nav>
+      ) : null}
 
       <SawDetailPanel saw={saw} unitSystem={site.unitSystem} timeZone={site.timeZone} />
       <SawFiguresPanel saw={saw} unitSystem={site.unitSystem} />

@@ -11,7 +11,6 @@ import {
 } from './calculator-layout';
 import { EntryField, FieldGroup, ModeChoice } from './entry-field';
 import { figure } from './quantities';
-import { SafetyCaution } from './safety-caution';
 import {
   BAND_LENGTH_LABELS,
   bandLengthMode,
@@ -124,7 +123,7 @@ export function BandLengthCalculator({ system }: { system: UnitSystem }) {
     <CalculatorLayout
       title="Band length"
       intro="The band a pair of wheels takes, or the centre distance that fits a band you have."
-      caution={<SafetyCaution />}
+      caution
       form={fields}
       result={
         <>

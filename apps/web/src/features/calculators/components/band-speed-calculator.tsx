@@ -8,7 +8,7 @@ import { rangeFigure } from './quantities';
 import { SawPicker, type CalculatorSaw } from './saw-picker';
 import { StatusBadge, type StatusShape } from './status-badge';
 import { BAND_SPEED_LABELS, MATERIAL_OPTIONS, evaluateBandSpeed, type BandSpeedKey } from './band-speed-values';
-import { useEntries } from './use-entries';
+import { useEntries, type StartTexts } from './use-entries';
 
 const POSITIONS: Record<SpeedPosition, { shape: StatusShape; label: string }> = {
   below: { shape: 'triangle', label: 'Below the range' },
@@ -17,8 +17,19 @@ const POSITIONS: Record<SpeedPosition, { shape: StatusShape; label: string }> = 
 };
 
 /** The recommended band speed for a material, and whether a set speed (and the saw) fits it. */
-export function BandSpeedCalculator({ system, saws = [] }: { system: UnitSystem; saws?: readonly CalculatorSaw[] }) {
-  const form = useEntries<BandSpeedKey>(system, { material: 'carbon_steel', speed: '', sawMin: '', sawMax: '' });
+export function BandSpeedCalculator({
+  system,
+  saws = [],
+  saw,
+  start,
+}: {
+  system: UnitSystem;
+  saws?: readonly CalculatorSaw[];
+  /** The saw the calculator was opened for. */
+  saw?: CalculatorSaw | undefined;
+  start?: StartTexts;
+}) {
+  const form = useEntries<BandSpeedKey>(system, { material: 'carbon_steel', speed: '', sawMin: '', sawMax: '' }, start);
   const { errors, formError, material, recommended, check } = evaluateBandSpeed(form.entries, system);
 
   const pick = (saw: CalculatorSaw) =>
@@ -32,7 +43,12 @@ export function BandSpeedCalculator({ system, saws = [] }: { system: UnitSystem;
     <>
       <ChoiceField label="Material" field={form.bind('material', null, errors)} options={MATERIAL_OPTIONS} />
       <FieldGroup legend="Check a speed (optional)">
-        <SawPicker saws={saws} hint="Takes the saw's band speed range from its record." onPick={pick} />
+        <SawPicker
+          saws={saws}
+          hint="Takes the saw's band speed range from its record."
+          onPick={pick}
+          initial={saw?.id}
+        />
         <EntryField
           label={BAND_SPEED_LABELS.speed}
           hint="The speed the saw is set to, or the one you plan."

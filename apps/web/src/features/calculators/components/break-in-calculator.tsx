@@ -7,9 +7,8 @@ import { Notice } from '../../../lib/ui/notice';
 import { CalculatorLayout, Explanation, ResultFigure, SourceNote, WaitingForInput } from './calculator-layout';
 import { EntryField, FieldGroup, ModeChoice } from './entry-field';
 import { figure, messageInUnits } from './quantities';
-import { SafetyCaution } from './safety-caution';
 import { breakInMode, evaluateBreakIn, type BreakInKey } from './break-in-values';
-import { useEntries } from './use-entries';
+import { useEntries, type StartTexts } from './use-entries';
 
 const percent = (fraction: number) => `${Math.round(fraction * 100)}\u00a0%`;
 const minutes = (value: number) => `${formatNumber(value, 1)}\u00a0min`;
@@ -36,8 +35,8 @@ function explain(plan: BreakInPlan, system: UnitSystem): string {
 }
 
 /** The feed steps that bring a new blade up to normal cutting, measured in minutes or in area cut. */
-export function BreakInCalculator({ system }: { system: UnitSystem }) {
-  const form = useEntries<BreakInKey>(system, { mode: 'time', rate: '' });
+export function BreakInCalculator({ system, start }: { system: UnitSystem; start?: StartTexts }) {
+  const form = useEntries<BreakInKey>(system, { mode: 'time', rate: '' }, start);
   const mode = breakInMode(form.entries.mode);
   const { errors, formError, plan } = evaluateBreakIn(form.entries, system);
   const firstArea = figure('area', BREAK_IN_DEFAULTS.initialAreaMm2, system).text;
@@ -142,7 +141,7 @@ export function BreakInCalculator({ system }: { system: UnitSystem }) {
     <CalculatorLayout
       title="Break-in plan"
       intro="A new blade’s sharp tooth tips need a gentle start. Feed below normal first, then step up to normal cutting."
-      caution={<SafetyCaution />}
+      caution
       form={fields}
       result={
         <>

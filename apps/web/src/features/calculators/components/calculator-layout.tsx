@@ -1,27 +1,35 @@
 import { useId, useRef, type FormEvent, type ReactNode } from 'react';
 import { Button } from '../../../lib/ui/button';
 import { Card } from '../../../lib/ui/card';
+import { SafetyCaution, SafetyCautionBrief } from './safety-caution';
+
+/** The full cautions' place on the page, for the one-line caution's link (one calculator a page). */
+const CAUTION_ID = 'safety-cautions';
 
 /**
  * One calculator's page body: the entries on the left and the result beside them on a wide screen, the result
- * below the entries on a phone. "Work it out" shows every field's message and moves to the result, which on a
- * phone is otherwise out of sight below the keyboard.
+ * right below the entries on a phone. A calculator for work on the saw opens with a one-line caution and shows
+ * the full cautions after the result, so on a phone the answer is not pushed below them. "Work it out" shows
+ * every field's message and moves to the result, which on a phone is otherwise out of sight below the keyboard.
  */
 export function CalculatorLayout({
   title,
   intro,
-  caution,
+  caution = false,
   form,
   result,
+  after,
   resultTitle = 'Result',
   onSubmit,
 }: {
   title: string;
   intro: string;
-  /** The safety caution, for calculators used while adjusting the saw or changing a blade. */
-  caution?: ReactNode;
+  /** Show the safety cautions: for calculators used while adjusting the saw or changing a blade. */
+  caution?: boolean;
   form: ReactNode;
   result: ReactNode;
+  /** The explanation and sources that follow the answer (below both columns). */
+  after?: ReactNode;
   resultTitle?: string;
   onSubmit: () => void;
 }) {
@@ -41,7 +49,7 @@ export function CalculatorLayout({
         <h1 className="text-3xl font-extrabold tracking-tight text-ink">{title}</h1>
         <p className="mt-1 max-w-prose text-ink-muted">{intro}</p>
       </div>
-      {caution}
+      {caution ? <SafetyCautionBrief fullId={CAUTION_ID} /> : null}
       <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,5fr)_minmax(0,6fr)]">
         <Card className="p-4 sm:p-6">
           <form onSubmit={submit} noValidate className="space-y-6" aria-label={title}>
@@ -65,6 +73,8 @@ export function CalculatorLayout({
           <div className="mt-3 space-y-4">{result}</div>
         </Card>
       </div>
+      {after}
+      {caution ? <SafetyCaution id={CAUTION_ID} /> : null}
     </div>
   );
 }

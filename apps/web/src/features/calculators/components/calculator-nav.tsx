@@ -3,9 +3,17 @@ import { Link, NavLink } from 'react-router-dom';
 import { UNIT_SYSTEMS, type UnitSystem } from '@kerfline/domain/sites/schema';
 import { CALCULATORS, type CalculatorSlug } from './catalogue';
 
-/** A calculator's address with the unit system kept, so every link opens in the units the user chose. */
-export function calculatorHref(slug: CalculatorSlug | null, system: UnitSystem): string {
-  return `/calculators${slug ? `/${slug}` : ''}?units=${system}`;
+/**
+ * A calculator's address with the unit system kept, so every link opens in the units the user chose; `params`
+ * (a saw, starting figures) follow it.
+ */
+export function calculatorHref(
+  slug: CalculatorSlug | null,
+  system: UnitSystem,
+  params: Readonly<Record<string, string>> = {},
+): string {
+  const search = new URLSearchParams({ units: system, ...params });
+  return `/calculators${slug ? `/${slug}` : ''}?${search.toString()}`;
 }
 
 const SYSTEM_NAMES: Record<UnitSystem, { name: string; units: string }> = {
@@ -73,14 +81,23 @@ const switcherLinkClass = ({ isActive }: { isActive: boolean }) =>
       : 'border-rule bg-card text-ink hover:border-accent'
   }`;
 
-/** A compact row of the calculators on each calculator's page; the current one is filled and underlined, not only tinted. */
-export function CalculatorSwitcher({ system }: { system: UnitSystem }) {
+/**
+ * A compact row of the calculators on each calculator's page; the current one is filled and underlined, not only
+ * tinted. `params` (the saw the page was opened for) carry over to the other calculators.
+ */
+export function CalculatorSwitcher({
+  system,
+  params = {},
+}: {
+  system: UnitSystem;
+  params?: Readonly<Record<string, string>>;
+}) {
   return (
     <nav aria-label="Calculators">
       <ul className="flex flex-wrap gap-2">
         {CALCULATORS.map((calculator) => (
           <li key={calculator.slug}>
-            <NavLink to={calculatorHref(calculator.slug, system)} className={switcherLinkClass}>
+            <NavLink to={calculatorHref(calculator.slug, system, params)} className={switcherLinkClass}>
               {calculator.short}
             </NavLink>
           </li>

@@ -3,7 +3,7 @@ import { render, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { guideClearanceTarget } from '@kerfline/domain/checks/check-targets';
-import { lengthToDisplay } from '@kerfline/domain/units/display';
+import { smallLengthToDisplay } from '@kerfline/domain/units/display';
 import { CheckTargetsCalculator } from './check-targets-calculator';
 import type { CalculatorSaw } from './saw-picker';
 
@@ -37,10 +37,10 @@ describe('CheckTargetsCalculator', () => {
     await user.type(field(/Band thickness/), '0.035');
     // Common practice, no source: band thickness + 0.001 in = 0.036 in, passing within ±0.001 in.
     const target = guideClearanceTarget({ kind: 'guide_clearance', bandThicknessMm: 0.889 });
-    expect(lengthToDisplay(target.target!, 'imperial', { decimals: 4 }).text).toBe('0.0360 in');
+    expect(smallLengthToDisplay(target.target!, 'imperial').text).toBe('0.036 in');
     const guide = check('Guide bearing clearance');
-    expect(guide).toHaveTextContent('Target0.0360 in');
-    expect(guide).toHaveTextContent('Passes0.0350–0.0370 in');
+    expect(guide).toHaveTextContent('Target0.036 in');
+    expect(guide).toHaveTextContent('Passes0.035–0.037 in');
     expect(within(guide).getByText('Not measured')).toHaveAttribute('data-shape', 'dash');
 
     await user.type(field(/Measured opening/), '0.040');
@@ -65,7 +65,7 @@ describe('CheckTargetsCalculator', () => {
     // 1.0668 mm ÷ 25.4 = 0.042 in; 31.75 mm = 1.25 in.
     expect(field(/Band thickness/)).toHaveValue('0.042');
     expect(field(/Band width/)).toHaveValue('1.25');
-    expect(check('Guide bearing clearance')).toHaveTextContent('Target0.0430 in');
+    expect(check('Guide bearing clearance')).toHaveTextContent('Target0.043 in');
   });
 
   it('puts the schema’s message beside the band thickness', async () => {

@@ -1,40 +1,63 @@
-import { useId } from 'react';
+import { useId, useState } from 'react';
 import type { CheckResult } from '@kerfline/domain/checks/check-targets';
-import { CHECK_DEFAULTS, type CheckKindId } from '@kerfline/domain/checks/schema';
+import { BLADE_MATERIALS, CHECK_DEFAULTS, type CheckKindId } from '@kerfline/domain/checks/schema';
+import type { FigureBasis } from '@kerfline/domain/figures/basis';
+import { settingFigureBasis, settingValue, type SiteSetting } from '@kerfline/domain/settings/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
+import { basisSentence } from '../../../lib/figure-basis';
 import { CalculatorLayout } from './calculator-layout';
 import { ChoiceField, EntryField, FieldGroup } from './entry-field';
-import { figure, rangeFigure, type Quantity } from './quantities';
-import { SafetyCaution } from './safety-caution';
+import { figure, messageInUnits, rangeFigure, type Quantity } from './quantities';
 import { SawPicker, type CalculatorSaw } from './saw-picker';
 import { StatusBadge } from './status-badge';
 import {
   BLADE_MATERIAL_OPTIONS,
   YES_NO_OPTIONS,
   evaluateCheckTargets,
+  type CheckLimits,
   type CheckOutcome,
   type CheckTargetsKey,
 } from './check-targets-values';
-import { useEntries, type EntriesForm, type FieldErrors } from './use-entries';
+import { useEntries, type EntriesForm, type FieldErrors, type StartTexts } from './use-entries';
 import { capitalise } from './words';
 
-/** Lengths in checks are feeler-gauge small: four decimals of an inch, three of a millimetre. */
-const CHECK_DECIMALS: Partial<Record<Quantity, Record<UnitSystem, number>>> = {
-  length: { imperial: 4, metric: 3 },
-  force: { imperial: 1, metric: 1 },
-};
+/** Lengths in checks are feeler-gauge small: thousandths of an inch, hundredths of a millimetre. */
+const checkQuantity = (result: CheckResult): Quantity =>
+  result.unit === 'MPa' ? 'stress' : result.unit === 'N' ? 'force' : 'smallLength';
+/** The domain's check figures are in mm, N or MPa; the display takes Pa for stress. */
+const toSiOf = (result: CheckResult, value: number) => (result.unit === 'MPa' ? value * 1e6 : value);
 
 /** A check's figure (given in the domain's unit: mm, N or MPa) in the user's units. */
 function checkFigure(result: CheckResult, value: number, system: UnitSystem) {
-  if (result.unit === 'MPa') return figure('stress', value * 1e6, system);
-  const quantity: Quantity = result.unit === 'N' ? 'force' : 'length';
-  return figure(quantity, value, system, CHECK_DECIMALS[quantity]?.[system]);
+  return figure(checkQuantity(result), toSiOf(result, value), system);
 }
 
 function checkRange(result: CheckResult, min: number, max: number, system: UnitSystem) {
-  if (result.unit === 'MPa') return rangeFigure('stress', min * 1e6, max * 1e6, system);
-  const quantity: Quantity = result.unit === 'N' ? 'force' : 'length';
-  return rangeFigure(quantity, min, max, system, CHECK_DECIMALS[quantity]?.[system]);
+  return rangeFigure(checkQuantity(result), toSiOf(result, min), toSiOf(result, max), system);
+}
+
+/** The site setting each check's limits come from, where the user has not typed a figure of their own. */
+function settingKeyFor(kind: CheckKindId, material: string): string | null {
+  if (kind === 'guide_clearance') return 'guide_clearance';
+  if (kind === 'feed_pressure') return 'head_force';
+  if (kind === 'band_tension') return `band_tension.${material}`;
+  return null;
+}
+
+/** The limits the site's settings give the checks, in the domain's units. */
+function limitsFrom(settings: readonly SiteSetting[]): CheckLimits {
+  const guide = settingValue(settings, 'guide_clearance');
+  const force = settingValue(settings, 'head_force');
+  const tensionMPa: CheckLimits['tensionMPa'] = {};
+  for (const material of BLADE_MATERIALS) {
+    const range = settingValue(settings, `band_tension.${material}`);
+    if (range) tensionMPa[material] = { minMPa: range.minMPa, maxMPa: range.maxMPa };
+  }
+  return {
+    ...(guide ? { guide: { extraClearanceMm: guide.extraClearanceMm, toleranceMm: guide.toleranceMm } } : {}),
+    ...(force?.maxN === undefined ? {} : { maxHeadForceN: force.maxN }),
+    tensionMPa,
+  };
 }
 
 /** The target and the passing readings of a check, in words and the user's units. */
@@ -82,11 +105,14 @@ function CheckItem({
   form,
   errors,
   system,
+  source,
 }: {
   outcome: CheckOutcome;
   form: EntriesForm<CheckTargetsKey>;
   errors: FieldErrors<CheckTargetsKey>;
   system: UnitSystem;
+  /** Where the target's limits come from, when they are the site's settings; else the domain's own words. */
+  source: string | null;
 }) {
   const headingId = useId();
   const { kind, result } = outcome;
@@ -143,48 +169,102 @@ function CheckItem({
       ) : null}
       {result ? (
         <>
-          <p className="text-sm text-ink">{result.explanation}</p>
           <p className="text-xs text-ink-muted">
             <span className="font-bold">Source: </span>
-            {capitalise(result.basis)}.
+            {source ?? capitalise(result.basis)}.
           </p>
+          {/* The answer first: on a phone the how and why stay one tap away instead of pushing the next check down. */}
+          <details className="group text-sm text-ink">
+            <summary className="flex min-h-11 cursor-pointer items-center font-semibold text-ink underline-offset-4 hover:underline">
+              How to check, and why
+            </summary>
+            <p className="pb-1">{messageInUnits(result.explanation, system)}</p>
+          </details>
         </>
       ) : null}
     </article>
   );
 }
 
-/** Target and tolerance of each maintenance check for a band, and pass or fail for what was measured. */
-export function CheckTargetsCalculator({ system, saws = [] }: { system: UnitSystem; saws?: readonly CalculatorSaw[] }) {
-  const form = useEntries<CheckTargetsKey>(system, {
-    thickness: '',
-    width: '',
-    material: 'bimetal',
-    maxForce: '',
-    guideMeasured: '',
-    trackingMeasured: '',
-    forceMeasured: '',
-    wearMeasured: '',
-    tensionMeasured: '',
-    brushReaches: '',
-    brushWorn: '',
-  });
-  const { errors, checks } = evaluateCheckTargets(form.entries, system);
+/**
+ * Target and tolerance of each maintenance check for a band, and pass or fail for what was measured. Opened for
+ * a saw (`saw`), it starts from that saw's band and leaves out the spring-balance check of a hydraulic head; the
+ * limits are the site's settings (`settings`, shipped values when no site is known), each saying whose it is.
+ */
+export function CheckTargetsCalculator({
+  system,
+  saws = [],
+  saw,
+  start,
+  settings = [],
+  timeZone,
+}: {
+  system: UnitSystem;
+  saws?: readonly CalculatorSaw[];
+  /** The saw the calculator was opened for. */
+  saw?: CalculatorSaw | undefined;
+  start?: StartTexts;
+  settings?: readonly SiteSetting[];
+  /** The settings' site's time zone, for the date a setting was changed. */
+  timeZone?: string | undefined;
+}) {
+  const [current, setCurrent] = useState<CalculatorSaw | undefined>(saw);
+  const form = useEntries<CheckTargetsKey>(
+    system,
+    {
+      thickness: '',
+      width: '',
+      material: 'bimetal',
+      maxForce: '',
+      guideMeasured: '',
+      trackingMeasured: '',
+      forceMeasured: '',
+      wearMeasured: '',
+      tensionMeasured: '',
+      brushReaches: '',
+      brushWorn: '',
+    },
+    start,
+  );
+  const limits = limitsFrom(settings);
+  const evaluation = evaluateCheckTargets(form.entries, system, limits);
+  const { errors } = evaluation;
+  // A hydraulic head's down-force is set by its feed valve: the spring-balance check is not for it.
+  const hydraulic = current?.headFeed === 'hydraulic';
+  const checks = evaluation.checks.filter((outcome) => !(hydraulic && outcome.kind.kind === 'feed_pressure'));
   // A summary on top, so a failed check is seen without scrolling the list on a phone.
   const failed = checks.filter((outcome) => outcome.result?.passed === false).length;
   const passed = checks.filter((outcome) => outcome.result?.passed === true).length;
-  const usualForce = figure('force', CHECK_DEFAULTS.maxHeadForceN, system, 1).text;
+  const usualForce = figure('force', limits.maxHeadForceN ?? CHECK_DEFAULTS.maxHeadForceN, system).text;
 
-  const pick = (saw: CalculatorSaw) =>
+  /** Where a check's limits come from: the site's setting, unless the user typed the figure it would give. */
+  const sourceOf = (kind: CheckKindId): string | null => {
+    if (kind === 'feed_pressure' && form.entries.maxForce.text.trim() !== '')
+      return 'The largest head force typed above';
+    const key = settingKeyFor(kind, form.entries.material.text);
+    const setting = key ? settings.find((s) => s.key === key) : undefined;
+    if (!setting) return null;
+    const basis: FigureBasis = settingFigureBasis(setting);
+    return basisSentence(basis, timeZone);
+  };
+
+  const pick = (saw: CalculatorSaw) => {
+    setCurrent(saw);
     form.fill({
       // The saw's record is in millimetres; the fields show them in the user's unit.
       thickness: { text: String(saw.bandThicknessMm), system: 'metric' },
       width: { text: String(saw.bandWidthMm), system: 'metric' },
     });
+  };
 
   const fields = (
     <FieldGroup legend="Band and saw">
-      <SawPicker saws={saws} hint="Takes the band thickness and width from the saw's record." onPick={pick} />
+      <SawPicker
+        saws={saws}
+        hint="Takes the band thickness and width from the saw's record."
+        onPick={pick}
+        initial={saw?.id}
+      />
       <EntryField
         label="Band thickness"
         hint="The gauge of the band body."
@@ -207,8 +287,8 @@ export function CheckTargetsCalculator({ system, saws = [] }: { system: UnitSyst
   return (
     <CalculatorLayout
       title="Check targets"
-      intro="What each maintenance check should read for this band, and whether a reading passes. Enter the band, then any readings."
-      caution={<SafetyCaution />}
+      intro="What each maintenance check should read for this band, and whether a reading passes."
+      caution
       form={fields}
       resultTitle="Targets"
       result={
@@ -222,9 +302,22 @@ export function CheckTargetsCalculator({ system, saws = [] }: { system: UnitSyst
           ) : null}
           <div className="divide-y divide-rule">
             {checks.map((outcome) => (
-              <CheckItem key={outcome.kind.kind} outcome={outcome} form={form} errors={errors} system={system} />
+              <CheckItem
+                key={outcome.kind.kind}
+                outcome={outcome}
+                form={form}
+                errors={errors}
+                system={system}
+                source={sourceOf(outcome.kind.kind)}
+              />
             ))}
           </div>
+          {hydraulic ? (
+            <p className="border-t border-rule pt-3 text-sm text-ink-muted">
+              No spring-balance check: this saw’s head feeds hydraulically, so its down-force is set by the feed valve,
+              not read on a balance.
+            </p>
+          ) : null}
         </>
       }
       onSubmit={form.submit}

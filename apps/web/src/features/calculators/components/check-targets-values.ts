@@ -64,6 +64,16 @@ export interface CheckOutcome {
   waiting: string | null;
 }
 
+/**
+ * The limits a site keeps in its settings (see the registry), in the domain's units: used where the user has not
+ * typed a figure of their own.
+ */
+export interface CheckLimits {
+  guide?: { extraClearanceMm?: number; toleranceMm?: number };
+  maxHeadForceN?: number;
+  tensionMPa?: Partial<Record<BladeMaterial, { minMPa?: number; maxMPa?: number }>>;
+}
+
 export interface CheckTargetsEvaluation {
   errors: FieldErrors<CheckTargetsKey>;
   checks: CheckOutcome[];
@@ -114,6 +124,7 @@ const kindInfo = (id: CheckKind['kind']): CheckKind => CHECK_KINDS.find((kind) =
 export function evaluateCheckTargets(
   entries: Record<CheckTargetsKey, Entry>,
   system: UnitSystem,
+  limits: CheckLimits = {},
 ): CheckTargetsEvaluation {
   const errors: FieldErrors<CheckTargetsKey> = {};
   const thicknessMm = take(readQuantity(entries.thickness, 'length'), 'thickness', 'Band thickness', errors);
@@ -134,7 +145,7 @@ export function evaluateCheckTargets(
       ? null
       : runCheck(
           guideClearanceInputSchema,
-          { kind: 'guide_clearance', bandThicknessMm: thicknessMm, measuredMm: measured.guide },
+          { kind: 'guide_clearance', bandThicknessMm: thicknessMm, measuredMm: measured.guide, ...limits.guide },
           { bandThicknessMm: 'thickness', measuredMm: 'guideMeasured' },
           errors,
           system,
@@ -156,7 +167,7 @@ export function evaluateCheckTargets(
       ? null
       : runCheck(
           feedPressureInputSchema,
-          { kind: 'feed_pressure', maxHeadForceN: maxForceN, measuredN: measured.force },
+          { kind: 'feed_pressure', maxHeadForceN: maxForceN ?? limits.maxHeadForceN, measuredN: measured.force },
           { maxHeadForceN: 'maxForce', measuredN: 'forceMeasured' },
           errors,
           system,
@@ -175,6 +186,7 @@ export function evaluateCheckTargets(
     {
       kind: 'band_tension',
       bladeMaterial: entries.material.text,
+      ...limits.tensionMPa?.[entries.material.text as BladeMaterial],
       measuredMPa: measured.tensionPa === null ? null : measured.tensionPa / 1e6,
     },
     { bladeMaterial: 'material', measuredMPa: 'tensionMeasured' },

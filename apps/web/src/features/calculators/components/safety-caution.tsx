@@ -15,13 +15,32 @@ export function WarningTriangle({ className = 'size-12' }: { className?: string 
 }
 
 /**
+ * One line at the top of a calculator for work on the saw: the first rule, and where the full cautions are. On a
+ * phone the answer comes next and the full cautions after it, so neither is out of sight.
+ */
+export function SafetyCautionBrief({ fullId }: { fullId: string }) {
+  return (
+    <p className="flex items-center gap-3 rounded-sheet border-2 border-ink bg-signal-caution-soft px-3 py-2 text-sm text-ink">
+      <WarningTriangle className="size-6" />
+      <span>
+        <strong>Caution:</strong> isolate and lock out the power before reaching into the saw.{' '}
+        <a href={`#${fullId}`} className="font-semibold underline underline-offset-4">
+          All the cautions
+        </a>
+      </span>
+    </p>
+  );
+}
+
+/**
  * The usual cautions for adjusting a saw or changing a blade, shown on every calculator used for those jobs.
  * They point to the employer's procedures, local rules and the maker's manual, which always come first.
  */
-export function SafetyCaution() {
+export function SafetyCaution({ id }: { id?: string }) {
   const headingId = useId();
   return (
     <section
+      id={id}
       aria-labelledby={headingId}
       className="flex gap-4 rounded-sheet border-2 border-ink bg-signal-caution-soft p-4 sm:p-5"
     >

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import type { HeadFeed } from '@kerfline/domain/saws/schema';
 import { Field, inputClass } from '../../../lib/ui/field';
 
 /**
@@ -9,6 +10,9 @@ export interface CalculatorSaw {
   id: string;
   /** How the saw is named in the list, e.g. "HAM-S01 · Bay 1 bar saw". */
   label: string;
+  /** How the head feeds; unknown for a saw typed in by hand. */
+  headFeed?: HeadFeed;
+  wheelDiameterMm?: number;
   bandThicknessMm: number;
   bandWidthMm: number;
   bandSpeedMinMPerMin: number;
@@ -20,12 +24,15 @@ export function SawPicker({
   saws,
   hint,
   onPick,
+  initial = '',
 }: {
   saws: readonly CalculatorSaw[];
   hint: string;
   onPick: (saw: CalculatorSaw) => void;
+  /** The saw the calculator was opened for, shown as chosen. */
+  initial?: string;
 }) {
-  const [chosen, setChosen] = useState('');
+  const [chosen, setChosen] = useState(initial);
   if (saws.length === 0) return null;
   return (
     <Field label="Fill in from a saw" hint={hint} className="sm:col-span-2">

@@ -26,15 +26,25 @@ export interface EntriesForm<K extends string> {
 }
 
 /**
+ * Starting texts a calculator was opened with (from its address: `?thickness=0.042&width=1.25`), typed in the
+ * address's unit system. Names the calculator does not have are ignored.
+ */
+export type StartTexts = Readonly<Partial<Record<string, string>>>;
+
+/**
  * The entries of one calculator. Each keeps what was typed and the unit system it was typed in (see
  * `entryText`). A field's message shows once the user has typed in it and left it, or asked for the result:
- * nobody is told off for a field they have not reached yet.
+ * nobody is told off for a field they have not reached yet. `start` fills fields when the calculator opens.
  */
-export function useEntries<K extends string>(system: UnitSystem, initial: Record<K, string>): EntriesForm<K> {
+export function useEntries<K extends string>(
+  system: UnitSystem,
+  initial: Record<K, string>,
+  start: StartTexts = {},
+): EntriesForm<K> {
   const [entries, setEntries] = useState<Record<K, Entry>>(() => {
-    const start = {} as Record<K, Entry>;
-    for (const key of Object.keys(initial) as K[]) start[key] = { text: initial[key], system };
-    return start;
+    const first = {} as Record<K, Entry>;
+    for (const key of Object.keys(initial) as K[]) first[key] = { text: start[key] ?? initial[key], system };
+    return first;
   });
   const [dirty, setDirty] = useState<Partial<Record<K, true>>>({});
   const [left, setLeft] = useState<Partial<Record<K, true>>>({});
