@@ -34,6 +34,10 @@ describe('the saw page', () => {
       `/calculators/break-in?units=imperial&sawId=${SAW_ID}&${figures}`,
     );
     expect(screen.getByText('Gravity or spring')).toBeInTheDocument();
+    // The guide opening says whose figure it is: here Kerfline's shipped value (no site settings answered).
+    expect(screen.getByRole('region', { name: 'Figures for this saw' })).toHaveTextContent(
+      'Band thickness plus 0.001 in; 0.042 in to 0.044 in passes. Kerfline’s starting value (no printed source gives one value).',
+    );
   });
 
   it('offers no figures for a retired saw', async () => {

@@ -1,12 +1,15 @@
 import { useRef, useState } from 'react';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { useQueryClient, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
+import { useQuery, useQueryClient, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
+import { settingFigureBasis, shippedSettings } from '@kerfline/domain/settings/schema';
 import { subject } from '@casl/ability';
 import { useAppAbility } from '../../../lib/ability';
 import { Button, LinkButton } from '../../../lib/ui/button';
 import { Card } from '../../../lib/ui/card';
 import { Notice } from '../../../lib/ui/notice';
 import { formatDate } from '../../../lib/format';
+import { basisSentence } from '../../../lib/figure-basis';
+import { siteSettingsQuery } from '../../../features/site-settings/api/queries';
 import { sawDetailQuery } from '../../../features/saws/api/queries';
 import { useRetireSaw } from '../../../features/saws/api/mutations';
 import { SawDetailPanel } from '../../../features/saws/components/saw-detail-panel';
@@ -20,7 +23,11 @@ import { calculatorSaw } from '../calculators/calculator-site';
 export function sawPageLoader(queryClient: QueryClient) {
   return async ({ params }: LoaderFunctionArgs) => {
     const saw = await queryClient.ensureQueryData(sawDetailQuery(params.sawId ?? ''));
-    await queryClient.ensureQueryData(siteDetailQuery(saw.siteId));
+    await Promise.all([
+      queryClient.ensureQueryData(siteDetailQuery(saw.siteId)),
+      // The settings only say whose the guide opening is; the page shows shipped values without them.
+      queryClient.ensureQueryData(siteSettingsQuery(saw.siteId)).catch(() => undefined),
+    ]);
     return null;
   };
 }
@@ -30,6 +37,8 @@ export function SawPage() {
   const sawId = useParams().sawId ?? '';
   const { data: saw } = useSuspenseQuery(sawDetailQuery(sawId));
   const { data: site } = useSuspenseQuery(siteDetailQuery(saw.siteId));
+  const { data: settings } = useQuery(siteSettingsQuery(saw.siteId));
+  const guideSetting = (settings?.items ?? shippedSettings()).find((s) => s.key === 'guide_clearance');
   const ability = useAppAbility();
   const queryClient = useQueryClient();
   const retire = useRetireSaw(saw.id);
@@ -146,7 +155,19 @@ export function SawPage() {
       ) : null}
 
       <SawDetailPanel saw={saw} unitSystem={site.unitSystem} timeZone={site.timeZone} />
-      <SawFiguresPanel saw={saw} unitSystem={site.unitSystem} />
+      <SawFiguresPanel
+        saw={saw}
+        unitSystem={site.unitSystem}
+        guide={
+          guideSetting
+            ? {
+                extraClearanceMm: guideSetting.value.extraClearanceMm,
+                toleranceMm: guideSetting.value.toleranceMm,
+                source: basisSentence(settingFigureBasis(guideSetting), site.timeZone),
+              }
+            : undefined
+        }
+      />
     </div>
   );
 }

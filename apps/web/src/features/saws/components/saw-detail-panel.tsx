@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import type { Saw } from '@kerfline/domain/saws/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
-import { formatDateTime, formatLength, formatSpeed } from '../../../lib/format';
+import { formatDateTime, formatLength, formatSmallLength, formatSpeed } from '../../../lib/format';
 import { Card } from '../../../lib/ui/card';
 import { HEAD_FEED_LABELS, SAW_KIND_LABELS } from './saws-table';
 
@@ -43,7 +43,7 @@ export function SawDetailPanel({ saw, unitSystem, timeZone }: { saw: Saw; unitSy
       </Section>
       <Section title="Band it takes">
         <Fact label="Band width">{formatLength(saw.bandWidthMm, unitSystem)}</Fact>
-        <Fact label="Band thickness">{formatLength(saw.bandThicknessMm, unitSystem)}</Fact>
+        <Fact label="Band thickness">{formatSmallLength(saw.bandThicknessMm, unitSystem)}</Fact>
         <Fact label="Band length">{formatLength(saw.bandLengthMm, unitSystem)}</Fact>
         <Fact label="Band speed">
           {formatSpeed(saw.bandSpeedMinMPerMin, unitSystem)} to {formatSpeed(saw.bandSpeedMaxMPerMin, unitSystem)}

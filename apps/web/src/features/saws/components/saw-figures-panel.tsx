@@ -1,7 +1,7 @@
 import type { Saw } from '@kerfline/domain/saws/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { stressToDisplay } from '@kerfline/domain/units/display';
-import { formatLength, formatNumber } from '../../../lib/format';
+import { formatLength, formatNumber, formatSmallLength } from '../../../lib/format';
 import { Card } from '../../../lib/ui/card';
 import { sawFigures } from './saw-figures';
 
@@ -21,8 +21,17 @@ function Row({ label, value, note }: { label: string; value: string; note: strin
  * What the trade's arithmetic says about this saw's recorded geometry: whether the band length agrees with the
  * wheels, how hard the wheels bend the band, and the targets for the checks made at every blade change.
  */
-export function SawFiguresPanel({ saw, unitSystem }: { saw: Saw; unitSystem: UnitSystem }) {
-  const figures = sawFigures(saw);
+export function SawFiguresPanel({
+  saw,
+  unitSystem,
+  guide,
+}: {
+  saw: Saw;
+  unitSystem: UnitSystem;
+  /** The site's guide-opening setting (mm) and where it comes from, in words; shipped values when not given. */
+  guide?: { extraClearanceMm?: number; toleranceMm?: number; source: string };
+}) {
+  const figures = sawFigures(saw, guide);
   if (!figures) return null;
   const length = (mm: number) => formatLength(mm, unitSystem);
   const difference = `${figures.lengthDifferenceMm >= 0 ? '+' : '−'}${length(Math.abs(figures.lengthDifferenceMm))}`;
@@ -61,8 +70,8 @@ export function SawFiguresPanel({ saw, unitSystem }: { saw: Saw; unitSystem: Uni
         />
         <Row
           label="Guide opening"
-          value={length(figures.guideClearance.targetMm)}
-          note={`Band thickness plus 0.001 in (common practice); ${length(figures.guideClearance.minMm)} to ${length(figures.guideClearance.maxMm)} passes.`}
+          value={formatSmallLength(figures.guideClearance.targetMm, unitSystem)}
+          note={`Band thickness plus ${formatSmallLength(figures.guideClearance.targetMm - saw.bandThicknessMm, unitSystem)}; ${formatSmallLength(figures.guideClearance.minMm, unitSystem)} to ${formatSmallLength(figures.guideClearance.maxMm, unitSystem)} passes.${guide ? ` ${guide.source}.` : ''}`}
         />
         <Row
           label="Tracking overhang"

@@ -30,12 +30,16 @@ export type SawFigures = {
  * The trade's figures for one saw's recorded geometry, all from the domain's computations (SI in and out).
  * Returns null when the record cannot give them (a centre distance too short for the wheels, say).
  */
-export function sawFigures(saw: Saw): SawFigures | null {
+export function sawFigures(
+  saw: Saw,
+  /** The site's guide-opening setting (mm): opening over the band thickness and the extra allowed. */
+  guide: { extraClearanceMm?: number; toleranceMm?: number } = {},
+): SawFigures | null {
   try {
     const wheels = { driveWheelDiameterMm: saw.wheelDiameterMm, idlerWheelDiameterMm: saw.wheelDiameterMm };
     const geometryLengthMm = bandLengthMm({ ...wheels, centreDistanceMm: saw.centreDistanceMm });
     const lengthDifferenceMm = saw.bandLengthMm - geometryLengthMm;
-    const guide = guideClearanceTarget({ kind: 'guide_clearance', bandThicknessMm: saw.bandThicknessMm });
+    const opening = guideClearanceTarget({ kind: 'guide_clearance', bandThicknessMm: saw.bandThicknessMm, ...guide });
     return {
       geometryLengthMm,
       lengthDifferenceMm,
@@ -45,7 +49,7 @@ export function sawFigures(saw: Saw): SawFigures | null {
         bandSpeedMPerMin: saw.bandSpeedMaxMPerMin,
         bandLengthMm: saw.bandLengthMm,
       }).bendCyclesPerHour,
-      guideClearance: { targetMm: guide.target!, minMm: guide.min!, maxMm: guide.max! },
+      guideClearance: { targetMm: opening.target!, minMm: opening.min!, maxMm: opening.max! },
       trackingOverhangMm: trackingTarget({ kind: 'tracking', bandWidthMm: saw.bandWidthMm }).target!,
     };
   } catch {
