@@ -175,7 +175,15 @@ function CheckItem({
           </p>
           {/* The answer first: on a phone the how and why stay one tap away instead of pushing the next check down. */}
           <details className="group text-sm text-ink">
-            <summary className="flex min-h-11 cursor-pointer items-center font-semibold text-ink underline-offset-4 hover:underline">
+            <summary className="flex min-h-11 cursor-pointer list-none items-center gap-2 font-semibold text-ink underline-offset-4 hover:underline [&::-webkit-details-marker]:hidden">
+              <svg
+                viewBox="0 0 12 12"
+                aria-hidden="true"
+                focusable="false"
+                className="size-3 shrink-0 transition-transform group-open:rotate-90"
+              >
+                <path d="M4 2 8.5 6 4 10" fill="none" stroke="currentColor" strokeWidth="2" strokeLinecap="round" />
+              </svg>
               How to check, and why
             </summary>
             <p className="pb-1">{messageInUnits(result.explanation, system)}</p>
@@ -278,7 +286,7 @@ export function CheckTargetsCalculator({
       />
       <EntryField
         label="Largest head force"
-        hint={`This saw's maximum; leave empty for the usual ${usualForce}.`}
+        hint={`This saw's maximum; leave empty to use ${settings.find((s) => s.key === 'head_force')?.source === 'site' ? 'the site’s setting' : 'Kerfline’s starting value'}, ${usualForce}.`}
         field={form.bind('maxForce', 'force', errors)}
       />
     </FieldGroup>

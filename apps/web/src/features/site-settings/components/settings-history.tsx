@@ -16,12 +16,19 @@ function changeLines(entry: AuditEntry, system: UnitSystem): { label: string; be
   const def = settingDefinition(entry.entityId);
   const keys = new Set([...Object.keys(entry.before ?? {}), ...Object.keys(entry.after ?? {})]);
   keys.delete('source');
-  return [...keys].map((name) => {
-    const field = def?.fields.find((f) => f.name === name);
-    const show = (value: unknown) =>
-      typeof value !== 'number' ? '—' : field ? fieldText(field, value, system) : String(value);
-    return { label: field?.label ?? name, before: show(entry.before?.[name]), after: show(entry.after?.[name]) };
-  });
+  // In the setting's own order (the database keeps JSON keys in its own), fields it no longer has last.
+  const order = (name: string) => {
+    const index = def?.fields.findIndex((f) => f.name === name) ?? -1;
+    return index === -1 ? Number.MAX_SAFE_INTEGER : index;
+  };
+  return [...keys]
+    .sort((a, b) => order(a) - order(b))
+    .map((name) => {
+      const field = def?.fields.find((f) => f.name === name);
+      const show = (value: unknown) =>
+        typeof value !== 'number' ? '—' : field ? fieldText(field, value, system) : String(value);
+      return { label: field?.label ?? name, before: show(entry.before?.[name]), after: show(entry.after?.[name]) };
+    });
 }
 
 /**
