@@ -72,6 +72,10 @@ describe('figures and messages in the user’s units', () => {
     expect(messageInUnits('Tension to 206.843–241.317 MPa (30,000–35,000 psi) on a meter.', 'imperial')).toBe(
       'Tension to 30,000–35,000\u00a0psi (206.8–241.3\u00a0MPa) on a meter.',
     );
+    // Each system's figure comes from the one written in it: 207 MPa rounded does not become 30,023 psi.
+    expect(messageInUnits('Tension to 207–241 MPa (30,000–35,000 psi).', 'imperial')).toBe(
+      'Tension to 30,000–35,000\u00a0psi (207–241\u00a0MPa).',
+    );
     // An inch figure alone is left as written: "in" is also a word.
     expect(messageInUnits('3 in a row', 'metric')).toBe('3 in a row');
   });

@@ -167,21 +167,32 @@ function figuresIn(quantity: Quantity, values: number[], system: UnitSystem): st
  */
 export function messageInUnits(message: string, system: UnitSystem): string {
   return message.replace(FIGURE_WITH_UNIT, (whole: string, ...groups: (string | undefined)[]) => {
-    const [low, high, unit, , , unit2] = groups as [string, string | undefined, string, unknown, unknown, string?];
+    const [low, high, unit, low2, high2, unit2] = groups as [
+      string,
+      string | undefined,
+      string,
+      string | undefined,
+      string | undefined,
+      string?,
+    ];
     const info = MESSAGE_UNITS.find((u) => u.unit === unit)!;
     const second = unit2 === undefined ? undefined : MESSAGE_UNITS.find((u) => u.unit === unit2);
     const paired = second !== undefined && second.quantity === info.quantity && second.system !== info.system;
     // An imperial unit alone is left as written: "in" is also a word ("3 in a row").
     if (!paired && !SI_MESSAGE_UNITS.has(unit)) return whole;
-    const values = [low, high].filter((v): v is string => v !== undefined).map((v) => readFigure(v) * info.toSi);
-    const first = figuresIn(info.quantity, values, system);
+    const siValues = (texts: (string | undefined)[], toSi: number) =>
+      texts.filter((v): v is string => v !== undefined).map((v) => readFigure(v) * toSi);
+    const values = siValues([low, high], info.toSi);
+    // Each system's figure is printed from the figure the message wrote in it, so nothing is rounded twice.
+    const valuesIn = (target: UnitSystem) =>
+      paired && second.system === target ? siValues([low2, high2], second.toSi) : values;
+    const first = figuresIn(info.quantity, valuesIn(system), system);
     const rest = unit2 !== undefined && !paired ? whole.slice(whole.indexOf(' (')) : '';
     // Zero is zero in every unit: "greater than 0 mm" needs no "(0 in)".
     const allZero = values.every((v) => v === 0);
     const showOther = !allZero && (paired || info.system !== system);
-    return showOther
-      ? `${first} (${figuresIn(info.quantity, values, OTHER_SYSTEM[system])})${rest}`
-      : `${first}${rest}`;
+    const other = OTHER_SYSTEM[system];
+    return showOther ? `${first} (${figuresIn(info.quantity, valuesIn(other), other)})${rest}` : `${first}${rest}`;
   });
 }
 
