@@ -63,3 +63,17 @@ export const ASME_B36_10M: PrintedSource = {
   citation:
     'ASME B36.10M, Welded and Seamless Wrought Steel Pipe, dimension table (as reprinted in AISC Manual Table 1-14)',
 };
+
+/** NIST SP 811 (2008), Appendix B.8: exact conversion factors (inch, foot, pound-force). */
+export const NIST_SP_811: PrintedSource = {
+  id: 'nist-sp-811',
+  citation:
+    'NIST Special Publication 811 (2008 ed.), Guide for the Use of the International System of Units, Appendix B.8',
+};
+
+/** Shigley's flat belt geometry: open-belt length and the flat metal belt example. */
+export const SHIGLEY_FLAT_BELTS: PrintedSource = {
+  id: 'shigley-ch17',
+  citation:
+    "Budynas & Nisbett, Shigley's Mechanical Engineering Design (McGraw-Hill), ch. 17, flat belts: open-belt length and flat metal belt stresses",
+};
