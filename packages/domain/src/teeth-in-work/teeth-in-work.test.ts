@@ -8,7 +8,7 @@ import { meanTpi, parsePitchLabel, pitchLabel, STANDARD_PITCHES } from './pitch.
 import { pitchAdvice, recommendPitches } from './recommend-pitches.js';
 import { PRINTED_PITCH_PAIRS, tablePitchForLengthOfCut } from './pitch-table.js';
 import type { Pitch } from './schema.js';
-import { judgeTeethInWork, TEETH_FITS, TEETH_IN_WORK_RULE, teethInWork, teethInWorkForStock } from './teeth-in-work.js';
+import { judgeTeethInWork, TEETH_IN_WORK_RULE, teethInWork, teethInWorkForStock } from './teeth-in-work.js';
 
 const constant = (tpi: number): Pitch => ({ kind: 'constant', tpi });
 const variable = (coarseTpi: number, fineTpi: number): Pitch => ({ kind: 'variable', coarseTpi, fineTpi });
