@@ -146,7 +146,11 @@ export function TeethInWorkCalculator({ system }: { system: UnitSystem }) {
           label="Metal under the band"
           value={metal.number}
           unit={metal.unit}
-          detail={`${capitalise(engaged.minLabel)} to ${engaged.maxLabel}: ${engaged.basis}.`}
+          detail={
+            engaged.minLabel === 'least'
+              ? `Least to greatest during the cut: ${engaged.basis}.`
+              : `${capitalise(engaged.basis)}.`
+          }
         />
         <section aria-label="Pitches that suit this stock">
           <h3 className="text-base font-bold text-ink">Pitches that suit this stock</h3>
@@ -182,7 +186,7 @@ export function TeethInWorkCalculator({ system }: { system: UnitSystem }) {
         </section>
         <SourceNote>
           {evaluation.advice?.note}{' '}
-          {evaluation.advice?.basis?.kind === 'published' ? `Source: ${evaluation.advice.basis.citation}. ` : ''}
+          {evaluation.advice?.basis?.kind === 'published' ? `${evaluation.advice.basis.citation}. ` : ''}
           Guards: fewer than {fewest} teeth in the work strip teeth, more than {most} overload the gullets; {bestFewest}{' '}
           to {bestMost} is the trade&apos;s usual preference, shown but never put above the printed table. Teeth = TPI ×
           inches of metal under the band; a variable pitch counts by the mean of its two ends (4/6 → 5 TPI).
