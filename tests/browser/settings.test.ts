@@ -34,26 +34,27 @@ describe('a site admin keeps the site’s own settings', () => {
     await page.waitForURL('**/settings');
     await expect.poll(() => page.getByRole('heading', { level: 1, name: 'Site settings' }).count()).toBe(1);
 
-    const card = page.getByRole('article', { name: 'Band tension, bi-metal bands' });
-    // Shipped at 30,000–35,000 psi: an imperial site reads psi first, MPa second.
-    expect(await textOf(card)).toContain('30,000 psi (206.8 MPa)');
+    const card = page.getByRole('article', { name: 'Band tension, carbide-tipped bands' });
+    // Carbide-tipped bands have no printed range: shipped at the bi-metal 25,000–30,000 psi, psi first on an
+    // imperial site, MPa second.
+    expect(await textOf(card)).toContain('25,000 psi (172.4 MPa)');
     expect(await textOf(card)).toContain('Source: Kerfline’s starting value (no printed source gives one value).');
     await shot(page, 'settings-desktop');
 
-    await card.getByRole('button', { name: /^Change Band tension, bi-metal/ }).click();
+    await card.getByRole('button', { name: /^Change Band tension, carbide-tipped/ }).click();
     const lowest = card.getByRole('textbox', { name: /Lowest/ });
-    expect(await lowest.inputValue()).toBe('30000');
-    await lowest.fill('31000');
+    expect(await lowest.inputValue()).toBe('25000');
+    await lowest.fill('26000');
     await card.getByRole('button', { name: 'Save for this site' }).click();
-    // 31,000 psi × 6,894.757 Pa/psi = 213.7 MPa (NIST SP 811 (2008), B.8).
-    await expect.poll(() => textOf(card)).toContain('31,000 psi (213.7 MPa)');
+    // 26,000 psi × 6,894.757 Pa/psi = 179.3 MPa (NIST SP 811 (2008), B.8).
+    await expect.poll(() => textOf(card)).toContain('26,000 psi (179.3 MPa)');
     expect(await textOf(card)).toContain(
       `Source: Your site’s setting, changed by Ines Carvalho on ${todayAtHammerfield()}.`,
     );
-    expect(await textOf(card)).toContain('Kerfline’s value: Lowest 30,000 psi (206.8 MPa)');
+    expect(await textOf(card)).toContain('Kerfline’s value: Lowest 25,000 psi (172.4 MPa)');
 
     const history = page.getByRole('region', { name: 'Changes to these settings' });
-    await expect.poll(() => textOf(history)).toMatch(/Lowest: 30,000 psi →\s+changed to\s+31,000 psi/);
+    await expect.poll(() => textOf(history)).toMatch(/Lowest: 25,000 psi →\s+changed to\s+26,000 psi/);
     expect(await textOf(history)).toContain('Ines Carvalho');
     await shot(page, 'settings-changed-desktop');
 
@@ -61,9 +62,9 @@ describe('a site admin keeps the site’s own settings', () => {
     await card.scrollIntoViewIfNeeded();
     await shot(page, 'settings-changed-phone');
 
-    await card.getByRole('button', { name: /^Put back Kerfline’s value of Band tension, bi-metal/ }).click();
+    await card.getByRole('button', { name: /^Put back Kerfline’s value of Band tension, carbide-tipped/ }).click();
     await expect.poll(() => textOf(card)).toContain('Source: Kerfline’s starting value');
-    expect(await textOf(card)).toContain('30,000 psi (206.8 MPa)');
+    expect(await textOf(card)).toContain('25,000 psi (172.4 MPa)');
     await expect.poll(() => textOf(history)).toContain('Put back to Kerfline’s value.');
     await context.close();
   });
@@ -104,7 +105,7 @@ describe('from a saw to its figures, on a phone', () => {
     const guide = page.getByRole('article', { name: 'Guide bearing clearance' });
     await expect.poll(() => textOf(guide)).toMatch(/Target\s+0\.036 in/);
     expect(await textOf(guide)).toContain('Kerfline’s starting value');
-    expect(await page.getByRole('article', { name: 'Feed / head pressure' }).count()).toBe(1);
+    expect(await page.getByRole('article', { name: 'Head down-force' }).count()).toBe(1);
 
     // The answer sits right under the entries, and before the full cautions.
     const targetsTop = await page
@@ -134,8 +135,8 @@ describe('from a saw to its figures, on a phone', () => {
     await shot(page, 'break-in-from-saw-phone');
     await page.getByRole('navigation', { name: 'Calculators' }).getByRole('link', { name: 'Check targets' }).click();
     await page.waitForURL('**/calculators/check-targets?units=imperial&sawId=*');
-    await expect.poll(() => page.getByText(/No spring-balance check/).count()).toBe(1);
-    expect(await page.getByRole('article', { name: 'Feed / head pressure' }).count()).toBe(0);
+    await expect.poll(() => page.getByText(/No head down-force check/).count()).toBe(1);
+    expect(await page.getByRole('article', { name: 'Head down-force' }).count()).toBe(0);
     await context.close();
   });
 });

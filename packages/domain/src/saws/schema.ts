@@ -7,10 +7,11 @@ export type SawKind = (typeof SAW_KINDS)[number];
 /**
  * How the saw's head is fed down into the cut: by its own weight held back by a spring or counterweight
  * (`gravity_spring`), or by a hydraulic cylinder (`hydraulic`). The spring-balance head-force check applies only
- * to the first: a hydraulic head's down-force is set by its feed valve, not read on a balance.
+ * to the first: a hydraulic head's down-force is set by its feed valve, not read on a balance. One list, kept
+ * with the checks that read it.
  */
-export const HEAD_FEEDS = ['gravity_spring', 'hydraulic'] as const;
-export type HeadFeed = (typeof HEAD_FEEDS)[number];
+export { HEAD_FEEDS, type HeadFeed } from '../checks/schema.js';
+import { HEAD_FEEDS } from '../checks/schema.js';
 
 /** in_service: available to cut; down: stopped for a fault or repair; retired: kept for history only. */
 export const SAW_STATUSES = ['in_service', 'down', 'retired'] as const;

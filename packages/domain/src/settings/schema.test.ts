@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { SITE_SETTINGS, settingDefinition } from './registry.js';
 import {
+  effectiveSettingsOf,
   settingFigureBasis,
   settingValue,
   shippedSettings,
@@ -9,7 +10,9 @@ import {
   type SiteSetting,
 } from './schema.js';
 
-const tension = settingDefinition('band_tension.bimetal')!;
+// Carbide-tipped tension has no printed range: a shipped starting value. Bi-metal's is published.
+const tension = settingDefinition('band_tension.carbide_tipped')!;
+const published = settingDefinition('band_tension.bimetal')!;
 
 const setting = (overrides: Partial<SiteSetting>): SiteSetting => ({
   key: tension.key,
@@ -39,7 +42,7 @@ describe('a site setting’s value and origin', () => {
 
   it('uses a stored value while it still fits the setting, filling fields added since from the shipped value', () => {
     expect(storedValueInForce(tension, { minMPa: 210, maxMPa: 240 })).toEqual({ minMPa: 210, maxMPa: 240 });
-    expect(storedValueInForce(tension, { minMPa: 210 })).toEqual({ minMPa: 210, maxMPa: tension.defaults.maxMPa });
+    expect(storedValueInForce(tension, { minMPa: 150 })).toEqual({ minMPa: 150, maxMPa: tension.defaults.maxMPa });
     expect(storedValueInForce(tension, { minMPa: 210, maxMPa: 240, retired: 3 })).toEqual({
       minMPa: 210,
       maxMPa: 240,
@@ -55,24 +58,34 @@ describe('a site setting’s value and origin', () => {
     );
     expect(basis).toEqual({
       kind: 'site_setting',
-      settingKey: 'band_tension.bimetal',
+      settingKey: 'band_tension.carbide_tipped',
       changedByName: 'Ines Carvalho',
       changedAt: '2026-11-30T14:00:00.000Z',
-      note: 'No printed table gives one value for this.',
+      note: (tension.basis as { note: string }).note,
     });
   });
 
   it('cites the printed source of a shipped value that has one, and says when there is none', () => {
-    const citation = 'A handbook, 1st ed., Table 1';
-    expect(settingFigureBasis(setting({ shippedBasis: { kind: 'published', citation } }))).toEqual({
-      kind: 'published',
-      citation,
-    });
+    const citation = (published.basis as { citation: string }).citation;
+    const shippedPublished = setting({ key: published.key, shippedBasis: published.basis });
+    expect(settingFigureBasis(shippedPublished)).toEqual({ kind: 'published', citation });
     expect(settingFigureBasis(setting({}))).toMatchObject({ kind: 'site_setting', changedAt: null });
-    // A site's own value over a published one still reads as the site's, and keeps the citation as its note.
-    expect(
-      settingFigureBasis(setting({ source: 'site', shippedBasis: { kind: 'published', citation } })),
-    ).toMatchObject({ kind: 'site_setting', note: `published: ${citation}` });
+    // A site's own value over a published one is the site's, and keeps the citation in its note.
+    const own = settingFigureBasis({ ...shippedPublished, source: 'site', changedAt: '2026-11-30T14:00:00.000Z' });
+    expect(own).toMatchObject({ kind: 'site_setting' });
+    expect(own.kind === 'site_setting' && own.note).toContain(citation);
+  });
+
+  it('hands the computations only the site’s own values', () => {
+    const own = setting({ source: 'site', changedByName: 'Ines Carvalho', changedAt: '2026-11-30T14:00:00.000Z' });
+    expect(effectiveSettingsOf([own, setting({ key: published.key })])).toEqual({
+      [tension.key]: {
+        key: tension.key,
+        values: own.value,
+        changedByName: 'Ines Carvalho',
+        changedAt: '2026-11-30T14:00:00.000Z',
+      },
+    });
   });
 
   it('gives the shipped value of every setting when no site is known', () => {

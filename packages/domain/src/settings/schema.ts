@@ -7,6 +7,7 @@ import { z } from 'zod';
 import { idSchema } from '../common/schema.js';
 import type { FigureBasis } from '../figures/basis.js';
 import type { DisplayQuantityKind } from '../units/display.js';
+import { settingBasis, type EffectiveSetting, type EffectiveSettings } from './effective.js';
 import {
   SITE_SETTINGS,
   settingDefinition,
@@ -73,26 +74,44 @@ export function storedValueInForce(def: SiteSettingDefinition, stored: Record<st
   return parsed.success ? (parsed.data as SettingValues) : null;
 }
 
+/** One setting of a site as the trade's computations take it (`settings/effective.ts`). */
+function effectiveOf(setting: SiteSetting): EffectiveSetting {
+  return {
+    key: setting.key,
+    values: setting.value,
+    changedByName: setting.source === 'site' ? setting.changedByName : null,
+    changedAt: setting.source === 'site' ? setting.changedAt : null,
+  };
+}
+
+/**
+ * A site's settings as the trade's computations take them: the site's own values by key; a setting on the
+ * shipped value is left out, so a computation uses the shipped value and says so.
+ */
+export function effectiveSettingsOf(settings: readonly SiteSetting[]): EffectiveSettings {
+  const effective: Record<string, EffectiveSetting> = {};
+  for (const setting of settings) {
+    if (setting.source === 'site' && settingDefinition(setting.key)) effective[setting.key] = effectiveOf(setting);
+  }
+  return effective;
+}
+
 /**
  * The basis of a figure taken from a site setting, for the screen to put into words: the site's own value
- * (who, when), else the shipped value's printed source, else Kerfline's starting value with the reason it is one.
+ * (who, when), else the shipped value's printed source, else Kerfline's starting value with the reason it is
+ * one — the same rule the computations apply (`settingBasis`).
  */
 export function settingFigureBasis(setting: SiteSetting): FigureBasis {
-  const shippedNote =
-    setting.shippedBasis.kind === 'published'
-      ? `published: ${setting.shippedBasis.citation}`
-      : setting.shippedBasis.note;
-  if (setting.source === 'site') {
-    return {
-      kind: 'site_setting',
-      settingKey: setting.key,
-      changedByName: setting.changedByName,
-      changedAt: setting.changedAt,
-      note: shippedNote,
-    };
-  }
-  if (setting.shippedBasis.kind === 'published') return { kind: 'published', citation: setting.shippedBasis.citation };
-  return { kind: 'site_setting', settingKey: setting.key, changedByName: null, changedAt: null, note: shippedNote };
+  if (settingDefinition(setting.key)) return settingBasis(effectiveOf(setting));
+  // A key the registry no longer has: say only whose value it is.
+  const site = setting.source === 'site';
+  return {
+    kind: 'site_setting',
+    settingKey: setting.key,
+    changedByName: site ? setting.changedByName : null,
+    changedAt: site ? setting.changedAt : null,
+    note: '',
+  };
 }
 
 /** Every registry setting with its shipped value: what a screen uses when it knows no site. */

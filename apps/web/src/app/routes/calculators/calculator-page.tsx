@@ -88,7 +88,17 @@ export function CalculatorPage() {
       calculator = <BandLengthCalculator system={system} />;
       break;
     case 'band-speed':
-      calculator = <BandSpeedCalculator key={key} system={system} saws={saws} saw={saw} start={start} />;
+      calculator = (
+        <BandSpeedCalculator
+          key={key}
+          system={system}
+          saws={saws}
+          saw={saw}
+          start={start}
+          settings={site.settings}
+          timeZone={site.site?.timeZone}
+        />
+      );
       break;
     case 'stock-area':
       calculator = <StockAreaCalculator system={system} />;

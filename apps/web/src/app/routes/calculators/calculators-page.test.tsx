@@ -119,7 +119,7 @@ describe('the shop calculators', () => {
     expect(tension).toHaveTextContent('Passes25,000–28,000 psi');
     expect(tension).toHaveTextContent('Source: Your site’s setting, changed by Ines Carvalho on Nov 30, 2026.');
     // The fixture saw's head feeds by gravity against a spring: the spring-balance check is there.
-    expect(screen.getByRole('article', { name: 'Feed / head pressure' })).toHaveTextContent(
+    expect(screen.getByRole('article', { name: 'Head down-force' })).toHaveTextContent(
       'Source: Kerfline’s starting value (no printed source gives one value).',
     );
     // The answer comes before the full cautions; a one-line caution opens the page.
@@ -143,8 +143,10 @@ describe('the shop calculators', () => {
     expect(await screen.findByRole('heading', { level: 1, name: 'Check targets' })).toBeInTheDocument();
     // The address's figure wins over the saw's record.
     expect(screen.getByRole('textbox', { name: /Band thickness/ })).toHaveValue('1.07');
-    expect(screen.queryByRole('article', { name: 'Feed / head pressure' })).not.toBeInTheDocument();
-    expect(screen.getByText(/No spring-balance check: this saw’s head feeds hydraulically/)).toBeInTheDocument();
+    expect(screen.queryByRole('article', { name: 'Head down-force' })).not.toBeInTheDocument();
+    expect(screen.getByText(/This saw feeds its head hydraulically/)).toHaveTextContent(
+      /^No head down-force check: This saw feeds its head hydraulically/,
+    );
     // Another calculator keeps the saw.
     expect(
       within(screen.getByRole('navigation', { name: 'Calculators' })).getByRole('link', { name: 'Break-in' }),

@@ -36,7 +36,7 @@ describe('the saw page', () => {
     expect(screen.getByText('Gravity or spring')).toBeInTheDocument();
     // The guide opening says whose figure it is: here Kerfline's shipped value (no site settings answered).
     expect(screen.getByRole('region', { name: 'Figures for this saw' })).toHaveTextContent(
-      'Band thickness plus 0.001 in; 0.042 in to 0.044 in passes. Kerfline’s starting value (no printed source gives one value).',
+      'Band thickness plus 0.001 in; 0.043 in to 0.044 in passes; anything tighter pinches the band. Kerfline’s starting value (no printed source gives one value).',
     );
   });
 

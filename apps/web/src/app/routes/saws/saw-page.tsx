@@ -1,14 +1,13 @@
 import { useRef, useState } from 'react';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { useQuery, useQueryClient, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
-import { settingFigureBasis, shippedSettings } from '@kerfline/domain/settings/schema';
+import { effectiveSettingsOf } from '@kerfline/domain/settings/schema';
 import { subject } from '@casl/ability';
 import { useAppAbility } from '../../../lib/ability';
 import { Button, LinkButton } from '../../../lib/ui/button';
 import { Card } from '../../../lib/ui/card';
 import { Notice } from '../../../lib/ui/notice';
 import { formatDate } from '../../../lib/format';
-import { basisSentence } from '../../../lib/figure-basis';
 import { siteSettingsQuery } from '../../../features/site-settings/api/queries';
 import { sawDetailQuery } from '../../../features/saws/api/queries';
 import { useRetireSaw } from '../../../features/saws/api/mutations';
@@ -38,7 +37,6 @@ export function SawPage() {
   const { data: saw } = useSuspenseQuery(sawDetailQuery(sawId));
   const { data: site } = useSuspenseQuery(siteDetailQuery(saw.siteId));
   const { data: settings } = useQuery(siteSettingsQuery(saw.siteId));
-  const guideSetting = (settings?.items ?? shippedSettings()).find((s) => s.key === 'guide_clearance');
   const ability = useAppAbility();
   const queryClient = useQueryClient();
   const retire = useRetireSaw(saw.id);
@@ -158,15 +156,8 @@ export function SawPage() {
       <SawFiguresPanel
         saw={saw}
         unitSystem={site.unitSystem}
-        guide={
-          guideSetting
-            ? {
-                extraClearanceMm: guideSetting.value.extraClearanceMm,
-                toleranceMm: guideSetting.value.toleranceMm,
-                source: basisSentence(settingFigureBasis(guideSetting), site.timeZone),
-              }
-            : undefined
-        }
+        settings={effectiveSettingsOf(settings?.items ?? [])}
+        timeZone={site.timeZone}
       />
     </div>
   );

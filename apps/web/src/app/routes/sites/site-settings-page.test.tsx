@@ -12,7 +12,8 @@ import { SITE_ID, makeMe, makeSite, page } from '../../../test-support/fixtures'
 import { AppProviders } from '../../providers';
 import { appRoutes } from '../../router';
 
-const KEY = 'band_tension.bimetal';
+// Carbide-tipped tension has no printed range: the site's to set, shipped at the bi-metal 25,000–30,000 psi.
+const KEY = 'band_tension.carbide_tipped';
 const SETTINGS = `/api/sites/${SITE_ID}/settings`;
 /** 1 psi = 6,894.757 Pa (NIST SP 811 (2008), B.8). */
 const MPA_PER_PSI = 6894.757293168361 / 1e6;
@@ -86,35 +87,35 @@ describe('the site settings page', () => {
     const { user } = renderApp(`/sites/${SITE_ID}/settings`);
     expect(await screen.findByRole('heading', { level: 1, name: 'Site settings' })).toBeInTheDocument();
     const card = within(tensionCard());
-    // Shipped at 30,000–35,000 psi; an imperial site reads psi first.
-    expect(card.getByText('30,000 psi (206.8 MPa)')).toBeInTheDocument();
+    // Shipped at 25,000–30,000 psi; an imperial site reads psi first.
+    expect(card.getByText('25,000 psi (172.4 MPa)')).toBeInTheDocument();
     expect(tensionCard()).toHaveTextContent('Source: Kerfline’s starting value (no printed source gives one value).');
 
-    await user.click(card.getByRole('button', { name: /^Change Band tension, bi-metal/ }));
+    await user.click(card.getByRole('button', { name: /^Change Band tension, carbide-tipped/ }));
     const lowest = card.getByRole('textbox', { name: /Lowest/ });
     expect(lowest).toHaveAccessibleName(/^Lowest\s?\(psi\)$/);
-    expect(lowest).toHaveValue('30000');
+    expect(lowest).toHaveValue('25000');
     await user.clear(lowest);
-    await user.type(lowest, '31000');
+    await user.type(lowest, '26000');
     await user.click(card.getByRole('button', { name: 'Save for this site' }));
 
-    await waitFor(() => expect(tensionCard()).toHaveTextContent('31,000 psi'));
+    await waitFor(() => expect(tensionCard()).toHaveTextContent('26,000 psi'));
     const put = requests.find((r) => r.method === 'PUT')!;
     const sent = (put.body as { value: Record<string, number> }).value;
-    // 31,000 psi = 213.74 MPa; the untouched highest keeps its stored number exactly.
-    expect(sent.minMPa).toBeCloseTo(31000 * MPA_PER_PSI, 9);
+    // 26,000 psi = 179.26 MPa; the untouched highest keeps its stored number exactly.
+    expect(sent.minMPa).toBeCloseTo(26000 * MPA_PER_PSI, 9);
     expect(sent.maxMPa).toBe(settingDefinition(KEY)!.defaults.maxMPa);
     // 15:00 UTC is 10:00 in Chicago, the fixture site's zone: still 2 December.
     expect(tensionCard()).toHaveTextContent('Source: Your site’s setting, changed by Dana Okafor on Dec 2, 2026.');
-    expect(tensionCard()).toHaveTextContent('Kerfline’s value: Lowest 30,000');
+    expect(tensionCard()).toHaveTextContent('Kerfline’s value: Lowest 25,000');
 
     const history = within(screen.getByRole('region', { name: 'Changes to these settings' }));
-    expect(await history.findByText(/Lowest: 30,000 psi/)).toHaveTextContent(
-      'Lowest: 30,000 psi → changed to 31,000 psi',
+    expect(await history.findByText(/Lowest: 25,000 psi/)).toHaveTextContent(
+      'Lowest: 25,000 psi → changed to 26,000 psi',
     );
     expect(history.getByText('From Kerfline’s value to the site’s own.')).toBeInTheDocument();
 
-    await user.click(card.getByRole('button', { name: /^Put back Kerfline’s value of Band tension, bi-metal/ }));
+    await user.click(card.getByRole('button', { name: /^Put back Kerfline’s value of Band tension, carbide-tipped/ }));
     await waitFor(() => expect(tensionCard()).toHaveTextContent('Source: Kerfline’s starting value'));
     expect(requests.some((r) => r.method === 'DELETE' && r.path === `${SETTINGS}/${KEY}`)).toBe(true);
     expect(await history.findByText('Put back to Kerfline’s value.')).toBeInTheDocument();
@@ -125,7 +126,7 @@ describe('the site settings page', () => {
     const { user } = renderApp(`/sites/${SITE_ID}/settings`);
     await screen.findByRole('heading', { level: 1, name: 'Site settings' });
     const card = within(tensionCard());
-    await user.click(card.getByRole('button', { name: /^Change Band tension, bi-metal/ }));
+    await user.click(card.getByRole('button', { name: /^Change Band tension, carbide-tipped/ }));
     const highest = card.getByRole('textbox', { name: /Highest/ });
     await user.clear(highest);
     await user.type(highest, '20000');
@@ -142,7 +143,7 @@ describe('the site settings page', () => {
     const { requests } = fakeApiFor('technician');
     renderApp(`/sites/${SITE_ID}/settings`);
     await screen.findByRole('heading', { level: 1, name: 'Site settings' });
-    expect(tensionCard()).toHaveTextContent('30,000 psi');
+    expect(tensionCard()).toHaveTextContent('25,000 psi');
     expect(screen.queryByRole('button', { name: /^Change/ })).not.toBeInTheDocument();
     expect(screen.queryByRole('region', { name: 'Changes to these settings' })).not.toBeInTheDocument();
     expect(requests.some((r) => r.path === '/api/audit')).toBe(false);

@@ -7,6 +7,7 @@ import {
   type MaterialGroup,
 } from '@kerfline/domain/band-speed/schema';
 import { recommendedBandSpeed, type RecommendedBandSpeed } from '@kerfline/domain/band-speed/speed-ranges';
+import type { EffectiveSettings } from '@kerfline/domain/settings/effective';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { readQuantity, type Entry } from './quantities';
 import { compute, hasErrors, placeIssues, take } from './readings';
@@ -47,7 +48,12 @@ const FIELD_BY_PATH: Record<string, BandSpeedKey> = {
  * The recommended band speed for a material group, and, with a speed and the saw's range, where that speed
  * sits. The speeds are read in fpm or m/min and handed to the domain in m/min.
  */
-export function evaluateBandSpeed(entries: Record<BandSpeedKey, Entry>, system: UnitSystem): BandSpeedEvaluation {
+export function evaluateBandSpeed(
+  entries: Record<BandSpeedKey, Entry>,
+  system: UnitSystem,
+  /** The site's effective settings (its band speed ranges); shipped ranges when left out. */
+  settings: EffectiveSettings = {},
+): BandSpeedEvaluation {
   const errors: FieldErrors<BandSpeedKey> = {};
   const material = materialGroupSchema.safeParse(entries.material.text);
   if (!material.success) {
@@ -59,7 +65,7 @@ export function evaluateBandSpeed(entries: Record<BandSpeedKey, Entry>, system: 
       check: null,
     };
   }
-  const recommended = recommendedBandSpeed(material.data);
+  const recommended = recommendedBandSpeed(material.data, { settings });
   const base = { errors, formError: null, material: material.data, recommended, check: null };
 
   const readings = {
@@ -83,6 +89,8 @@ export function evaluateBandSpeed(entries: Record<BandSpeedKey, Entry>, system: 
   if (!parsed.success || hasErrors(errors)) return base;
 
   const v = parsed.data;
-  const worked = compute(() => checkBandSpeed(v.materialGroup, v.speedMPerMin, v.sawRange, { system: v.unitSystem }));
+  const worked = compute(() =>
+    checkBandSpeed(v.materialGroup, v.speedMPerMin, v.sawRange, { system: v.unitSystem, settings }),
+  );
   return worked.ok ? { ...base, check: worked.value } : { ...base, formError: worked.message };
 }

@@ -1,25 +1,23 @@
 import { useId, useState } from 'react';
 import type { CheckResult } from '@kerfline/domain/checks/check-targets';
-import { BLADE_MATERIALS, CHECK_DEFAULTS, type CheckKindId } from '@kerfline/domain/checks/schema';
-import type { FigureBasis } from '@kerfline/domain/figures/basis';
-import { settingFigureBasis, settingValue, type SiteSetting } from '@kerfline/domain/settings/schema';
+import { CHECK_DEFAULTS, type CheckKindId } from '@kerfline/domain/checks/schema';
+import { effectiveSetting, settingValue } from '@kerfline/domain/settings/effective';
+import { effectiveSettingsOf, type SiteSetting } from '@kerfline/domain/settings/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { basisSentence } from '../../../lib/figure-basis';
 import { CalculatorLayout } from './calculator-layout';
 import { ChoiceField, EntryField, FieldGroup } from './entry-field';
-import { figure, messageInUnits, rangeFigure, type Quantity } from './quantities';
+import { figure, rangeFigure, type Quantity } from './quantities';
 import { SawPicker, type CalculatorSaw } from './saw-picker';
 import { StatusBadge } from './status-badge';
 import {
   BLADE_MATERIAL_OPTIONS,
   YES_NO_OPTIONS,
   evaluateCheckTargets,
-  type CheckLimits,
   type CheckOutcome,
   type CheckTargetsKey,
 } from './check-targets-values';
 import { useEntries, type EntriesForm, type FieldErrors, type StartTexts } from './use-entries';
-import { capitalise } from './words';
 
 /** Lengths in checks are feeler-gauge small: thousandths of an inch, hundredths of a millimetre. */
 const checkQuantity = (result: CheckResult): Quantity =>
@@ -36,37 +34,15 @@ function checkRange(result: CheckResult, min: number, max: number, system: UnitS
   return rangeFigure(checkQuantity(result), toSiOf(result, min), toSiOf(result, max), system);
 }
 
-/** The site setting each check's limits come from, where the user has not typed a figure of their own. */
-function settingKeyFor(kind: CheckKindId, material: string): string | null {
-  if (kind === 'guide_clearance') return 'guide_clearance';
-  if (kind === 'feed_pressure') return 'head_force';
-  if (kind === 'band_tension') return `band_tension.${material}`;
-  return null;
-}
-
-/** The limits the site's settings give the checks, in the domain's units. */
-function limitsFrom(settings: readonly SiteSetting[]): CheckLimits {
-  const guide = settingValue(settings, 'guide_clearance');
-  const force = settingValue(settings, 'head_force');
-  const tensionMPa: CheckLimits['tensionMPa'] = {};
-  for (const material of BLADE_MATERIALS) {
-    const range = settingValue(settings, `band_tension.${material}`);
-    if (range) tensionMPa[material] = { minMPa: range.minMPa, maxMPa: range.maxMPa };
-  }
-  return {
-    ...(guide ? { guide: { extraClearanceMm: guide.extraClearanceMm, toleranceMm: guide.toleranceMm } } : {}),
-    ...(force?.maxN === undefined ? {} : { maxHeadForceN: force.maxN }),
-    tensionMPa,
-  };
-}
-
 /** The target and the passing readings of a check, in words and the user's units. */
 function targetLines(result: CheckResult, system: UnitSystem): { target: string; passes: string } {
   if (result.target === null || result.max === null) {
     return { target: 'Reaches the gullets, not worn', passes: 'Reaches: yes · Worn: no' };
   }
   const max = checkFigure(result, result.max, system).text;
-  if (result.kind === 'feed_pressure') return { target: `At most ${max}`, passes: `Up to ${max}` };
+  if (result.kind === 'feed_pressure') {
+    return { target: `At most ${max}`, passes: checkRange(result, result.min ?? 0, result.max, system).text };
+  }
   if (result.kind === 'bearing_wear') return { target: 'Flush: no gap', passes: `A gap up to ${max}` };
   return {
     target: checkFigure(result, result.target, system).text,
@@ -95,7 +71,7 @@ const READINGS: Partial<
     key: 'forceMeasured',
     label: 'Spring-balance reading',
     quantity: 'force',
-    hint: 'Under the head, over the last inch (25.4 mm) of travel.',
+    hint: 'Hooked on the head directly above the band, read over the last inch (25.4 mm) of travel.',
   },
   bearing_wear: { key: 'wearMeasured', label: 'Gap under the straightedge', quantity: 'length' },
 };
@@ -105,14 +81,14 @@ function CheckItem({
   form,
   errors,
   system,
-  source,
+  timeZone,
 }: {
   outcome: CheckOutcome;
   form: EntriesForm<CheckTargetsKey>;
   errors: FieldErrors<CheckTargetsKey>;
   system: UnitSystem;
-  /** Where the target's limits come from, when they are the site's settings; else the domain's own words. */
-  source: string | null;
+  /** The site's time zone, for the day a setting was changed. */
+  timeZone: string | undefined;
 }) {
   const headingId = useId();
   const { kind, result } = outcome;
@@ -169,10 +145,12 @@ function CheckItem({
       ) : null}
       {result ? (
         <>
-          <p className="text-xs text-ink-muted">
-            <span className="font-bold">Source: </span>
-            {source ?? capitalise(result.basis)}.
-          </p>
+          {result.basis ? (
+            <p className="text-xs text-ink-muted">
+              <span className="font-bold">Source: </span>
+              {basisSentence(result.basis, timeZone)}.
+            </p>
+          ) : null}
           {/* The answer first: on a phone the how and why stay one tap away instead of pushing the next check down. */}
           <details className="group text-sm text-ink">
             <summary className="flex min-h-11 cursor-pointer list-none items-center gap-2 font-semibold text-ink underline-offset-4 hover:underline [&::-webkit-details-marker]:hidden">
@@ -186,7 +164,7 @@ function CheckItem({
               </svg>
               How to check, and why
             </summary>
-            <p className="pb-1">{messageInUnits(result.explanation, system)}</p>
+            <p className="pb-1">{result.explanation}</p>
           </details>
         </>
       ) : null}
@@ -234,27 +212,20 @@ export function CheckTargetsCalculator({
     },
     start,
   );
-  const limits = limitsFrom(settings);
-  const evaluation = evaluateCheckTargets(form.entries, system, limits);
+  const effective = effectiveSettingsOf(settings);
+  const evaluation = evaluateCheckTargets(form.entries, system, {
+    settings: effective,
+    ...(current?.headFeed ? { headFeed: current.headFeed } : {}),
+  });
   const { errors } = evaluation;
-  // A hydraulic head's down-force is set by its feed valve: the spring-balance check is not for it.
-  const hydraulic = current?.headFeed === 'hydraulic';
-  const checks = evaluation.checks.filter((outcome) => !(hydraulic && outcome.kind.kind === 'feed_pressure'));
+  // A check that does not apply to this saw (the spring balance on a hydraulic head) is said once, below the list.
+  const notApplicable = evaluation.checks.filter((outcome) => outcome.result?.applicable === false);
+  const checks = evaluation.checks.filter((outcome) => outcome.result?.applicable !== false);
   // A summary on top, so a failed check is seen without scrolling the list on a phone.
   const failed = checks.filter((outcome) => outcome.result?.passed === false).length;
   const passed = checks.filter((outcome) => outcome.result?.passed === true).length;
-  const usualForce = figure('force', limits.maxHeadForceN ?? CHECK_DEFAULTS.maxHeadForceN, system).text;
-
-  /** Where a check's limits come from: the site's setting, unless the user typed the figure it would give. */
-  const sourceOf = (kind: CheckKindId): string | null => {
-    if (kind === 'feed_pressure' && form.entries.maxForce.text.trim() !== '')
-      return 'The largest head force typed above';
-    const key = settingKeyFor(kind, form.entries.material.text);
-    const setting = key ? settings.find((s) => s.key === key) : undefined;
-    if (!setting) return null;
-    const basis: FigureBasis = settingFigureBasis(setting);
-    return basisSentence(basis, timeZone);
-  };
+  const headForce = effectiveSetting(effective, 'head_force');
+  const usualForce = figure('force', settingValue(headForce, 'maxN') ?? CHECK_DEFAULTS.maxHeadForceN, system).text;
 
   const pick = (saw: CalculatorSaw) => {
     setCurrent(saw);
@@ -286,7 +257,7 @@ export function CheckTargetsCalculator({
       />
       <EntryField
         label="Largest head force"
-        hint={`This saw's maximum; leave empty to use ${settings.find((s) => s.key === 'head_force')?.source === 'site' ? 'the site’s setting' : 'Kerfline’s starting value'}, ${usualForce}.`}
+        hint={`This saw's maximum; leave empty to use ${headForce.changedAt === null ? 'Kerfline’s starting value' : 'the site’s setting'}, ${usualForce}.`}
         field={form.bind('maxForce', 'force', errors)}
       />
     </FieldGroup>
@@ -316,16 +287,16 @@ export function CheckTargetsCalculator({
                 form={form}
                 errors={errors}
                 system={system}
-                source={sourceOf(outcome.kind.kind)}
+                timeZone={timeZone}
               />
             ))}
           </div>
-          {hydraulic ? (
-            <p className="border-t border-rule pt-3 text-sm text-ink-muted">
-              No spring-balance check: this saw’s head feeds hydraulically, so its down-force is set by the feed valve,
-              not read on a balance.
+          {notApplicable.map((outcome) => (
+            <p key={outcome.kind.kind} className="border-t border-rule pt-3 text-sm text-ink-muted">
+              <span className="font-semibold text-ink">No {outcome.kind.label.toLowerCase()} check: </span>
+              {outcome.result?.explanation}
             </p>
-          ) : null}
+          ))}
         </>
       }
       onSubmit={form.submit}

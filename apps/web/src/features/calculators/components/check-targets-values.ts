@@ -19,7 +19,9 @@ import {
   trackingInputSchema,
   type BladeMaterial,
   type CheckKind,
+  type HeadFeed,
 } from '@kerfline/domain/checks/schema';
+import type { EffectiveSettings } from '@kerfline/domain/settings/effective';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { readNumber, readQuantity, type Entry, type Quantity } from './quantities';
 import { compute, placeIssues, take } from './readings';
@@ -62,16 +64,6 @@ export interface CheckOutcome {
   result: CheckResult | null;
   /** What is missing for the target, in words; null when there is a result. */
   waiting: string | null;
-}
-
-/**
- * The limits a site keeps in its settings (see the registry), in the domain's units: used where the user has not
- * typed a figure of their own.
- */
-export interface CheckLimits {
-  guide?: { extraClearanceMm?: number; toleranceMm?: number };
-  maxHeadForceN?: number;
-  tensionMPa?: Partial<Record<BladeMaterial, { minMPa?: number; maxMPa?: number }>>;
 }
 
 export interface CheckTargetsEvaluation {
@@ -124,8 +116,13 @@ const kindInfo = (id: CheckKind['kind']): CheckKind => CHECK_KINDS.find((kind) =
 export function evaluateCheckTargets(
   entries: Record<CheckTargetsKey, Entry>,
   system: UnitSystem,
-  limits: CheckLimits = {},
+  /**
+   * The site's effective settings (shipped values when left out), and how the saw's head feeds when the
+   * calculator was opened for a saw (a hydraulic head has no spring-balance check).
+   */
+  site: { settings?: EffectiveSettings; headFeed?: HeadFeed } = {},
 ): CheckTargetsEvaluation {
+  const context = { system, ...(site.settings ? { settings: site.settings } : {}) };
   const errors: FieldErrors<CheckTargetsKey> = {};
   const thicknessMm = take(readQuantity(entries.thickness, 'length'), 'thickness', 'Band thickness', errors);
   const widthMm = take(readQuantity(entries.width, 'length'), 'width', 'Band width', errors);
@@ -145,11 +142,11 @@ export function evaluateCheckTargets(
       ? null
       : runCheck(
           guideClearanceInputSchema,
-          { kind: 'guide_clearance', bandThicknessMm: thicknessMm, measuredMm: measured.guide, ...limits.guide },
+          { kind: 'guide_clearance', bandThicknessMm: thicknessMm, measuredMm: measured.guide },
           { bandThicknessMm: 'thickness', measuredMm: 'guideMeasured' },
           errors,
           system,
-          guideClearanceTarget,
+          (input) => guideClearanceTarget(input, context),
         );
   const tracking =
     widthMm === undefined
@@ -160,18 +157,24 @@ export function evaluateCheckTargets(
           { bandWidthMm: 'width', measuredOverhangMm: 'trackingMeasured' },
           errors,
           system,
-          trackingTarget,
+          (input) => trackingTarget(input, context),
         );
   const feed =
     maxForceReading.kind === 'invalid'
       ? null
       : runCheck(
           feedPressureInputSchema,
-          { kind: 'feed_pressure', maxHeadForceN: maxForceN ?? limits.maxHeadForceN, measuredN: measured.force },
+          // A saw typed in by hand may feed either way: the spring-balance check is shown unless the saw says hydraulic.
+          {
+            kind: 'feed_pressure',
+            headFeed: site.headFeed ?? 'gravity_spring',
+            maxHeadForceN: maxForceN,
+            measuredN: measured.force,
+          },
           { maxHeadForceN: 'maxForce', measuredN: 'forceMeasured' },
           errors,
           system,
-          feedPressureTarget,
+          (input) => feedPressureTarget(input, context),
         );
   const wear = runCheck(
     bearingWearInputSchema,
@@ -179,20 +182,19 @@ export function evaluateCheckTargets(
     { measuredGapMm: 'wearMeasured' },
     errors,
     system,
-    bearingWearTarget,
+    (input) => bearingWearTarget(input, context),
   );
   const tension = runCheck(
     bandTensionInputSchema,
     {
       kind: 'band_tension',
       bladeMaterial: entries.material.text,
-      ...limits.tensionMPa?.[entries.material.text as BladeMaterial],
       measuredMPa: measured.tensionPa === null ? null : measured.tensionPa / 1e6,
     },
     { bladeMaterial: 'material', measuredMPa: 'tensionMeasured' },
     errors,
     system,
-    bandTensionTarget,
+    (input) => bandTensionTarget(input, context),
   );
   const brush = runCheck(
     chipBrushInputSchema,

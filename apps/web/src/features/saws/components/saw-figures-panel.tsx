@@ -1,7 +1,10 @@
 import type { Saw } from '@kerfline/domain/saws/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { stressToDisplay } from '@kerfline/domain/units/display';
+import type { FigureBasis } from '@kerfline/domain/figures/basis';
+import type { EffectiveSettings } from '@kerfline/domain/settings/effective';
 import { formatLength, formatNumber, formatSmallLength } from '../../../lib/format';
+import { basisSentence } from '../../../lib/figure-basis';
 import { Card } from '../../../lib/ui/card';
 import { sawFigures } from './saw-figures';
 
@@ -24,14 +27,18 @@ function Row({ label, value, note }: { label: string; value: string; note: strin
 export function SawFiguresPanel({
   saw,
   unitSystem,
-  guide,
+  settings = {},
+  timeZone,
 }: {
   saw: Saw;
   unitSystem: UnitSystem;
-  /** The site's guide-opening setting (mm) and where it comes from, in words; shipped values when not given. */
-  guide?: { extraClearanceMm?: number; toleranceMm?: number; source: string };
+  /** The saw's site's settings; shipped values for any left out. */
+  settings?: EffectiveSettings;
+  /** The site's time zone, for the day a setting was changed. */
+  timeZone?: string | undefined;
 }) {
-  const figures = sawFigures(saw, guide);
+  const figures = sawFigures(saw, settings);
+  const source = (basis: FigureBasis | null) => (basis ? ` ${basisSentence(basis, timeZone)}.` : '');
   if (!figures) return null;
   const length = (mm: number) => formatLength(mm, unitSystem);
   const difference = `${figures.lengthDifferenceMm >= 0 ? '+' : '−'}${length(Math.abs(figures.lengthDifferenceMm))}`;
@@ -61,7 +68,7 @@ export function SawFiguresPanel({
         <Row
           label="Bending stress on the wheels"
           value={stressToDisplay(figures.bendingStressPa, unitSystem).text}
-          note="E·t/D with E = 207 GPa for the band's steel: the stress each wheel puts in the band, on top of its tension."
+          note="E·t/D with E = 207 GPa for carbon steel (a published strength-of-materials figure): the stress each wheel puts in the band, on top of its tension."
         />
         <Row
           label="Bends per hour at top speed"
@@ -71,12 +78,12 @@ export function SawFiguresPanel({
         <Row
           label="Guide opening"
           value={formatSmallLength(figures.guideClearance.targetMm, unitSystem)}
-          note={`Band thickness plus ${formatSmallLength(figures.guideClearance.targetMm - saw.bandThicknessMm, unitSystem)}; ${formatSmallLength(figures.guideClearance.minMm, unitSystem)} to ${formatSmallLength(figures.guideClearance.maxMm, unitSystem)} passes.${guide ? ` ${guide.source}.` : ''}`}
+          note={`Band thickness plus ${formatSmallLength(figures.guideClearance.targetMm - saw.bandThicknessMm, unitSystem)}; ${formatSmallLength(figures.guideClearance.minMm, unitSystem)} to ${formatSmallLength(figures.guideClearance.maxMm, unitSystem)} passes; anything tighter pinches the band.${source(figures.guideClearance.basis)}`}
         />
         <Row
           label="Tracking overhang"
-          value={length(figures.trackingOverhangMm)}
-          note="Tooth edge past the wheel face with the band's back flush to the wheel's back edge (common practice)."
+          value={formatSmallLength(figures.trackingOverhangMm, unitSystem)}
+          note={`Tooth edge past the wheel face with the band's back flush to the wheel's back edge.${source(figures.trackingBasis)}`}
         />
       </dl>
     </Card>

@@ -3,6 +3,8 @@ import { bandLengthMm } from '@kerfline/domain/band/band-length';
 import { bendingStressPa } from '@kerfline/domain/band/band-stress';
 import { flexCycles } from '@kerfline/domain/band/flex-cycles';
 import { guideClearanceTarget, trackingTarget } from '@kerfline/domain/checks/check-targets';
+import type { FigureBasis } from '@kerfline/domain/figures/basis';
+import type { EffectiveSettings } from '@kerfline/domain/settings/effective';
 
 /**
  * A recorded band length further than this from the wheels' geometry is worth a second look: the take-up
@@ -20,10 +22,11 @@ export type SawFigures = {
   bendingStressPa: number;
   /** Bending cycles per hour of running at the saw's top band speed. */
   bendCyclesPerHourAtTopSpeed: number;
-  /** Target guide opening and its passing range, mm. */
-  guideClearance: { targetMm: number; minMm: number; maxMm: number };
+  /** Target guide opening and its passing range, mm, and where the site's figures for it come from. */
+  guideClearance: { targetMm: number; minMm: number; maxMm: number; basis: FigureBasis | null };
   /** Target overhang of the tooth edge past the wheel face, mm. */
   trackingOverhangMm: number;
+  trackingBasis: FigureBasis | null;
 };
 
 /**
@@ -32,14 +35,18 @@ export type SawFigures = {
  */
 export function sawFigures(
   saw: Saw,
-  /** The site's guide-opening setting (mm): opening over the band thickness and the extra allowed. */
-  guide: { extraClearanceMm?: number; toleranceMm?: number } = {},
+  /** The saw's site's settings (guide opening, tracking); shipped values for any left out. */
+  settings: EffectiveSettings = {},
 ): SawFigures | null {
   try {
     const wheels = { driveWheelDiameterMm: saw.wheelDiameterMm, idlerWheelDiameterMm: saw.wheelDiameterMm };
     const geometryLengthMm = bandLengthMm({ ...wheels, centreDistanceMm: saw.centreDistanceMm });
     const lengthDifferenceMm = saw.bandLengthMm - geometryLengthMm;
-    const opening = guideClearanceTarget({ kind: 'guide_clearance', bandThicknessMm: saw.bandThicknessMm, ...guide });
+    const opening = guideClearanceTarget(
+      { kind: 'guide_clearance', bandThicknessMm: saw.bandThicknessMm },
+      { settings },
+    );
+    const tracking = trackingTarget({ kind: 'tracking', bandWidthMm: saw.bandWidthMm }, { settings });
     return {
       geometryLengthMm,
       lengthDifferenceMm,
@@ -49,8 +56,9 @@ export function sawFigures(
         bandSpeedMPerMin: saw.bandSpeedMaxMPerMin,
         bandLengthMm: saw.bandLengthMm,
       }).bendCyclesPerHour,
-      guideClearance: { targetMm: opening.target!, minMm: opening.min!, maxMm: opening.max! },
-      trackingOverhangMm: trackingTarget({ kind: 'tracking', bandWidthMm: saw.bandWidthMm }).target!,
+      guideClearance: { targetMm: opening.target!, minMm: opening.min!, maxMm: opening.max!, basis: opening.basis },
+      trackingOverhangMm: tracking.target!,
+      trackingBasis: tracking.basis,
     };
   } catch {
     return null;
