@@ -4,6 +4,9 @@ import { Site } from '../modules/sites/site.model.js';
 import { User, UserSite } from '../modules/users/user.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
 import { AuditEntry } from '../modules/audit/audit-entry.model.js';
+import { Invitation } from '../modules/invitations/invitation.model.js';
+import { PasswordReset } from '../modules/auth/password-reset.model.js';
+import { MailLog, MailPreference } from '../modules/mail/mail-log.model.js';
 
 /** Binds every model to this Sequelize instance. Model names equal the CASL subject names. */
 export function initModels(sequelize: Sequelize): void {
@@ -14,6 +17,10 @@ export function initModels(sequelize: Sequelize): void {
   UserSite.initModel(sequelize);
   Saw.initModel(sequelize);
   AuditEntry.initModel(sequelize);
+  Invitation.initModel(sequelize);
+  PasswordReset.initModel(sequelize);
+  MailLog.initModel(sequelize);
+  MailPreference.initModel(sequelize);
 }
 
 let bound: Sequelize | undefined;
