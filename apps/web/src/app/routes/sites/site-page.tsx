@@ -8,6 +8,10 @@ import { sawFilterValuesFromSearch, sawListQueryFromSearch } from '../../../feat
 import { SawFilters } from '../../../features/saws/components/saw-filters';
 import { SawsTable } from '../../../features/saws/components/saws-table';
 import { Pager } from '../../../lib/ui/pager';
+import { LinkButton } from '../../../lib/ui/button';
+import { Notice } from '../../../lib/ui/notice';
+import { useAppAbility } from '../../../lib/ability';
+import { subject } from '@casl/ability';
 
 export function sitePageLoader(queryClient: QueryClient) {
   return async ({ params, request }: LoaderFunctionArgs) => {
@@ -31,12 +35,26 @@ export function SitePage() {
   const { data: saws } = useSuspenseQuery(sawListQuery(q));
   const { data: regions } = useQuery(regionListQuery());
   const filters = sawFilterValuesFromSearch(search);
+  const ability = useAppAbility();
   const filtered = filters.status !== '' || filters.kind !== '' || filters.q !== '';
 
   return (
     <div className="space-y-6">
       <title>{`${site.name} · Kerfline`}</title>
-      <SiteHeader site={site} regionName={regions?.items.find((region) => region.id === site.regionId)?.name} />
+      <SiteHeader
+        site={site}
+        regionName={regions?.items.find((region) => region.id === site.regionId)?.name}
+        actions={
+          ability.can('update', subject('Site', { id: site.id, regionId: site.regionId })) ? (
+            <LinkButton to={`/sites/${site.id}/edit`}>Change site</LinkButton>
+          ) : undefined
+        }
+      />
+      {site.retiredAt ? (
+        <Notice tone="info" title="Retired site">
+          Kept for its history: it is left out of lists and pickers.
+        </Notice>
+      ) : null}
       <SawsTable
         heading="Saws"
         saws={saws.items}
