@@ -13,7 +13,7 @@ const roles: Record<Tone, 'alert' | 'note' | 'status'> = { stop: 'alert', cautio
 /** A message in words, with a bar on the left so it does not rely on its colour alone. */
 export function Notice({ tone = 'stop', title, children }: { tone?: Tone; title?: string; children?: ReactNode }) {
   return (
-    <div role={roles[tone]} className={`rounded-sheet border-l-4 px-4 py-3 text-sm ${tones[tone]}`}>
+    <div role={roles[tone]} className={`rounded-sheet border-l-4 px-4 py-3 text-sm break-words ${tones[tone]}`}>
       {title ? (
         <p className="font-bold">
           {tone === 'caution' ? <span aria-hidden="true">⚠ </span> : null}

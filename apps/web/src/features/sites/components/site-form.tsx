@@ -192,7 +192,11 @@ export function SiteForm({
         </Field>
         <Field
           label="Code"
-          hint="Short and unique: capital letters, digits and dashes, such as RBT or HAM-2."
+          hint={
+            codeLocked
+              ? 'The code names the site everywhere and stays as it is.'
+              : 'Short and unique: capital letters, digits and dashes, such as RBT or HAM-2.'
+          }
           error={errors.code?.message}
         >
           {(props) => (
