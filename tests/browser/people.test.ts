@@ -142,4 +142,18 @@ describe('changing people and sites', () => {
     await shot(admin.page, 'admin-site-change-desktop');
     await admin.context.close();
   });
+
+  it('lets a regional lead turn the weekly digest off on their account page', async () => {
+    const { context, page } = await newPage(browser, PHONE);
+    await signIn(page, DEMO.lead);
+    await page.goto('/account');
+    const digest = page.getByRole('checkbox', { name: /Weekly region digest/ });
+    await expect.poll(() => digest.isChecked()).toBe(true);
+    await digest.uncheck();
+    await expect.poll(() => page.getByText('Weekly region digest: off').count()).toBe(1);
+    await shot(page, 'lead-account-mail-phone');
+    await page.reload();
+    await expect.poll(() => page.getByRole('checkbox', { name: /Weekly region digest/ }).isChecked()).toBe(false);
+    await context.close();
+  });
 });

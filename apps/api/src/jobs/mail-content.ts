@@ -135,7 +135,7 @@ async function recipient(row: MailLog): Promise<SignedIn | null> {
 }
 
 const optOutFooter = (row: MailLog, ctx: BuildContext) => ({
-  footer: `You get the ${MAIL_KIND_INFO[row.kind].label.toLowerCase()} because of your role in Kerfline. Turn it off on your account page:`,
+  footer: `You get the ${MAIL_KIND_INFO[row.kind].label.toLowerCase()} because of your role in Kerfline. You can turn it off on your account page.`,
   footerLink: { label: 'Your account', url: appLink(ctx.publicUrl, '/account') },
 });
 

@@ -29,7 +29,6 @@ export function MailPreferences() {
                 type="checkbox"
                 className="mt-0.5 size-5 shrink-0 cursor-pointer accent-accent"
                 checked={preference.enabled}
-                disabled={set.isPending}
                 onChange={(event) => set.mutate({ kind: preference.kind, enabled: event.target.checked })}
               />
               <span>
