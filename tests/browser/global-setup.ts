@@ -69,6 +69,8 @@ export default async function setup(): Promise<() => Promise<void>> {
     SESSION_SECRET: 'browser-test-secret-only',
     LOG_LEVEL: 'warn',
     NODE_ENV: 'production',
+    // Every journey signs in from 127.0.0.1; the limit itself is tested in the API tests.
+    SIGN_IN_LIMIT: '1000',
     PUBLIC_URL: `http://127.0.0.1:${BROWSER_PORT}`,
     SMTP_HOST: '127.0.0.1',
     SMTP_PORT: String(smtpPort),
