@@ -1,4 +1,6 @@
+import { useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
+import type { MailKind } from '@kerfline/domain/mail/schema';
 import { Notice } from '../../../lib/ui/notice';
 import { mailPreferencesQuery } from '../api/queries';
 import { useSetMailPreference } from '../api/mutations';
@@ -10,6 +12,12 @@ import { useSetMailPreference } from '../api/mutations';
 export function MailPreferences() {
   const preferences = useQuery(mailPreferencesQuery());
   const set = useSetMailPreference();
+  // The switch moves as it is clicked; if the server refuses, it goes back to what the server holds.
+  const [choices, setChoices] = useState<Partial<Record<MailKind, boolean>>>({});
+  const choose = (kind: MailKind, enabled: boolean) => {
+    setChoices((current) => ({ ...current, [kind]: enabled }));
+    set.mutate({ kind, enabled }, { onSettled: () => setChoices(({ [kind]: _done, ...rest }) => rest) });
+  };
   if (preferences.isPending) return <p className="text-ink-muted">Loading…</p>;
   if (preferences.isError) return <Notice>{preferences.error.message}</Notice>;
   if (preferences.data.length === 0)
@@ -28,12 +36,12 @@ export function MailPreferences() {
               <input
                 type="checkbox"
                 className="mt-0.5 size-5 shrink-0 cursor-pointer accent-accent"
-                checked={preference.enabled}
-                onChange={(event) => set.mutate({ kind: preference.kind, enabled: event.target.checked })}
+                checked={choices[preference.kind] ?? preference.enabled}
+                onChange={(event) => choose(preference.kind, event.target.checked)}
               />
               <span>
                 <span className="block font-semibold text-ink">
-                  {preference.label}: {preference.enabled ? 'on' : 'off'}
+                  {preference.label}: {(choices[preference.kind] ?? preference.enabled) ? 'on' : 'off'}
                 </span>
                 <span className="block text-sm text-ink-muted">{preference.description}</span>
               </span>
