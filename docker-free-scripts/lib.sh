@@ -108,3 +108,32 @@ pg_ensure_db() {
     "$bin/createdb" -h 127.0.0.1 -p "$PGPORT" -U postgres "$name"
   fi
 }
+
+# The local mail catcher (smtp-server on 127.0.0.1:$SMTP_PORT, no TLS, no auth) keeps every message as a JSON
+# file in $MAIL_CATCHER_DIR; the app's outbox page and the tests read them. Nothing is delivered anywhere.
+# Usage: mail_catcher_start <node args…>  (the compiled catcher-cli.js, or the TypeScript one through tsx)
+mail_catcher_start() {
+  export SMTP_PORT=${SMTP_PORT:-2525}
+  if (exec 3<>"/dev/tcp/127.0.0.1/$SMTP_PORT") 2>/dev/null; then
+    die "port $SMTP_PORT is already taken (another Kerfline running?); set SMTP_PORT to a free port"
+  fi
+  mkdir -p "$MAIL_CATCHER_DIR"
+  log "starting the local mail catcher on 127.0.0.1:$SMTP_PORT (mail kept in ${MAIL_CATCHER_DIR#"$ROOT"/})"
+  SMTP_PORT=$SMTP_PORT MAIL_CATCHER_DIR=$MAIL_CATCHER_DIR node "$@" >"$MAIL_CATCHER_DIR.log" 2>&1 &
+  MAIL_CATCHER_PID=$!
+  for _ in $(seq 1 50); do
+    if (exec 3<>"/dev/tcp/127.0.0.1/$SMTP_PORT") 2>/dev/null; then return 0; fi
+    kill -0 "$MAIL_CATCHER_PID" 2>/dev/null || break
+    sleep 0.1
+  done
+  cat "$MAIL_CATCHER_DIR.log" >&2 || true
+  die "the local mail catcher did not start (log above)"
+}
+
+mail_catcher_stop() {
+  if [ -n "${MAIL_CATCHER_PID:-}" ] && kill -0 "$MAIL_CATCHER_PID" 2>/dev/null; then
+    kill "$MAIL_CATCHER_PID" 2>/dev/null || true
+    wait "$MAIL_CATCHER_PID" 2>/dev/null || true
+  fi
+  MAIL_CATCHER_PID=
+}

@@ -69,7 +69,7 @@ describe('an administrator sets up a new plant', () => {
     await shot(page, 'admin-site-code-taken-375');
     expect(await pageWidth()).toBeLessThanOrEqual(NARROW_PHONE.width);
     await page.goto('/people');
-    await page.getByRole('link', { name: 'Add person' }).click();
+    await page.getByRole('link', { name: 'Add with a password' }).click();
     await page.waitForURL('**/people/new');
     await page.getByLabel('Name', { exact: true }).fill(techName);
     await page.getByLabel('E-mail', { exact: true }).fill(techEmail);

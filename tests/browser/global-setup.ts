@@ -1,5 +1,5 @@
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { existsSync } from 'node:fs';
+import { existsSync, rmSync } from 'node:fs';
 import path from 'node:path';
 import pg from 'pg';
 
@@ -12,6 +12,10 @@ export const BROWSER_PORT = Number(process.env.BROWSER_TEST_PORT ?? 3210);
 const database = BROWSER_PORT === 3210 ? 'kerfline_test_browser' : `kerfline_test_browser_${BROWSER_PORT}`;
 
 let server: ChildProcess | undefined;
+let catcher: ChildProcess | undefined;
+
+/** The local mail catcher's folder: test.sh's, or one this setup starts beside the browser database. */
+export const MAIL_DIR = process.env.MAIL_CATCHER_DIR ?? path.join(root, '.data', `mail-browser-${BROWSER_PORT}`);
 
 async function recreateDatabase(): Promise<void> {
   const client = new pg.Client({
@@ -43,11 +47,21 @@ async function waitForHealth(url: string, seconds: number): Promise<void> {
 }
 
 export default async function setup(): Promise<() => Promise<void>> {
-  for (const built of ['apps/api/dist/server.js', 'dist/web/index.html']) {
+  for (const built of ['apps/api/dist/server.js', 'apps/api/dist/mail/catcher-cli.js', 'dist/web/index.html']) {
     if (!existsSync(path.join(root, built)))
       throw new Error(`${built} is missing: run "npm run build" before the browser journeys`);
   }
   await recreateDatabase();
+  // test.sh starts the mail catcher and says where it keeps mail; run alone, the journeys start their own.
+  const smtpPort = Number(process.env.SMTP_PORT ?? 2525);
+  if (!process.env.MAIL_CATCHER_DIR) {
+    rmSync(MAIL_DIR, { recursive: true, force: true });
+    catcher = spawn(process.execPath, ['apps/api/dist/mail/catcher-cli.js'], {
+      cwd: root,
+      env: { ...process.env, SMTP_PORT: String(smtpPort), MAIL_CATCHER_DIR: MAIL_DIR },
+      stdio: ['ignore', 'inherit', 'inherit'],
+    });
+  }
   const env = {
     ...process.env,
     PGDATABASE: database,
@@ -55,6 +69,13 @@ export default async function setup(): Promise<() => Promise<void>> {
     SESSION_SECRET: 'browser-test-secret-only',
     LOG_LEVEL: 'warn',
     NODE_ENV: 'production',
+    // Every journey signs in from 127.0.0.1; the limit itself is tested in the API tests.
+    SIGN_IN_LIMIT: '1000',
+    PUBLIC_URL: `http://127.0.0.1:${BROWSER_PORT}`,
+    SMTP_HOST: '127.0.0.1',
+    SMTP_PORT: String(smtpPort),
+    MAIL_CATCHER_DIR: MAIL_DIR,
+    // Schedules stay at their defaults; the journeys send mail as people do, not on a timer.
   };
   for (const script of ['apps/api/dist/db/migrate-cli.js', 'apps/api/dist/db/seed-cli.js']) {
     const run = spawnSync(process.execPath, [script], { cwd: root, env, encoding: 'utf8' });
@@ -68,5 +89,6 @@ export default async function setup(): Promise<() => Promise<void>> {
   await waitForHealth(`http://127.0.0.1:${BROWSER_PORT}/api/health`, 30);
   return async () => {
     server?.kill('SIGTERM');
+    catcher?.kill('SIGTERM');
   };
 }

@@ -1,4 +1,4 @@
-import { mkdirSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, readdirSync } from 'node:fs';
 import path from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 
@@ -56,4 +56,38 @@ export async function shot(page: Page, name: string): Promise<void> {
   // A full-page picture taken while scrolled draws the sticky top bar mid-page.
   await page.evaluate(() => window.scrollTo(0, 0));
   await page.screenshot({ path: path.join(SCREENSHOTS, `${name}.png`), fullPage: true });
+}
+
+/** Where the local mail catcher keeps what it receives (the same folder global-setup gives the app). */
+export const MAIL_DIR =
+  process.env.MAIL_CATCHER_DIR ??
+  path.resolve(import.meta.dirname, '../../.data', `mail-browser-${process.env.BROWSER_TEST_PORT ?? 3210}`);
+
+type CaughtMail = { to: string[]; subject: string; text: string; html: string | null; receivedAt: string };
+
+/** Waits for the newest mail to `to` (matching `where`) in the catcher's folder (one JSON file per message). */
+export async function waitForMail(
+  to: string,
+  where: (mail: CaughtMail) => boolean = () => true,
+  timeoutMs = 20_000,
+): Promise<CaughtMail> {
+  const until = Date.now() + timeoutMs;
+  for (;;) {
+    const names = existsSync(MAIL_DIR) ? readdirSync(MAIL_DIR).filter((n) => n.endsWith('.json')) : [];
+    const found = names
+      .sort()
+      .reverse()
+      .map((n) => JSON.parse(readFileSync(path.join(MAIL_DIR, n), 'utf8')) as CaughtMail)
+      .find((m) => m.to.includes(to) && where(m));
+    if (found) return found;
+    if (Date.now() > until) throw new Error(`no mail to ${to} reached ${MAIL_DIR} within ${timeoutMs} ms`);
+    await new Promise((r) => setTimeout(r, 250));
+  }
+}
+
+/** The link (with its secret in the fragment) to `page` in a caught mail. */
+export function linkIn(mail: CaughtMail, page: 'invitation' | 'reset-password'): string {
+  const match = new RegExp(`https?://[^\\s]+/${page}#token=[A-Za-z0-9_-]{43}`).exec(mail.text);
+  if (!match) throw new Error(`no ${page} link in:\n${mail.text}`);
+  return match[0];
 }

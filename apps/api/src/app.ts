@@ -24,6 +24,9 @@ import { sawsRouter } from './modules/saws/saws.router.js';
 import { usersRouter } from './modules/users/users.router.js';
 import { auditRouter } from './modules/audit/audit.router.js';
 import { siteSettingsRouter } from './modules/site-settings/site-settings.router.js';
+import { invitationsRouter } from './modules/invitations/invitations.router.js';
+import { mailRouter } from './modules/mail/mail.router.js';
+import { QUEUES, type Jobs } from './jobs/jobs.js';
 
 export type AppDeps = {
   sequelize: Sequelize;
@@ -36,6 +39,10 @@ export type AppDeps = {
   webDist?: string;
   signInLimit?: number;
   logLevel?: string;
+  /** The job runtime: services queue mail through it; server.ts also runs its workers. */
+  jobs: Jobs;
+  /** Folder of the local mail catcher (development and tests); set, admins get the outbox page. */
+  mailCatcherDir?: string | undefined;
 };
 
 export const SESSION_COOKIE = 'kerfline.sid';
@@ -113,16 +120,37 @@ export function createApp(deps: AppDeps): Express {
     },
   });
 
+  // The routes that take a mailed link's secret or mail one out: counted apart from sign-in, same allowance.
+  const linkLimiter = rateLimit({
+    windowMs: 15 * 60 * 1000,
+    limit: deps.signInLimit ?? 20,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    store: new PgRateLimitStore(deps.sequelize, 'links:'),
+    handler: (req, res) => {
+      const error = new AppError('RATE_LIMITED', 'Too many attempts; wait 15 minutes and try again');
+      res.status(429).json(errorBody(error, String(req.id)));
+    },
+  });
+
   const api = Router();
   api.use(healthRouter(deps.sequelize));
-  api.use(authRouter({ passport, signInLimiter }));
+  api.use(authRouter({ passport, signInLimiter, linkLimiter, mail: deps.jobs }));
+  api.use(invitationsRouter({ mail: deps.jobs, linkLimiter }));
   api.use(requireSignIn);
   api.use(regionsRouter());
   api.use(sitesRouter());
   api.use(siteSettingsRouter());
   api.use(sawsRouter());
-  api.use(usersRouter(deps.sequelize));
+  api.use(usersRouter());
   api.use(auditRouter());
+  api.use(
+    mailRouter({
+      catcherDir: deps.mailCatcherDir,
+      runSchedule: (schedule) =>
+        deps.jobs.fire(schedule === 'weekly-digest' ? QUEUES.weeklyDigest : QUEUES.monthlySummary),
+    }),
+  );
   api.use(notFoundHandler);
   app.use('/api', api);
 

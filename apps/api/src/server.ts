@@ -2,7 +2,8 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import pg from 'pg';
 import { createApp } from './app.js';
-import { databaseUrl, loadEnv } from './config/env.js';
+import { databaseUrl, loadEnv, publicUrl } from './config/env.js';
+import { Jobs } from './jobs/jobs.js';
 import { createSequelize } from './db/sequelize.js';
 
 const env = loadEnv();
@@ -10,6 +11,32 @@ const url = databaseUrl(env);
 const sequelize = createSequelize(url);
 const sessionPool = new pg.Pool({ connectionString: url, max: 5 });
 const here = path.dirname(fileURLToPath(import.meta.url));
+
+const jobs = new Jobs(
+  sequelize,
+  {
+    connectionString: url,
+    secret: env.SESSION_SECRET,
+    publicUrl: publicUrl(env),
+    smtp: {
+      host: env.SMTP_HOST,
+      port: env.SMTP_PORT,
+      secure: env.SMTP_SECURE,
+      user: env.SMTP_USER,
+      password: env.SMTP_PASSWORD,
+      from: env.MAIL_FROM,
+    },
+    retryLimit: env.MAIL_RETRY_LIMIT,
+    retryDelaySeconds: env.MAIL_RETRY_DELAY_SECONDS,
+    schedule: {
+      weeklyDigestCron: env.WEEKLY_DIGEST_CRON,
+      monthlySummaryCron: env.MONTHLY_SUMMARY_CRON,
+      timeZone: env.SCHEDULE_TIME_ZONE,
+    },
+    log: (level, message, detail) => console[level](`[jobs] ${message}`, detail ?? ''),
+  },
+  { workers: env.JOBS_WORKERS },
+);
 
 const app = createApp({
   sequelize,
@@ -19,7 +46,12 @@ const app = createApp({
   webDist: env.WEB_DIST ?? path.resolve(here, '../../../dist/web'),
   signInLimit: env.SIGN_IN_LIMIT,
   logLevel: env.LOG_LEVEL,
+  jobs,
+  mailCatcherDir: env.MAIL_CATCHER_DIR,
 });
+
+if (env.JOBS_WORKERS) await jobs.startWorkers();
+else await jobs.start();
 
 const server = app.listen(env.PORT, env.HOST, () => {
   console.log(`Kerfline is listening on http://${env.HOST}:${env.PORT}`);
@@ -28,6 +60,8 @@ const server = app.listen(env.PORT, env.HOST, () => {
 async function shutdown(signal: string) {
   console.log(`${signal}: closing`);
   server.close();
+  // Workers finish the mail in hand before the database connections close.
+  await jobs.stop().catch((error: unknown) => console.error('[jobs] stop failed', error));
   await Promise.allSettled([sequelize.close(), sessionPool.end()]);
   process.exit(0);
 }

@@ -12,6 +12,8 @@ import { Saw } from '../modules/saws/saw.model.js';
 import { User } from '../modules/users/user.model.js';
 import { AuditEntry } from '../modules/audit/audit-entry.model.js';
 import { SiteSetting } from '../modules/site-settings/site-setting.model.js';
+import { Invitation } from '../modules/invitations/invitation.model.js';
+import { MailLog } from '../modules/mail/mail-log.model.js';
 import { scopeWhere } from './sequelize-scope.js';
 
 let ctx: TestContext;
@@ -41,10 +43,50 @@ beforeAll(async () => {
       changedBy: world.users.admin.id,
     })),
   );
+  // Invitations at two sites in each role a site admin may or may not give, and fleet-wide ones (site NULL).
+  const invitations: [string | null, 'technician' | 'site_admin' | 'manager' | 'regional_lead' | 'admin'][] = [
+    [world.sites.A.id, 'technician'],
+    [world.sites.A.id, 'site_admin'],
+    [world.sites.C.id, 'technician'],
+    [null, 'manager'],
+    [null, 'regional_lead'],
+    [null, 'admin'],
+  ];
+  await Invitation.bulkCreate(
+    invitations.map(([siteId, role], n) => ({
+      email: `invited-${n}@test.example`,
+      name: null,
+      role,
+      siteId,
+      regionId: role === 'regional_lead' ? world.regions.north.id : null,
+      allSites: role === 'manager',
+      tokenHash: String(n).repeat(64).slice(0, 64),
+      expiresAt: new Date(Date.now() + 86_400_000),
+      invitedBy: world.users.admin.id,
+    })),
+  );
+  // Mail records with and without a person.
+  await MailLog.bulkCreate(
+    [world.users.leadNorth.id, world.users.techA.id, null].map((userId, n) => ({
+      kind: 'weekly_digest' as const,
+      userId,
+      toAddress: `someone-${n}@test.example`,
+      dedupeKey: `parity:${n}`,
+    })),
+  );
 });
 afterAll(async () => ctx.close());
 
-const MODELS: Record<SubjectName, ModelStatic<Model>> = { Region, Site, Saw, User, AuditEntry, SiteSetting };
+const MODELS: Record<SubjectName, ModelStatic<Model>> = {
+  Region,
+  Site,
+  Saw,
+  User,
+  AuditEntry,
+  SiteSetting,
+  Invitation,
+  MailLog,
+};
 
 /** For every row: does the scoped query return it exactly when `ability.can` says yes? */
 async function mismatches(ability: AppAbility, action: (typeof ACTIONS)[number], type: SubjectName): Promise<string[]> {

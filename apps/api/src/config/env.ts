@@ -1,5 +1,21 @@
 import { z } from 'zod';
 
+function bool(fallback: 'true' | 'false') {
+  return z
+    .enum(['true', 'false'], { message: 'must be true or false' })
+    .default(fallback)
+    .transform((v) => v === 'true');
+}
+
+function isTimeZone(value: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en', { timeZone: value });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
@@ -23,6 +39,35 @@ const envSchema = z.object({
     .enum(['true', 'false'])
     .default('false')
     .transform((v) => v === 'true'),
+
+  /** Where links in e-mails point: the address people open Kerfline at. Defaults to http://127.0.0.1:PORT. */
+  PUBLIC_URL: z
+    .url({ message: 'PUBLIC_URL must be a full address such as https://kerfline.example.com' })
+    .optional()
+    .transform((v) => v?.replace(/\/+$/, '')),
+  /** The mail server Kerfline sends through; start.sh and test.sh run a local catcher on 127.0.0.1:SMTP_PORT. */
+  SMTP_HOST: z.string().min(1).default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+  /** true for a server that speaks TLS from the first byte (usually port 465); otherwise STARTTLS when offered. */
+  SMTP_SECURE: bool('false'),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  /** The sender of every mail, e.g. "Kerfline <kerfline@plant.example>". */
+  MAIL_FROM: z.string().min(3).default('Kerfline <kerfline@localhost>'),
+  /** Folder where the local mail catcher keeps what it receives; set, it turns on the admins' outbox page. */
+  MAIL_CATCHER_DIR: z.string().optional(),
+  /** Attempts after the first, and the first wait between them; waits double each time. */
+  MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(5),
+  MAIL_RETRY_DELAY_SECONDS: z.coerce.number().int().min(1).max(86_400).default(60),
+  /** Whether this process runs the job workers and schedules; any number of processes may, none double-sends. */
+  JOBS_WORKERS: bool('true'),
+  /** Cron lines (minute hour day month weekday) for the scheduled mail, read in SCHEDULE_TIME_ZONE. */
+  WEEKLY_DIGEST_CRON: z.string().min(9).default('0 6 * * 1'),
+  MONTHLY_SUMMARY_CRON: z.string().min(9).default('0 6 1 * *'),
+  SCHEDULE_TIME_ZONE: z
+    .string()
+    .default('UTC')
+    .refine(isTimeZone, { message: 'SCHEDULE_TIME_ZONE must be an IANA time zone such as Europe/Berlin' }),
 });
 export type Env = z.infer<typeof envSchema>;
 
@@ -42,4 +87,9 @@ export function databaseUrl(env: Env): string {
     ? `${encodeURIComponent(env.PGUSER)}:${encodeURIComponent(env.PGPASSWORD)}`
     : encodeURIComponent(env.PGUSER);
   return `postgres://${auth}@${env.PGHOST}:${env.PGPORT}/${encodeURIComponent(env.PGDATABASE)}`;
+}
+
+/** The address links in e-mails start with. */
+export function publicUrl(env: Env): string {
+  return env.PUBLIC_URL ?? `http://${env.HOST === '0.0.0.0' ? '127.0.0.1' : env.HOST}:${env.PORT}`;
 }

@@ -5,6 +5,9 @@ import { User, UserSite } from '../modules/users/user.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
 import { AuditEntry } from '../modules/audit/audit-entry.model.js';
 import { SiteSetting } from '../modules/site-settings/site-setting.model.js';
+import { Invitation } from '../modules/invitations/invitation.model.js';
+import { PasswordReset } from '../modules/auth/password-reset.model.js';
+import { MailLog, MailPreference } from '../modules/mail/mail-log.model.js';
 
 /** Binds every model to this Sequelize instance. Model names equal the CASL subject names. */
 export function initModels(sequelize: Sequelize): void {
@@ -16,6 +19,10 @@ export function initModels(sequelize: Sequelize): void {
   Saw.initModel(sequelize);
   AuditEntry.initModel(sequelize);
   SiteSetting.initModel(sequelize);
+  Invitation.initModel(sequelize);
+  PasswordReset.initModel(sequelize);
+  MailLog.initModel(sequelize);
+  MailPreference.initModel(sequelize);
 }
 
 let bound: Sequelize | undefined;

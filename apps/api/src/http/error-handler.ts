@@ -30,6 +30,10 @@ const UNIQUE_MESSAGES: Record<string, string> = {
   regions_name_key: 'Another region already has that name',
 };
 
+// CASL's own default names the action and subject in code words; a service that knows better says so with
+// `setMessage`, and that message is what the person reads.
+ForbiddenError.setDefaultMessage('You are not allowed to do that');
+
 /** Turns any thrown value into an AppError; unknown errors become INTERNAL with their message hidden. */
 export function toAppError(err: unknown): { error: AppError; internal: boolean } {
   if (err instanceof AppError) return { error: err, internal: false };
@@ -38,7 +42,7 @@ export function toAppError(err: unknown): { error: AppError; internal: boolean }
   }
   if (err instanceof DomainInputError) return { error: AppError.validation(err.message), internal: false };
   if (err instanceof ForbiddenError) {
-    return { error: new AppError('FORBIDDEN', 'You are not allowed to do that'), internal: false };
+    return { error: new AppError('FORBIDDEN', err.message), internal: false };
   }
   if (err instanceof UniqueConstraintError) {
     const constraint = (err.parent as { constraint?: string } | undefined)?.constraint ?? '';

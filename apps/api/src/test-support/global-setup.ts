@@ -8,7 +8,7 @@ import { testDatabaseUrl } from './test-database-url.js';
 export default async function setup(): Promise<void> {
   const sequelize = createSequelize(testDatabaseUrl());
   try {
-    await sequelize.query('DROP SCHEMA public CASCADE; CREATE SCHEMA public;');
+    await sequelize.query('DROP SCHEMA IF EXISTS pgboss CASCADE; DROP SCHEMA public CASCADE; CREATE SCHEMA public;');
     await createMigrator(sequelize).up();
   } finally {
     await sequelize.close();

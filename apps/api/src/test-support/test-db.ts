@@ -5,28 +5,77 @@ import type { Express } from 'express';
 import { createApp } from '../app.js';
 import { testDatabaseUrl } from './test-database-url.js';
 import { createSequelize } from '../db/sequelize.js';
+import { Jobs, type JobsOptions } from '../jobs/jobs.js';
 
 export { testDatabaseUrl };
 
-export type TestContext = { sequelize: Sequelize; pool: pg.Pool; app: Express; close: () => Promise<void> };
+export type TestContext = {
+  sequelize: Sequelize;
+  pool: pg.Pool;
+  app: Express;
+  jobs: Jobs;
+  /** Resolves once the job workers run (at once when the app was started without them). */
+  ready: Promise<void>;
+  close: () => Promise<void>;
+};
 
-/** A fresh app on the test database. Call `close` in afterAll. */
-export function startTestApp(options: { signInLimit?: number } = {}): TestContext {
+export const TEST_PUBLIC_URL = 'http://kerfline.test';
+export const TEST_SESSION_SECRET = 'test-secret-not-for-production';
+
+/** The job runtime's settings for tests: fast polling, short retry waits, mail to `smtpPort` on loopback. */
+export function testJobsOptions(
+  url: string,
+  mail: { smtpPort?: number; retryLimit?: number; retryDelaySeconds?: number; cron?: string } = {},
+): JobsOptions {
+  return {
+    connectionString: url,
+    secret: TEST_SESSION_SECRET,
+    publicUrl: TEST_PUBLIC_URL,
+    // Nothing listens on port 9 (discard) here: mail queued by a test without a catcher is never delivered.
+    smtp: { host: '127.0.0.1', port: mail.smtpPort ?? 9, secure: false, from: 'Kerfline <kerfline@test.example>' },
+    retryLimit: mail.retryLimit ?? 2,
+    retryDelaySeconds: mail.retryDelaySeconds ?? 1,
+    schedule: { weeklyDigestCron: mail.cron ?? '0 6 * * 1', monthlySummaryCron: '0 6 1 * *', timeZone: 'UTC' },
+    pollingIntervalSeconds: 0.5,
+    cronMonitorIntervalSeconds: 1,
+    cronWorkerIntervalSeconds: 1,
+  };
+}
+
+/**
+ * A fresh app on the test database. Call `close` in afterAll. With `mail.workers`, the app's process also
+ * runs the job workers and sends to the local catcher on `mail.smtpPort` (await `ready` first).
+ */
+export function startTestApp(
+  options: {
+    signInLimit?: number;
+    mail?: { smtpPort?: number; workers?: boolean; catcherDir?: string; retryLimit?: number; cron?: string };
+  } = {},
+): TestContext {
   const url = testDatabaseUrl();
   const sequelize = createSequelize(url, { poolMax: 5 });
   const pool = new pg.Pool({ connectionString: url, max: 3 });
+  const workers = options.mail?.workers ?? false;
+  const jobs = new Jobs(sequelize, testJobsOptions(url, options.mail), { workers });
   const app = createApp({
     sequelize,
     sessionPool: pool,
-    sessionSecret: 'test-secret-not-for-production',
+    sessionSecret: TEST_SESSION_SECRET,
     signInLimit: options.signInLimit ?? 1000,
     logLevel: 'silent',
+    jobs,
+    mailCatcherDir: options.mail?.catcherDir,
   });
+  const ready = workers ? jobs.startWorkers() : Promise.resolve();
   return {
     sequelize,
     pool,
     app,
+    jobs,
+    ready,
     close: async () => {
+      await ready.catch(() => undefined);
+      await jobs.stop();
       await sequelize.close();
       await pool.end();
     },
@@ -36,7 +85,7 @@ export function startTestApp(options: { signInLimit?: number } = {}): TestContex
 /** Empties every table (keeps the schema and the migration record). */
 export async function resetData(sequelize: Sequelize): Promise<void> {
   await sequelize.query(
-    'TRUNCATE site_settings, audit_entries, saws, user_sites, users, sites, regions, sessions, rate_limit_hits RESTART IDENTITY CASCADE',
+    'TRUNCATE site_settings, mail_preferences, mail_log, password_resets, invitations, audit_entries, saws, user_sites, users, sites, regions, sessions, rate_limit_hits RESTART IDENTITY CASCADE',
   );
 }
 

@@ -28,6 +28,24 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
       lazy: async () => ({ Component: (await import('./routes/auth/sign-in-page')).SignInPage }),
     },
     {
+      path: '/forgot-password',
+      errorElement: <RouteError />,
+      hydrateFallbackElement: <FirstLoad />,
+      lazy: async () => ({ Component: (await import('./routes/auth/forgot-password-page')).ForgotPasswordPage }),
+    },
+    {
+      path: '/reset-password',
+      errorElement: <RouteError />,
+      hydrateFallbackElement: <FirstLoad />,
+      lazy: async () => ({ Component: (await import('./routes/auth/reset-password-page')).ResetPasswordPage }),
+    },
+    {
+      path: '/invitation',
+      errorElement: <RouteError />,
+      hydrateFallbackElement: <FirstLoad />,
+      lazy: async () => ({ Component: (await import('./routes/auth/invitation-page')).InvitationPage }),
+    },
+    {
       id: 'root',
       path: '/',
       loader: rootLoader(queryClient),
@@ -67,6 +85,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               lazy: async () => {
                 const page = await import('./routes/sites/site-settings-page');
                 return { loader: page.siteSettingsPageLoader(queryClient), Component: page.SiteSettingsPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/edit',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-edit-page');
+                return { loader: page.siteEditPageLoader(queryClient), Component: page.SiteEditPage };
               },
             },
             {
@@ -113,6 +138,27 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               lazy: async () => {
                 const page = await import('./routes/people/person-new-page');
                 return { loader: page.personNewPageLoader(queryClient), Component: page.PersonNewPage };
+              },
+            },
+            {
+              path: 'people/invite',
+              lazy: async () => {
+                const page = await import('./routes/people/person-invite-page');
+                return { loader: page.personInvitePageLoader(queryClient), Component: page.PersonInvitePage };
+              },
+            },
+            {
+              path: 'people/:userId',
+              lazy: async () => {
+                const page = await import('./routes/people/person-page');
+                return { loader: page.personPageLoader(queryClient), Component: page.PersonPage };
+              },
+            },
+            {
+              path: 'mail',
+              lazy: async () => {
+                const page = await import('./routes/mail/mail-page');
+                return { loader: page.mailPageLoader(queryClient), Component: page.MailPage };
               },
             },
             {

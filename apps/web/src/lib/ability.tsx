@@ -3,6 +3,7 @@ import { subject } from '@casl/ability';
 import { AbilityProvider as CaslAbilityProvider, useAbility } from '@casl/react';
 import { abilityFromRules, type AppAbility, type AppRawRule } from '@kerfline/domain/authz/ability';
 import type { Me } from '@kerfline/domain/auth/schema';
+import { ROLES, type Role } from '@kerfline/domain/users/schema';
 
 /**
  * Gives every screen the signed-in user's ability, rebuilt from the rules `/api/me` sent. It only hides
@@ -39,10 +40,31 @@ export function newSawSubject(siteId: string) {
   return subject('Saw', { id: '', siteId });
 }
 
+/** A person as a subject: CASL decides on their site and role (the server checks the saved record again). */
+export function userSubject(person: { id: string; siteId: string | null; role: Role }) {
+  return subject('User', { id: person.id, siteId: person.siteId, role: person.role });
+}
+
+/** Adding a person with a typed first password: administrators only, a fallback to inviting. */
+export function canAddWithPassword(ability: AppAbility): boolean {
+  return ability.can('manage', 'all');
+}
+
+const AT_ONE_SITE: readonly Role[] = ['site_admin', 'technician'];
+
 /**
- * The subject for a person who does not exist yet, for `can('create', …)`. Only administrators may add
- * people; the server checks the new person's site again when they are saved.
+ * What the signed-in person may give when inviting (`Invitation`) or changing (`User`) someone: the roles,
+ * and for roles tied to one site, the sites. Read from the same rules the server enforces.
  */
-export function newUserSubject() {
-  return subject('User', { id: '', siteId: null });
+export function grantable(
+  ability: AppAbility,
+  subjectType: 'Invitation' | 'User',
+  siteIds: readonly string[],
+): { roles: Role[]; siteIdsFor: (role: Role) => string[] } {
+  const action = subjectType === 'Invitation' ? 'create' : 'update';
+  const allows = (role: Role, siteId: string | null) =>
+    ability.can(action, subject(subjectType, { id: '', siteId, role }) as Parameters<AppAbility['can']>[1]);
+  const siteIdsFor = (role: Role) => (AT_ONE_SITE.includes(role) ? siteIds.filter((id) => allows(role, id)) : []);
+  const roles = ROLES.filter((role) => (AT_ONE_SITE.includes(role) ? siteIdsFor(role).length > 0 : allows(role, null)));
+  return { roles, siteIdsFor };
 }

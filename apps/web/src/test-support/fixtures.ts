@@ -21,6 +21,7 @@ export function makeSite(overrides: Partial<Site> = {}): Site {
     currency: 'USD',
     unitSystem: 'imperial',
     activeSawCount: 2,
+    retiredAt: null,
     ...overrides,
   };
 }

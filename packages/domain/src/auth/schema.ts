@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { passwordSchema, userSchema } from '../users/schema.js';
+import { emailSchema, passwordSchema, userSchema } from '../users/schema.js';
 
 export const signInSchema = z.object({
   email: z.string().trim().toLowerCase().min(1, { message: 'enter your e-mail address' }),
@@ -35,3 +35,22 @@ export const passwordChangeSchema = z
     message: 'must differ from the current password',
   });
 export type PasswordChange = z.infer<typeof passwordChangeSchema>;
+
+/** The secret from an e-mailed link (invitation or password reset): 32 random bytes, base64url. */
+export const linkTokenSchema = z
+  .string({ message: 'the link is incomplete' })
+  .trim()
+  .regex(/^[A-Za-z0-9_-]{43}$/, { message: 'the link is incomplete; copy the whole link from the e-mail' });
+
+/** How long a password reset link works. */
+export const PASSWORD_RESET_VALID_MINUTES = 60;
+
+/** Asking for a reset link: the answer is the same whether or not an account uses the address. */
+export const passwordResetRequestSchema = z.object({ email: emailSchema });
+export type PasswordResetRequest = z.infer<typeof passwordResetRequestSchema>;
+
+export const passwordResetSchema = z.object({
+  token: linkTokenSchema,
+  newPassword: passwordSchema,
+});
+export type PasswordReset = z.infer<typeof passwordResetSchema>;

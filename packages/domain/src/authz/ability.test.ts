@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { subject } from '@casl/ability';
 import { abilityFromRules, defineAbilityFor, SUBJECTS, type Principal } from './ability.js';
+import type { Role } from '../users/schema.js';
 
 const A = '00000000-0000-4000-8000-00000000000a';
 const B = '00000000-0000-4000-8000-00000000000b';
@@ -21,7 +22,9 @@ const principals: Record<string, Principal> = {
 
 const saw = (siteId: string) => subject('Saw', { id: 's', siteId });
 const site = (id: string, regionId: string) => subject('Site', { id, regionId });
-const user = (id: string, siteId: string | null) => subject('User', { id, siteId });
+const user = (id: string, siteId: string | null, role: Role = 'technician') => subject('User', { id, siteId, role });
+const invitation = (siteId: string | null, role: Role) => subject('Invitation', { id: 'i', siteId, role });
+const mailLog = (userId: string | null) => subject('MailLog', { id: 'm', userId });
 const audit = (siteId: string | null) => subject('AuditEntry', { id: 'e', siteId });
 const setting = (siteId: string) => subject('SiteSetting', { id: 'k', siteId });
 
@@ -35,6 +38,8 @@ const matrix: [
     | ReturnType<typeof user>
     | ReturnType<typeof audit>
     | ReturnType<typeof setting>
+    | ReturnType<typeof invitation>
+    | ReturnType<typeof mailLog>
   ),
   boolean,
 ][] = [
@@ -62,7 +67,33 @@ const matrix: [
   ['siteAdminA', 'update', site(B, NORTH), false],
   ['siteAdminA', 'read', user(OTHER, A), true],
   ['siteAdminA', 'read', user(OTHER, B), false],
-  ['siteAdminA', 'create', user(OTHER, A), false],
+  // People at their own site, in the roles they hold or below: the resulting record decides.
+  ['siteAdminA', 'create', user(OTHER, A, 'technician'), true],
+  ['siteAdminA', 'create', user(OTHER, A, 'site_admin'), true],
+  ['siteAdminA', 'update', user(OTHER, A, 'technician'), true],
+  ['siteAdminA', 'create', user(OTHER, A, 'admin'), false],
+  ['siteAdminA', 'update', user(OTHER, A, 'manager'), false],
+  ['siteAdminA', 'create', user(OTHER, B, 'technician'), false],
+  ['siteAdminA', 'update', user(OTHER, null, 'regional_lead'), false],
+  ['siteAdminA', 'create', invitation(A, 'technician'), true],
+  ['siteAdminA', 'update', invitation(A, 'site_admin'), true],
+  ['siteAdminA', 'read', invitation(A, 'technician'), true],
+  ['siteAdminA', 'create', invitation(A, 'admin'), false],
+  ['siteAdminA', 'create', invitation(B, 'technician'), false],
+  ['siteAdminA', 'read', invitation(B, 'technician'), false],
+  ['siteAdminA', 'read', invitation(null, 'manager'), false],
+  ['admin', 'create', invitation(null, 'manager'), true],
+  ['admin', 'update', user(OTHER, null, 'admin'), true],
+  ['managerAll', 'create', invitation(A, 'technician'), false],
+  ['managerAll', 'update', user(OTHER, A, 'technician'), false],
+  ['leadNorth', 'create', invitation(A, 'technician'), false],
+  ['leadNorth', 'update', user(OTHER, A, 'technician'), false],
+  ['techA', 'create', invitation(A, 'technician'), false],
+  ['techA', 'update', user(ME, A, 'technician'), false],
+  // The record of mail sent: administrators only.
+  ['admin', 'read', mailLog(OTHER), true],
+  ['managerAll', 'read', mailLog(ME), false],
+  ['siteAdminA', 'read', mailLog(null), false],
   ['techA', 'read', saw(A), true],
   ['techA', 'read', saw(B), false],
   ['techA', 'create', saw(A), false],
@@ -128,15 +159,31 @@ describe('who can do what', () => {
   });
 });
 
+describe('which fields of a site a site admin may change', () => {
+  it('lets them change their own site’s details, but not its region, retirement or another site', () => {
+    const ability = defineAbilityFor(principals.siteAdminA!);
+    for (const field of ['name', 'city', 'timeZone', 'currency', 'unitSystem'])
+      expect(ability.can('update', site(A, NORTH), field), field).toBe(true);
+    expect(ability.can('update', site(A, NORTH), 'regionId')).toBe(false);
+    expect(ability.can('update', site(A, NORTH), 'retiredAt')).toBe(false);
+    expect(ability.can('update', site(B, NORTH), 'name')).toBe(false);
+    const admin = defineAbilityFor(principals.admin!);
+    expect(admin.can('update', site(A, NORTH), 'regionId')).toBe(true);
+    expect(admin.can('update', site(A, NORTH), 'retiredAt')).toBe(true);
+  });
+});
+
 describe('rules stay translatable to SQL', () => {
   const allowed = new Set(['$eq', '$ne', '$in', '$nin']);
   const columns: Record<string, Set<string>> = {
     Region: new Set(['id']),
     Site: new Set(['id', 'regionId']),
     Saw: new Set(['id', 'siteId']),
-    User: new Set(['id', 'siteId']),
+    User: new Set(['id', 'siteId', 'role']),
     AuditEntry: new Set(['id', 'siteId']),
     SiteSetting: new Set(['id', 'siteId']),
+    Invitation: new Set(['id', 'siteId', 'role']),
+    MailLog: new Set(['id', 'userId']),
   };
 
   it('uses only $eq, $ne, $in and $nin on the subject’s own columns, for every role', () => {

@@ -6,21 +6,33 @@ import {
   type RawRuleOf,
 } from '@casl/ability';
 import type { Role } from '../users/schema.js';
+import { SITE_ADMIN_EDITABLE_FIELDS } from '../sites/schema.js';
 
 export const ACTIONS = ['manage', 'create', 'read', 'update', 'delete', 'export'] as const;
 export type Action = (typeof ACTIONS)[number];
 
 /** Subject names equal the API's model names, so Sequelize instances and plain rows are typed alike. */
-export const SUBJECTS = ['Region', 'Site', 'Saw', 'User', 'AuditEntry', 'SiteSetting'] as const;
+export const SUBJECTS = [
+  'Region',
+  'Site',
+  'Saw',
+  'User',
+  'AuditEntry',
+  'SiteSetting',
+  'Invitation',
+  'MailLog',
+] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
 /** The columns rules may test, per subject (CASL types each rule's conditions from these). */
 type RegionFields = { id: string };
 type SiteFields = { id: string; regionId: string };
 type SawFields = { id: string; siteId: string };
-type UserFields = { id: string; siteId: string | null };
+type UserFields = { id: string; siteId: string | null; role: Role };
 type AuditEntryFields = { id: string; siteId: string | null };
 type SiteSettingFields = { id: string; siteId: string };
+type InvitationFields = { id: string; siteId: string | null; role: Role };
+type MailLogFields = { id: string; userId: string | null };
 
 type Subjects =
   | 'all'
@@ -30,7 +42,9 @@ type Subjects =
   | (SawFields & ForcedSubject<'Saw'>)
   | (UserFields & ForcedSubject<'User'>)
   | (AuditEntryFields & ForcedSubject<'AuditEntry'>)
-  | (SiteSettingFields & ForcedSubject<'SiteSetting'>);
+  | (SiteSettingFields & ForcedSubject<'SiteSetting'>)
+  | (InvitationFields & ForcedSubject<'Invitation'>)
+  | (MailLogFields & ForcedSubject<'MailLog'>);
 
 export type AppAbility = MongoAbility<[Action, Subjects]>;
 export type AppRawRule = RawRuleOf<AppAbility>;
@@ -49,6 +63,9 @@ export type Principal = {
   siteIds: 'all' | string[];
   regionIds: 'all' | string[];
 };
+
+/** The roles a site admin may give people at their own site. */
+export const SITE_ADMIN_GRANTS = ['site_admin', 'technician'] as const satisfies readonly Role[];
 
 /**
  * The only place Kerfline's permissions are written. Conditions stay translatable to SQL: `$eq`, `$ne`,
@@ -87,9 +104,15 @@ export function defineAbilityFor(p: Principal): AppAbility {
     case 'site_admin':
       if (p.siteId) {
         can('read', 'Region', { id: inRegions ?? { $in: [] } });
-        can(['read', 'update'], 'Site', { id: p.siteId });
+        can('read', 'Site', { id: p.siteId });
+        // Their own site's everyday details; its region and retiring it stay with administrators.
+        can('update', 'Site', [...SITE_ADMIN_EDITABLE_FIELDS], { id: p.siteId });
         can(['create', 'read', 'update'], 'Saw', { siteId: p.siteId });
         can('read', 'User', { siteId: p.siteId });
+        // The people of their own site, in the roles they hold themselves or below; checked on the resulting
+        // record, so nobody can be moved to another site or raised above site admin by them.
+        can(['create', 'update'], 'User', { siteId: p.siteId, role: { $in: [...SITE_ADMIN_GRANTS] } });
+        can(['create', 'read', 'update'], 'Invitation', { siteId: p.siteId, role: { $in: [...SITE_ADMIN_GRANTS] } });
         // The history of their own site's records; fleet-wide records (siteId NULL) stay with admins.
         can('read', 'AuditEntry', { siteId: p.siteId });
         // Their site's figures with no single printed value (band speeds, tension ranges, check limits).

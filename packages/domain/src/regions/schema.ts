@@ -9,3 +9,6 @@ export type Region = z.infer<typeof regionSchema>;
 
 export const regionCreateSchema = z.object({ name: text(80) });
 export type RegionCreate = z.infer<typeof regionCreateSchema>;
+
+export const regionUpdateSchema = z.object({ name: text(80) }).strict();
+export type RegionUpdate = z.infer<typeof regionUpdateSchema>;

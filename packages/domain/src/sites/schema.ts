@@ -36,6 +36,8 @@ export const siteSchema = z.object({
   unitSystem: z.enum(UNIT_SYSTEMS),
   /** Saws at the site that are not retired; filled by list and detail reads. */
   activeSawCount: z.number().int().min(0),
+  /** When the site was retired: it keeps its history but leaves pickers and lists. Null while in use. */
+  retiredAt: z.iso.datetime().nullable(),
 });
 export type Site = z.infer<typeof siteSchema>;
 
@@ -56,10 +58,18 @@ export const siteCreateSchema = z.object({
 });
 export type SiteCreate = z.infer<typeof siteCreateSchema>;
 
-export const siteUpdateSchema = z.object(siteEditableShapes).partial().strict();
+/** Fields a site admin may change at their own site; moving a site to another region is for administrators. */
+export const SITE_ADMIN_EDITABLE_FIELDS = ['name', 'city', 'timeZone', 'currency', 'unitSystem'] as const;
+
+export const siteUpdateSchema = z
+  .object({ ...siteEditableShapes, regionId: idSchema })
+  .partial()
+  .strict();
 export type SiteUpdate = z.infer<typeof siteUpdateSchema>;
 
 export const siteListQuerySchema = pageQuerySchema.extend({
   regionId: idSchema.optional(),
+  /** Retired sites are left out unless asked for. */
+  includeRetired: z.union([z.boolean(), z.enum(['true', 'false']).transform((v) => v === 'true')]).default(false),
 });
 export type SiteListQuery = z.infer<typeof siteListQuerySchema>;

@@ -39,48 +39,88 @@ export const passwordSchema = z
   .min(12, { message: 'must be at least 12 characters' })
   .max(200, { message: 'must be at most 200 characters' });
 
+/** The parts of a person that say where their role applies. */
+export type Assignment = {
+  role: Role;
+  siteId: string | null;
+  regionId: string | null;
+  managedSiteIds: string[];
+  allSites: boolean;
+};
+
 /**
  * Which assignment each role needs: site admins and technicians one home site, regional leads one region,
- * managers a list of sites or all sites, admins nothing.
+ * managers a list of sites or all sites, admins nothing. Shared by adding, inviting and editing a person,
+ * so the three never disagree.
+ */
+export function assignmentIssues(v: Assignment): { path: string; message: string }[] {
+  const issues: { path: string; message: string }[] = [];
+  const needsSite = v.role === 'site_admin' || v.role === 'technician';
+  if (needsSite && !v.siteId) issues.push({ path: 'siteId', message: 'a site admin or technician needs a home site' });
+  if (!needsSite && v.siteId)
+    issues.push({ path: 'siteId', message: 'only site admins and technicians have a home site' });
+  if (v.role === 'regional_lead' && !v.regionId)
+    issues.push({ path: 'regionId', message: 'a regional lead needs a region' });
+  if (v.role !== 'regional_lead' && v.regionId)
+    issues.push({ path: 'regionId', message: 'only regional leads have a region' });
+  if (v.role === 'manager' && !v.allSites && v.managedSiteIds.length === 0)
+    issues.push({ path: 'managedSiteIds', message: 'a manager needs at least one site, or all sites' });
+  if (v.role !== 'manager' && (v.allSites || v.managedSiteIds.length > 0))
+    issues.push({ path: 'managedSiteIds', message: 'only managers are assigned a list of sites' });
+  return issues;
+}
+
+const assignmentShape = {
+  role: z.enum(ROLES, { message: 'choose a role' }),
+  siteId: idSchema.nullable().default(null),
+  regionId: idSchema.nullable().default(null),
+  managedSiteIds: z.array(idSchema).max(500).default([]),
+  allSites: z.boolean().default(false),
+};
+
+function refineAssignment(v: Assignment, ctx: z.RefinementCtx): void {
+  for (const issue of assignmentIssues(v)) ctx.addIssue({ code: 'custom', path: [issue.path], message: issue.message });
+}
+
+/**
+ * An account made with a typed first password: kept for administrators only, as a fallback where no mail
+ * server is set up. Inviting by e-mail is the usual way.
  */
 export const userCreateSchema = z
   .object({
     email: emailSchema,
     name: text(120),
-    role: z.enum(ROLES, { message: 'choose a role' }),
     password: passwordSchema,
-    siteId: idSchema.nullable().default(null),
-    regionId: idSchema.nullable().default(null),
-    managedSiteIds: z.array(idSchema).default([]),
-    allSites: z.boolean().default(false),
+    ...assignmentShape,
   })
-  .superRefine((v, ctx) => {
-    const needsSite = v.role === 'site_admin' || v.role === 'technician';
-    if (needsSite && !v.siteId)
-      ctx.addIssue({ code: 'custom', path: ['siteId'], message: 'a site admin or technician needs a home site' });
-    if (!needsSite && v.siteId)
-      ctx.addIssue({ code: 'custom', path: ['siteId'], message: 'only site admins and technicians have a home site' });
-    if (v.role === 'regional_lead' && !v.regionId)
-      ctx.addIssue({ code: 'custom', path: ['regionId'], message: 'a regional lead needs a region' });
-    if (v.role !== 'regional_lead' && v.regionId)
-      ctx.addIssue({ code: 'custom', path: ['regionId'], message: 'only regional leads have a region' });
-    if (v.role === 'manager' && !v.allSites && v.managedSiteIds.length === 0) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['managedSiteIds'],
-        message: 'a manager needs at least one site, or all sites',
-      });
-    }
-    if (v.role !== 'manager' && (v.allSites || v.managedSiteIds.length > 0)) {
-      ctx.addIssue({ code: 'custom', path: ['managedSiteIds'], message: 'only managers are assigned a list of sites' });
-    }
-  });
+  .superRefine(refineAssignment);
 export type UserCreate = z.input<typeof userCreateSchema>;
 /** A new person's input once checked, defaults applied: what the API's service receives. */
 export type UserCreateParsed = z.output<typeof userCreateSchema>;
 
+export const USER_STATES = ['active', 'inactive'] as const;
+
 export const userListQuerySchema = pageQuerySchema.extend({
   siteId: idSchema.optional(),
   role: z.enum(ROLES).optional(),
+  /** Leave out to list everyone; people are never deleted, only deactivated. */
+  state: z.enum(USER_STATES).optional(),
 });
+
+/**
+ * A change to a person: their name, and their role with the assignment it needs. The e-mail address is
+ * their sign-in and is not changed here. Every field is optional; the service checks the merged record.
+ */
+export const userUpdateSchema = z
+  .object({
+    name: text(120),
+    role: z.enum(ROLES, { message: 'choose a role' }),
+    siteId: idSchema.nullable(),
+    regionId: idSchema.nullable(),
+    managedSiteIds: z.array(idSchema).max(500),
+    allSites: z.boolean(),
+  })
+  .partial()
+  .strict();
+export type UserUpdate = z.infer<typeof userUpdateSchema>;
 export type UserListQuery = z.infer<typeof userListQuerySchema>;

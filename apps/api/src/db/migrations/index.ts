@@ -3,6 +3,7 @@ import * as foundation from './20261201-0001-foundation.js';
 import * as audit from './20261202-0001-audit.js';
 import * as siteSettings from './20261203-0201-site-settings.js';
 import * as sawHeadFeed from './20261203-0202-saw-head-feed.js';
+import * as peopleAndMail from './20261203-0001-people-and-mail.js';
 
 type Migration = {
   name: string;
@@ -16,4 +17,5 @@ export const migrations: Migration[] = [
   { name: '20261202-0001-audit', ...audit },
   { name: '20261203-0201-site-settings', ...siteSettings },
   { name: '20261203-0202-saw-head-feed', ...sawHeadFeed },
+  { name: '20261203-0001-people-and-mail', ...peopleAndMail },
 ];

@@ -6,6 +6,8 @@ import { Site } from '../sites/site.model.js';
 import { toUserDto } from '../users/user-dto.js';
 import { hashPassword, verifyPassword } from '../../security/passwords.js';
 import { AppError } from '../../errors.js';
+import { inTransaction } from '../../db/models.js';
+import { endSessionsOf } from '../../security/sessions.js';
 
 // Verified against when the e-mail is unknown, so both failures take the same time.
 let dummyHash: Promise<string> | undefined;
@@ -91,11 +93,8 @@ export async function changePassword(
     throw AppError.validation('The current password is not right', [{ path: 'currentPassword', message: 'not right' }]);
   }
   const passwordHash = await hashPassword(input.newPassword);
-  await User.sequelize!.transaction(async (transaction) => {
-    await user.update({ passwordHash }, { transaction });
-    await User.sequelize!.query(
-      `DELETE FROM sessions WHERE sid <> :sid AND (sess -> 'passport' ->> 'user') = :userId`,
-      { replacements: { sid: currentSessionId, userId }, transaction },
-    );
+  await inTransaction(async (transaction) => {
+    await user.update({ passwordHash, passwordChangedAt: new Date() }, { transaction });
+    await endSessionsOf(User.sequelize!, userId, { transaction, exceptSessionId: currentSessionId });
   });
 }

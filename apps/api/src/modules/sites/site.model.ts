@@ -17,6 +17,7 @@ export class Site extends Model<InferAttributes<Site>, InferCreationAttributes<S
   declare timeZone: string;
   declare currency: string;
   declare unitSystem: UnitSystem;
+  declare retiredAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -31,6 +32,7 @@ export class Site extends Model<InferAttributes<Site>, InferCreationAttributes<S
         timeZone: { type: DataTypes.TEXT, allowNull: false },
         currency: { type: DataTypes.CHAR(3), allowNull: false },
         unitSystem: { type: DataTypes.TEXT, allowNull: false },
+        retiredAt: { type: DataTypes.DATE, allowNull: true, defaultValue: null },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -2,9 +2,9 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { siteCreateSchema, siteListQuerySchema, siteUpdateSchema } from '@kerfline/domain/sites/schema';
 import { idSchema } from '@kerfline/domain/common/schema';
-import { abilityOf } from '../../http/authenticate.js';
+import { abilityOf, actorOf } from '../../http/authenticate.js';
 import { parsed, validate } from '../../http/validate.js';
-import { createSite, getSite, listSites, updateSite } from './sites.service.js';
+import { createSite, getSite, listSites, setSiteRetired, updateSite } from './sites.service.js';
 
 const params = z.object({ id: idSchema });
 
@@ -17,10 +17,16 @@ export function sitesRouter(): Router {
     res.json(await getSite(abilityOf(res), parsed(res, 'params', params).id));
   });
   router.post('/sites', validate('body', siteCreateSchema), async (_req, res) => {
-    res.status(201).json(await createSite(abilityOf(res), parsed(res, 'body', siteCreateSchema)));
+    res.status(201).json(await createSite(actorOf(res), parsed(res, 'body', siteCreateSchema)));
   });
   router.patch('/sites/:id', validate('params', params), validate('body', siteUpdateSchema), async (_req, res) => {
-    res.json(await updateSite(abilityOf(res), parsed(res, 'params', params).id, parsed(res, 'body', siteUpdateSchema)));
+    res.json(await updateSite(actorOf(res), parsed(res, 'params', params).id, parsed(res, 'body', siteUpdateSchema)));
+  });
+  router.post('/sites/:id/retire', validate('params', params), async (_req, res) => {
+    res.json(await setSiteRetired(actorOf(res), parsed(res, 'params', params).id, true));
+  });
+  router.post('/sites/:id/restore', validate('params', params), async (_req, res) => {
+    res.json(await setSiteRetired(actorOf(res), parsed(res, 'params', params).id, false));
   });
   return router;
 }

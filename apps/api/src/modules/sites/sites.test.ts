@@ -128,3 +128,54 @@ describe('adding regions', () => {
     ).not.toContain('West');
   });
 });
+
+describe('retiring sites and renaming regions', () => {
+  it('lets an admin retire a site: it leaves lists but keeps its history, readable by id and on request', async () => {
+    const admin = await as('admin@test.example');
+    const retired = await admin.post(`/api/sites/${world.sites.B.id}/retire`);
+    expect(retired.status).toBe(200);
+    expect(retired.body.retiredAt).toMatch(/^\d{4}-/);
+    expect(codes((await admin.get('/api/sites')).body)).toEqual(['A', 'C']);
+    expect(codes((await admin.get('/api/sites?includeRetired=true')).body)).toEqual(['A', 'B', 'C']);
+    expect((await admin.get(`/api/sites/${world.sites.B.id}`)).body.activeSawCount).toBe(2);
+    // The lead of its region still reads it and its saws (history), but it is out of the everyday list.
+    const lead = await as('lead-north@test.example');
+    expect(codes((await lead.get('/api/sites')).body)).toEqual(['A']);
+    expect((await lead.get(`/api/saws?siteId=${world.sites.B.id}`)).body.total).toBe(2);
+    expect((await admin.patch(`/api/sites/${world.sites.B.id}`).send({ name: 'x' })).status).toBe(409);
+    expect((await admin.post(`/api/sites/${world.sites.B.id}/retire`)).status).toBe(409);
+    await admin.post(`/api/sites/${world.sites.B.id}/restore`).expect(200);
+    expect(codes((await admin.get('/api/sites')).body)).toEqual(['A', 'B', 'C']);
+    const history = (await admin.get(`/api/audit?entity=Site&entityId=${world.sites.B.id}`)).body.items;
+    expect(history.map((e: { action: string }) => e.action)).toEqual(['restore', 'retire']);
+  });
+
+  it('keeps retiring and moving a site to another region with administrators', async () => {
+    const siteAdmin = await as('siteadmin-a@test.example');
+    const retire = await siteAdmin.post(`/api/sites/${world.sites.A.id}/retire`);
+    expect(retire.status).toBe(403);
+    const move = await siteAdmin.patch(`/api/sites/${world.sites.A.id}`).send({ regionId: world.regions.south.id });
+    expect(move.status).toBe(403);
+    expect(move.body.error.message).toMatch(/administrator can move a site/);
+    expect((await (await as('manager-all@test.example')).post(`/api/sites/${world.sites.A.id}/retire`)).status).toBe(
+      403,
+    );
+    const admin = await as('admin@test.example');
+    const moved = await admin.patch(`/api/sites/${world.sites.A.id}`).send({ regionId: world.regions.south.id });
+    expect(moved.status).toBe(200);
+    expect(moved.body.regionId).toBe(world.regions.south.id);
+    const audit = (await admin.get(`/api/audit?entity=Site&entityId=${world.sites.A.id}`)).body.items[0];
+    expect(audit.before).toEqual({ regionId: world.regions.north.id });
+  });
+
+  it('lets an admin rename a region, and nobody else', async () => {
+    const admin = await as('admin@test.example');
+    const renamed = await admin.patch(`/api/regions/${world.regions.north.id}`).send({ name: 'North & Lakes' });
+    expect(renamed.status).toBe(200);
+    expect(renamed.body.name).toBe('North & Lakes');
+    expect((await admin.patch(`/api/regions/${world.regions.north.id}`).send({ name: 'South' })).status).toBe(409);
+    const lead = await as('lead-north@test.example');
+    expect((await lead.patch(`/api/regions/${world.regions.north.id}`).send({ name: 'Mine' })).status).toBe(403);
+    expect((await lead.patch(`/api/regions/${world.regions.south.id}`).send({ name: 'Mine' })).status).toBe(404);
+  });
+});

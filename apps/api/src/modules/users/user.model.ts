@@ -18,6 +18,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare regionId: string | null;
   declare allSites: CreationOptional<boolean>;
   declare active: CreationOptional<boolean>;
+  declare passwordChangedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -33,6 +34,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         regionId: { type: DataTypes.UUID, allowNull: true },
         allSites: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+        passwordChangedAt: { type: DataTypes.DATE, allowNull: true, defaultValue: null },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -17,6 +17,7 @@ const NAV_ITEMS: NavItem[] = [
   { to: '/saws', label: 'Saws' },
   { to: '/people', label: 'People', roles: ['admin', 'site_admin'] },
   { to: '/calculators', label: 'Shop calculators' },
+  { to: '/mail', label: 'Mail', roles: ['admin'] },
 ];
 
 const navLinkClass = ({ isActive }: { isActive: boolean }) =>

@@ -3,6 +3,7 @@ import { ROLE_LABELS } from '@kerfline/domain/users/schema';
 import { meQuery } from '../../../features/auth/api/queries';
 import { PasswordChangeForm } from '../../../features/auth/components/password-change-form';
 import { Card } from '../../../lib/ui/card';
+import { MailPreferences } from '../../../features/mail/components/mail-preferences';
 
 /** The signed-in person's own account: who they are signed in as, and their password. */
 export function AccountPage() {
@@ -19,6 +20,11 @@ export function AccountPage() {
       <Card aria-label="Password" className="px-5 py-5">
         <h2 className="mb-4 text-lg font-bold text-ink">Change your password</h2>
         <PasswordChangeForm />
+      </Card>
+      <Card aria-label="Mail" className="px-5 py-5">
+        <h2 className="mb-1 text-lg font-bold text-ink">Mail from Kerfline</h2>
+        <p className="mb-4 text-sm text-ink-muted">Sent to {me.user.email}.</p>
+        <MailPreferences />
       </Card>
     </div>
   );

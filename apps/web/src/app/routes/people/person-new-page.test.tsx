@@ -45,6 +45,7 @@ function fakeApiFor(role: Role, answerPost?: (request: FakeRequest) => { status:
     },
     'GET /api/regions': { status: 200, body: page([{ id: REGION_ID, name: 'Great Lakes' }]) },
     'GET /api/users': () => ({ status: 200, body: page(people) }),
+    'GET /api/invitations': { status: 200, body: page([]) },
     'POST /api/users':
       answerPost ??
       ((request) => {
@@ -71,8 +72,11 @@ describe('adding a person', () => {
     const { requests } = fakeApiFor('admin');
     const { router, queryClient, user } = renderApp('/people');
 
-    await user.click(await screen.findByRole('link', { name: 'Add person' }));
-    expect(await screen.findByRole('heading', { level: 1, name: 'Add a person' })).toBeInTheDocument();
+    await user.click(await screen.findByRole('link', { name: 'Add with a password' }));
+    expect(await screen.findByRole('heading', { level: 1, name: 'Add a person with a password' })).toBeInTheDocument();
+    // The fallback says plainly that inviting is the better way.
+    expect(screen.getByRole('note')).toHaveTextContent(/Invite people by e-mail when you can/);
+    expect(screen.getByRole('link', { name: 'Invite someone instead' })).toHaveAttribute('href', '/people/invite');
     await user.type(screen.getByRole('textbox', { name: /^Name/ }), 'Rosa Lindqvist');
     await user.type(screen.getByRole('textbox', { name: /^E-mail/ }), 'rosa.lindqvist@example.com');
     await user.click(screen.getByRole('radio', { name: /Saw technician/ }));
@@ -167,22 +171,27 @@ describe('adding a person', () => {
     expect(router.state.location.pathname).toBe('/people/new');
   });
 
-  it('offers no "Add person" to a site admin, who still sees the people of their site', async () => {
+  it('offers a site admin "Invite someone" but not adding with a password, and the people of their site', async () => {
     fakeApiFor('site_admin');
     renderApp('/people');
     expect(await screen.findByRole('rowheader', { name: 'Marta Ilves' })).toBeInTheDocument();
-    expect(screen.queryByRole('link', { name: 'Add person' })).not.toBeInTheDocument();
+    expect(screen.queryByRole('link', { name: 'Add with a password' })).not.toBeInTheDocument();
+    expect(screen.getByRole('link', { name: 'Invite someone' })).toHaveAttribute('href', '/people/invite');
   });
 
   it.each(['site_admin', 'manager'] as const)('shows a %s a note, not the form, at /people/new', async (role) => {
     const { requests } = fakeApiFor(role);
     const people = renderApp('/people');
     expect(await screen.findByRole('heading', { level: 1, name: 'People' })).toBeInTheDocument();
-    expect(screen.queryByRole('link', { name: 'Add person' })).not.toBeInTheDocument();
+    expect(screen.queryByRole('link', { name: 'Add with a password' })).not.toBeInTheDocument();
     people.unmount();
 
     renderApp('/people/new');
-    expect(await screen.findByText('Only an administrator can add people.')).toBeInTheDocument();
+    expect(
+      await screen.findByText(
+        'Only an administrator can add someone with a password. Invite people by e-mail instead.',
+      ),
+    ).toBeInTheDocument();
     expect(screen.queryByRole('button', { name: 'Add person' })).not.toBeInTheDocument();
     expect(requests.some((r) => r.method === 'POST')).toBe(false);
   });

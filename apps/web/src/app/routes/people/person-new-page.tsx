@@ -1,6 +1,6 @@
-import { useNavigate } from 'react-router-dom';
+import { Link, useNavigate } from 'react-router-dom';
 import { useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
-import { abilityFromMeRules, newUserSubject, useAppAbility } from '../../../lib/ability';
+import { abilityFromMeRules, canAddWithPassword, useAppAbility } from '../../../lib/ability';
 import { LinkButton } from '../../../lib/ui/button';
 import { Card } from '../../../lib/ui/card';
 import { Notice } from '../../../lib/ui/notice';
@@ -16,7 +16,7 @@ export type AddedPerson = { name: string; email: string };
 export function personNewPageLoader(queryClient: QueryClient) {
   return async () => {
     const me = await queryClient.ensureQueryData(meQuery());
-    if (!abilityFromMeRules(me.rules).can('create', newUserSubject())) return null;
+    if (!canAddWithPassword(abilityFromMeRules(me.rules))) return null;
     await Promise.all([queryClient.ensureQueryData(siteListQuery()), queryClient.ensureQueryData(regionListQuery())]);
     return null;
   };
@@ -56,21 +56,34 @@ function NewPerson() {
   );
 }
 
-/** A new account (administrators only). */
+/**
+ * An account with a first password the administrator types: the fallback where Kerfline cannot send mail.
+ * Inviting by e-mail is the usual way, so the person chooses their own password and nobody else knows it.
+ */
 export function PersonNewPage() {
   const ability = useAppAbility();
   return (
     <div className="mx-auto max-w-3xl space-y-6">
-      <title>Add a person · Kerfline</title>
+      <title>Add a person with a password · Kerfline</title>
       <div>
-        <h1 className="text-3xl font-extrabold tracking-tight text-ink">Add a person</h1>
+        <h1 className="text-3xl font-extrabold tracking-tight text-ink">Add a person with a password</h1>
         <p className="mt-1 text-ink-muted">An account to sign in with. What they see follows from their role.</p>
       </div>
-      {ability.can('create', newUserSubject()) ? (
-        <NewPerson />
+      {canAddWithPassword(ability) ? (
+        <>
+          <Notice tone="caution" title="Invite people by e-mail when you can">
+            Here you choose their first password and have to pass it on yourself, so you know it too. Use this only
+            where Kerfline cannot send mail.{' '}
+            <Link to="/people/invite" className="font-bold underline underline-offset-4">
+              Invite someone instead
+            </Link>
+            .
+          </Notice>
+          <NewPerson />
+        </>
       ) : (
         <Notice tone="info" title="Not for your role">
-          Only an administrator can add people.
+          Only an administrator can add someone with a password. Invite people by e-mail instead.
         </Notice>
       )}
     </div>

@@ -7,8 +7,11 @@ import { sawListQuery } from '../../../features/saws/api/queries';
 import { sawFilterValuesFromSearch, sawListQueryFromSearch } from '../../../features/saws/api/list-search';
 import { SawFilters } from '../../../features/saws/components/saw-filters';
 import { SawsTable } from '../../../features/saws/components/saws-table';
-import { LinkButton } from '../../../lib/ui/button';
 import { Pager } from '../../../lib/ui/pager';
+import { LinkButton } from '../../../lib/ui/button';
+import { Notice } from '../../../lib/ui/notice';
+import { useAppAbility } from '../../../lib/ability';
+import { subject } from '@casl/ability';
 
 export function sitePageLoader(queryClient: QueryClient) {
   return async ({ params, request }: LoaderFunctionArgs) => {
@@ -32,6 +35,7 @@ export function SitePage() {
   const { data: saws } = useSuspenseQuery(sawListQuery(q));
   const { data: regions } = useQuery(regionListQuery());
   const filters = sawFilterValuesFromSearch(search);
+  const ability = useAppAbility();
   const filtered = filters.status !== '' || filters.kind !== '' || filters.q !== '';
 
   return (
@@ -40,8 +44,20 @@ export function SitePage() {
       <SiteHeader
         site={site}
         regionName={regions?.items.find((region) => region.id === site.regionId)?.name}
-        actions={<LinkButton to={`/sites/${site.id}/settings`}>Site settings</LinkButton>}
+        actions={
+          <>
+            <LinkButton to={`/sites/${site.id}/settings`}>Site settings</LinkButton>
+            {ability.can('update', subject('Site', { id: site.id, regionId: site.regionId })) ? (
+              <LinkButton to={`/sites/${site.id}/edit`}>Change site</LinkButton>
+            ) : null}
+          </>
+        }
       />
+      {site.retiredAt ? (
+        <Notice tone="info" title="Retired site">
+          Kept for its history: it is left out of lists and pickers.
+        </Notice>
+      ) : null}
       <SawsTable
         heading="Saws"
         saws={saws.items}

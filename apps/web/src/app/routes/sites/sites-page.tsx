@@ -1,15 +1,20 @@
 import { useQuery, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
-import { siteListQuery } from '../../../features/sites/api/queries';
+import { useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { parseSiteListQuery, siteListQuery } from '../../../features/sites/api/queries';
 import { SiteTiles } from '../../../features/sites/components/site-tiles';
 import { regionListQuery } from '../../../features/regions/api/queries';
 import { useAppAbility } from '../../../lib/ability';
 import { LinkButton } from '../../../lib/ui/button';
 
+/** `?retired=shown` lists retired sites too (they keep their history). */
+const listOf = (search: URLSearchParams) =>
+  siteListQuery(parseSiteListQuery({ includeRetired: search.get('retired') === 'shown' }));
+
 export function sitesLoader(queryClient: QueryClient) {
-  return async () => {
+  return async ({ request }: LoaderFunctionArgs) => {
     // Region names only label the tiles: a failure there must not stop the page.
     await Promise.all([
-      queryClient.ensureQueryData(siteListQuery()),
+      queryClient.ensureQueryData(listOf(new URL(request.url).searchParams)),
       queryClient.ensureQueryData(regionListQuery()).catch(() => undefined),
     ]);
     return null;
@@ -17,7 +22,9 @@ export function sitesLoader(queryClient: QueryClient) {
 }
 
 export function SitesPage() {
-  const { data: sites } = useSuspenseQuery(siteListQuery());
+  const [search, setSearch] = useSearchParams();
+  const showRetired = search.get('retired') === 'shown';
+  const { data: sites } = useSuspenseQuery(listOf(search));
   const { data: regions } = useQuery(regionListQuery());
   const ability = useAppAbility();
   const regionNameOf = (regionId: string) => regions?.items.find((region) => region.id === regionId)?.name;
@@ -41,6 +48,17 @@ export function SitesPage() {
         ) : null}
       </div>
       <SiteTiles sites={sites.items} regionNameOf={regionNameOf} />
+      {ability.can('create', 'Site') ? (
+        <label className="flex min-h-11 w-fit cursor-pointer items-center gap-3 text-sm text-ink">
+          <input
+            type="checkbox"
+            className="size-5 accent-accent"
+            checked={showRetired}
+            onChange={(event) => setSearch(event.target.checked ? { retired: 'shown' } : {})}
+          />
+          Show retired sites too
+        </label>
+      ) : null}
     </div>
   );
 }

@@ -1,5 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { meSchema, type PasswordChange, type SignIn } from '@kerfline/domain/auth/schema';
+import { z } from 'zod';
+import {
+  meSchema,
+  type PasswordChange,
+  type PasswordReset,
+  type PasswordResetRequest,
+  type SignIn,
+} from '@kerfline/domain/auth/schema';
 import { api } from '../../../lib/api-client';
 import { meKeys } from './keys';
 
@@ -26,6 +33,22 @@ export function useSignOut() {
 export function useChangePassword() {
   return useMutation({
     mutationFn: (input: PasswordChange) => api.post('/me/password', input, null),
+    gcTime: 0,
+  });
+}
+
+/** Asks for a reset link; the answer is the same whether or not an account uses the address. */
+export function useRequestPasswordReset() {
+  return useMutation({
+    mutationFn: (input: PasswordResetRequest) =>
+      api.post('/auth/password-reset/request', input, z.object({ message: z.string() })),
+  });
+}
+
+/** Sets a new password from a reset link; every session of that person ends. Nothing is cached. */
+export function useResetPassword() {
+  return useMutation({
+    mutationFn: (input: PasswordReset) => api.post('/auth/password-reset', input, null),
     gcTime: 0,
   });
 }

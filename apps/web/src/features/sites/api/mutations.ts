@@ -26,3 +26,13 @@ export function useUpdateSite(id: string) {
     onSuccess: (site) => storeSaved(queryClient, site),
   });
 }
+
+/** Retires a site (`retired: true`) or brings it back (administrators); its history stays either way. */
+export function useSetSiteRetired(id: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (retired: boolean) =>
+      api.post(`/sites/${encodeURIComponent(id)}/${retired ? 'retire' : 'restore'}`, undefined, siteSchema),
+    onSuccess: (site) => storeSaved(queryClient, site),
+  });
+}

@@ -90,9 +90,48 @@ type SiteFormProps = {
   cancel?: ReactNode;
   /** Shown under the region list, e.g. where to add a region that is missing. */
   regionHint?: string;
+  /** The site as it is, when the form changes one. */
+  initial?: Partial<SiteFormValues>;
+  /** The code names the site everywhere and does not change once it exists. */
+  codeLocked?: boolean;
+  /** Moving a site to another region is for administrators; others see the region but cannot change it. */
+  regionLocked?: boolean;
 };
 
-export function SiteForm({ regions, chooseRegionId, submitLabel, onSubmit, cancel, regionHint }: SiteFormProps) {
+/** Form values for an existing site: a currency outside the common list goes in the "another" field. */
+export function siteFormValuesOf(site: {
+  name: string;
+  code: string;
+  city: string | null;
+  regionId: string;
+  timeZone: string;
+  currency: string;
+  unitSystem: UnitSystem;
+}): SiteFormValues {
+  const common = (COMMON_CURRENCIES as readonly string[]).includes(site.currency);
+  return {
+    name: site.name,
+    code: site.code,
+    city: site.city ?? '',
+    regionId: site.regionId,
+    timeZone: site.timeZone,
+    currency: common ? site.currency : OTHER_CURRENCY,
+    otherCurrency: common ? '' : site.currency,
+    unitSystem: site.unitSystem,
+  };
+}
+
+export function SiteForm({
+  regions,
+  chooseRegionId,
+  submitLabel,
+  onSubmit,
+  cancel,
+  regionHint,
+  initial,
+  codeLocked = false,
+  regionLocked = false,
+}: SiteFormProps) {
   const zoneGroups = useMemo<ZoneGroup[] | undefined>(() => timeZoneGroups(), []);
   const {
     register,
@@ -114,6 +153,7 @@ export function SiteForm({ regions, chooseRegionId, submitLabel, onSubmit, cance
       currency: '',
       otherCurrency: '',
       unitSystem: '',
+      ...initial,
     },
   });
 
@@ -152,19 +192,24 @@ export function SiteForm({ regions, chooseRegionId, submitLabel, onSubmit, cance
         </Field>
         <Field
           label="Code"
-          hint="Short and unique: capital letters, digits and dashes, such as RBT or HAM-2."
+          hint={
+            codeLocked
+              ? 'The code names the site everywhere and stays as it is.'
+              : 'Short and unique: capital letters, digits and dashes, such as RBT or HAM-2.'
+          }
           error={errors.code?.message}
         >
           {(props) => (
             <input
               {...props}
               {...register('code')}
+              readOnly={codeLocked}
               autoComplete="off"
               autoCapitalize="characters"
               spellCheck={false}
               maxLength={12}
               // Shown in capitals as typed; sent in capitals.
-              className={`${inputClass} uppercase`}
+              className={`${inputClass} uppercase read-only:border-rule read-only:bg-paper`}
             />
           )}
         </Field>
@@ -172,16 +217,25 @@ export function SiteForm({ regions, chooseRegionId, submitLabel, onSubmit, cance
           {(props) => <input {...props} {...register('city')} autoComplete="off" className={inputClass} />}
         </Field>
         <Field label="Region" hint={regionHint} error={errors.regionId?.message}>
-          {(props) => (
-            <select {...props} {...register('regionId')} className={inputClass}>
-              <option value="">{regions.length === 0 ? 'No regions yet' : 'Choose…'}</option>
-              {regions.map((region) => (
-                <option key={region.id} value={region.id}>
-                  {region.name}
-                </option>
-              ))}
-            </select>
-          )}
+          {(props) =>
+            regionLocked ? (
+              <input
+                {...props}
+                readOnly
+                value={regions.find((region) => region.id === initial?.regionId)?.name ?? ''}
+                className={`${inputClass} border-rule bg-paper`}
+              />
+            ) : (
+              <select {...props} {...register('regionId')} className={inputClass}>
+                <option value="">{regions.length === 0 ? 'No regions yet' : 'Choose…'}</option>
+                {regions.map((region) => (
+                  <option key={region.id} value={region.id}>
+                    {region.name}
+                  </option>
+                ))}
+              </select>
+            )
+          }
         </Field>
       </fieldset>
 

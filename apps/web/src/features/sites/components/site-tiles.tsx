@@ -35,6 +35,11 @@ export function SiteTiles({
               {site.name}
             </h2>
             <p className="text-sm text-ink-muted">{site.city ?? 'City not recorded'}</p>
+            {site.retiredAt ? (
+              <p className="mt-2 w-fit rounded border border-ink-muted px-1.5 py-0.5 text-xs font-bold tracking-wider text-ink-muted uppercase">
+                <span aria-hidden="true">■ </span>Retired
+              </p>
+            ) : null}
             <p className="mt-4 flex items-baseline gap-2">
               <span className="tabular text-4xl font-extrabold text-ink">{formatNumber(site.activeSawCount)}</span>
               <span className="text-sm text-ink-muted">{site.activeSawCount === 1 ? 'saw in use' : 'saws in use'}</span>

@@ -6,4 +6,6 @@ export const userKeys = {
   lists: () => [...userKeys.all, 'list'] as const,
   /** `q` is the parsed query with its defaults, so equal filters give equal keys. */
   list: (q: UserListQuery) => [...userKeys.lists(), q] as const,
+  details: () => [...userKeys.all, 'detail'] as const,
+  detail: (id: string) => [...userKeys.details(), id] as const,
 };

@@ -1,7 +1,15 @@
 import { useState, type ReactNode } from 'react';
-import { Controller, useForm, useWatch } from 'react-hook-form';
+import { Controller, useForm, useWatch, type FieldValues } from 'react-hook-form';
 import type { z } from 'zod';
-import { ROLES, ROLE_LABELS, userCreateSchema, type Role } from '@kerfline/domain/users/schema';
+import {
+  ROLES,
+  ROLE_LABELS,
+  userCreateSchema,
+  userUpdateSchema,
+  type Role,
+  type UserUpdate,
+} from '@kerfline/domain/users/schema';
+import { invitationCreateSchema, type InvitationCreateParsed } from '@kerfline/domain/invitations/schema';
 import { domainSchemaResolver, showServerError } from '../../../lib/form-errors';
 import { Button } from '../../../lib/ui/button';
 import { ChoiceGroup, ChoiceTile } from '../../../lib/ui/choice-group';
@@ -14,7 +22,7 @@ const ROLE_HINTS: Record<Role, string> = {
   admin: 'Everything at every site, including people and sites.',
   manager: 'Reads the figures of the sites they are given.',
   regional_lead: 'Reads every site of one region.',
-  site_admin: 'Keeps one site’s saws and sees its people.',
+  site_admin: 'Keeps one site’s saws, and invites and manages its people.',
   technician: 'Works on the saws of one site.',
 };
 
@@ -47,22 +55,34 @@ function fieldForPath(path: string): PersonFormField | undefined {
 }
 
 /**
- * Form values to the create input. Only the assignment the chosen role has is sent; what was picked for
- * another role before the role changed stays in the form but is not sent.
+ * The role and where it applies, from the form. Only the assignment the chosen role has is sent; what was
+ * picked for another role before the role changed stays in the form but is not sent.
  */
-export function personInputFromForm(values: PersonFormValues): z.input<typeof userCreateSchema> {
+function assignmentFromForm(values: PersonFormValues) {
   const role = values.role;
   const manager = role === 'manager';
   return {
-    name: values.name,
-    email: values.email,
     role: role as Role,
-    password: values.password,
     siteId: AT_ONE_SITE.includes(role as Role) ? values.siteId || null : null,
     regionId: role === 'regional_lead' ? values.regionId || null : null,
     managedSiteIds: manager && values.managerScope === 'chosen' ? values.managedSiteIds : [],
     allSites: manager && values.managerScope === 'all',
   };
+}
+
+/** Form values to the input of adding a person with a first password. */
+export function personInputFromForm(values: PersonFormValues): z.input<typeof userCreateSchema> {
+  return { name: values.name, email: values.email, password: values.password, ...assignmentFromForm(values) };
+}
+
+/** Form values to an invitation: the name is optional (the person may change it when they accept). */
+export function invitationInputFromForm(values: PersonFormValues): z.input<typeof invitationCreateSchema> {
+  return { email: values.email, name: values.name.trim() === '' ? null : values.name, ...assignmentFromForm(values) };
+}
+
+/** Form values to a change: the name and the whole assignment (the server checks the merged record). */
+export function personUpdateFromForm(values: PersonFormValues): z.input<typeof userUpdateSchema> {
+  return { name: values.name, ...assignmentFromForm(values) };
 }
 
 /**
@@ -80,26 +100,46 @@ function personFormChecks(values: PersonFormValues): Partial<Record<PersonFormFi
   return found;
 }
 
-/** The resolver holds no state, so one serves every form. */
-const resolver = domainSchemaResolver(userCreateSchema, personInputFromForm, fieldForPath, personFormChecks);
+/** The resolvers hold no state, so one of each serves every form. */
+const resolvers = {
+  create: domainSchemaResolver(userCreateSchema, personInputFromForm, fieldForPath, personFormChecks),
+  invite: domainSchemaResolver(invitationCreateSchema, invitationInputFromForm, fieldForPath, personFormChecks),
+  edit: domainSchemaResolver(userUpdateSchema, personUpdateFromForm, fieldForPath, personFormChecks),
+};
+
+export type PersonFormMode = keyof typeof resolvers;
 
 export type PlaceOption = { id: string; name: string };
 
-type PersonFormProps = {
+type CommonProps = {
   /** Sites a person can be assigned to, labelled as they should read (name and code, say). */
   sites: PlaceOption[];
   regions: PlaceOption[];
+  /** The roles the signed-in person may give (all of them for an administrator). */
+  roles?: readonly Role[];
   submitLabel: string;
-  /**
-   * Saves the person. A rejected `ApiError` is shown on the form: 400 details and a 409's clashing field
-   * (an e-mail already in use) beside their fields, the server's message above the form.
-   */
-  onSubmit: (input: UserCreateParsed) => Promise<unknown>;
   cancel?: ReactNode;
+  /** Values to start from (the person as they are, when editing). */
+  initial?: Partial<PersonFormValues>;
 };
 
-/** A new person: who they are, their role, where that role applies, and a first password. */
-export function PersonForm({ sites, regions, submitLabel, onSubmit, cancel }: PersonFormProps) {
+/**
+ * `onSubmit` saves the person. A rejected `ApiError` is shown on the form: 400 details and a 409's clashing
+ * field (an e-mail already in use) beside their fields, the server's message above the form.
+ */
+type PersonFormProps =
+  | (CommonProps & { mode?: 'create'; onSubmit: (input: UserCreateParsed) => Promise<unknown> })
+  | (CommonProps & { mode: 'invite'; onSubmit: (input: InvitationCreateParsed) => Promise<unknown> })
+  | (CommonProps & { mode: 'edit'; onSubmit: (input: UserUpdate) => Promise<unknown> });
+
+/**
+ * A person: who they are, their role and where that role applies; with a first password when an
+ * administrator adds them directly (`create`), without when they are invited (`invite`) or changed (`edit`,
+ * where the e-mail address, their sign-in, is shown but not changed).
+ */
+export function PersonForm(props: PersonFormProps) {
+  const { sites, regions, submitLabel, cancel, initial, roles = ROLES } = props;
+  const mode: PersonFormMode = props.mode ?? 'create';
   const [passwordShown, setPasswordShown] = useState(false);
   const {
     register,
@@ -107,23 +147,26 @@ export function PersonForm({ sites, regions, submitLabel, onSubmit, cancel }: Pe
     handleSubmit,
     setError,
     formState: { errors, isSubmitting },
-  } = useForm<PersonFormValues, unknown, UserCreateParsed>({
-    resolver,
+  } = useForm<PersonFormValues, unknown, FieldValues>({
+    resolver: resolvers[mode] as never,
     defaultValues: {
       name: '',
       email: '',
-      role: '',
+      // With one role to give there is nothing to choose.
+      role: roles.length === 1 ? (roles[0] ?? '') : '',
       password: '',
-      siteId: '',
+      siteId: sites.length === 1 && mode !== 'edit' ? (sites[0]?.id ?? '') : '',
       regionId: '',
       managerScope: 'chosen',
       managedSiteIds: [],
+      ...initial,
     },
   });
 
   const submit = handleSubmit(async (input) => {
     try {
-      await onSubmit(input);
+      // The resolver of this mode parsed `input` with this mode's schema.
+      await (props.onSubmit as (value: FieldValues) => Promise<unknown>)(input);
     } catch (error) {
       showServerError(error, setError, fieldForPath, 'The person could not be saved. Try again.');
     }
@@ -220,23 +263,50 @@ export function PersonForm({ sites, regions, submitLabel, onSubmit, cancel }: Pe
   return (
     // POST, so that even a submit the script never sees cannot put the password in the address.
     <form method="post" onSubmit={submit} noValidate className="space-y-6">
-      {rootMessage ? <Notice title="The person was not added">{rootMessage}</Notice> : null}
+      {rootMessage ? (
+        <Notice
+          title={
+            mode === 'edit'
+              ? 'The change was not saved'
+              : mode === 'invite'
+                ? 'The invitation was not sent'
+                : 'The person was not added'
+          }
+        >
+          {rootMessage}
+        </Notice>
+      ) : null}
 
       <fieldset className="grid gap-4 sm:grid-cols-2">
         <legend className="mb-2 text-sm font-bold tracking-wider text-ink-muted uppercase">Person</legend>
-        <Field label="Name" error={errors.name?.message}>
+        <Field
+          label="Name"
+          hint={mode === 'invite' ? 'Optional: they can change it when they accept.' : undefined}
+          error={errors.name?.message}
+        >
           {(props) => <input {...props} {...register('name')} autoComplete="off" className={inputClass} />}
         </Field>
-        <Field label="E-mail" hint="They sign in with it." error={errors.email?.message}>
+        <Field
+          label="E-mail"
+          hint={
+            mode === 'invite'
+              ? 'The invitation goes here; they sign in with it.'
+              : mode === 'edit'
+                ? 'Their sign-in; it is not changed here.'
+                : 'They sign in with it.'
+          }
+          error={errors.email?.message}
+        >
           {(props) => (
             <input
               {...props}
               {...register('email')}
               type="email"
+              readOnly={mode === 'edit'}
               // Not the administrator's own address from the browser's memory.
               autoComplete="off"
               spellCheck={false}
-              className={inputClass}
+              className={`${inputClass} read-only:border-rule read-only:bg-paper`}
             />
           )}
         </Field>
@@ -244,7 +314,7 @@ export function PersonForm({ sites, regions, submitLabel, onSubmit, cancel }: Pe
 
       <ChoiceGroup legend="Role" error={errors.role?.message}>
         <div className="grid gap-2 sm:grid-cols-2 lg:grid-cols-3">
-          {ROLES.map((value) => (
+          {roles.map((value) => (
             <ChoiceTile
               key={value}
               type="radio"
@@ -264,36 +334,38 @@ export function PersonForm({ sites, regions, submitLabel, onSubmit, cancel }: Pe
         </fieldset>
       ) : null}
 
-      <fieldset className="grid gap-4 sm:grid-cols-2">
-        <legend className="mb-2 text-sm font-bold tracking-wider text-ink-muted uppercase">First password</legend>
-        <Field
-          label="Password"
-          hint="At least 12 characters. Kerfline sends no invitation yet: give this password to the person yourself, and ask them to change it as soon as they can."
-          error={errors.password?.message}
-          className="sm:col-span-2"
-        >
-          {(props) => (
-            <div className="flex gap-2">
-              <input
-                {...props}
-                {...register('password')}
-                type={passwordShown ? 'text' : 'password'}
-                autoComplete="new-password"
-                autoCapitalize="off"
-                spellCheck={false}
-                className={`${inputClass} sm:max-w-md`}
-              />
-              <Button
-                aria-controls={props.id}
-                aria-label={passwordShown ? 'Hide password' : 'Show password'}
-                onClick={() => setPasswordShown((shown) => !shown)}
-              >
-                {passwordShown ? 'Hide' : 'Show'}
-              </Button>
-            </div>
-          )}
-        </Field>
-      </fieldset>
+      {mode === 'create' ? (
+        <fieldset className="grid gap-4 sm:grid-cols-2">
+          <legend className="mb-2 text-sm font-bold tracking-wider text-ink-muted uppercase">First password</legend>
+          <Field
+            label="Password"
+            hint="At least 12 characters. Give this password to the person yourself, and ask them to change it as soon as they can."
+            error={errors.password?.message}
+            className="sm:col-span-2"
+          >
+            {(props) => (
+              <div className="flex gap-2">
+                <input
+                  {...props}
+                  {...register('password')}
+                  type={passwordShown ? 'text' : 'password'}
+                  autoComplete="new-password"
+                  autoCapitalize="off"
+                  spellCheck={false}
+                  className={`${inputClass} sm:max-w-md`}
+                />
+                <Button
+                  aria-controls={props.id}
+                  aria-label={passwordShown ? 'Hide password' : 'Show password'}
+                  onClick={() => setPasswordShown((shown) => !shown)}
+                >
+                  {passwordShown ? 'Hide' : 'Show'}
+                </Button>
+              </div>
+            )}
+          </Field>
+        </fieldset>
+      ) : null}
 
       <div className="flex flex-wrap gap-3 border-t border-rule pt-5">
         <Button type="submit" variant="primary" disabled={isSubmitting}>

@@ -1,3 +1,4 @@
+import { Link } from 'react-router-dom';
 import { ROLE_LABELS, type User } from '@kerfline/domain/users/schema';
 
 /**
@@ -8,10 +9,13 @@ export function UsersTable({
   users,
   siteNameOf,
   regionNameOf,
+  linkTo,
 }: {
   users: User[];
   siteNameOf: (siteId: string) => string | undefined;
   regionNameOf: (regionId: string) => string | undefined;
+  /** Where a person's name leads (their page), when the viewer may open it. */
+  linkTo?: (user: User) => string | undefined;
 }) {
   if (users.length === 0) return <p className="px-5 py-8 text-center text-ink-muted">Nobody matches this filter.</p>;
   return (
@@ -41,7 +45,16 @@ export function UsersTable({
           {users.map((user) => (
             <tr key={user.id} className="border-b border-rule last:border-b-0">
               <th scope="row" className="py-3 pr-3 pl-5 font-semibold text-ink">
-                {user.name}
+                {linkTo?.(user) ? (
+                  <Link
+                    to={linkTo(user)!}
+                    className="inline-flex min-h-11 items-center text-accent-dark underline-offset-4 hover:underline"
+                  >
+                    {user.name}
+                  </Link>
+                ) : (
+                  user.name
+                )}
               </th>
               <td className="px-3 py-3 whitespace-nowrap text-ink">{user.email}</td>
               <td className="px-3 py-3 text-ink">{ROLE_LABELS[user.role]}</td>
@@ -50,9 +63,15 @@ export function UsersTable({
               </td>
               <td className="py-3 pr-5 pl-3">
                 {user.active ? (
-                  <span className="font-semibold text-ink">Active</span>
+                  <span className="font-semibold text-ink">
+                    <span aria-hidden="true" className="mr-1.5 inline-block size-2.5 rounded-full bg-signal-safe" />
+                    Active
+                  </span>
                 ) : (
-                  <span className="text-ink-muted line-through decoration-1">Inactive</span>
+                  <span className="text-ink-muted">
+                    <span aria-hidden="true" className="mr-1.5 inline-block size-2.5 bg-ink-muted" />
+                    <span className="line-through decoration-1">Inactive</span>
+                  </span>
                 )}
               </td>
             </tr>

@@ -1,0 +1,114 @@
+import { Op, fn, col } from 'sequelize';
+import type { SignedIn } from '../modules/auth/auth.service.js';
+import { scopedWhere } from '../authz/sequelize-scope.js';
+import { Site } from '../modules/sites/site.model.js';
+import { Saw } from '../modules/saws/saw.model.js';
+import { appLink, type MailSection } from '../mail/templates.js';
+
+/**
+ * What a section of a scheduled mail is built from. `signedIn` is the RECIPIENT's own identity and ability:
+ * every query a section runs goes through `scopedWhere(signedIn.ability, …)`, so a section can never put a
+ * row from another site or region into a person's mail, whatever filter it adds.
+ */
+export type SectionContext = {
+  signedIn: SignedIn;
+  /** The sites the mail is about (already scoped by the recipient's ability), in display order. */
+  sites: Site[];
+  /** The period the mail covers: `2026-W49` for the weekly digest, `2026-11` for the monthly summary. */
+  period: string;
+  publicUrl: string;
+};
+
+/** One section; null leaves it out (nothing to say and no need to say so). */
+export type SectionBuilder = { key: string; build: (ctx: SectionContext) => Promise<MailSection | null> };
+
+const SAWS_DOWN_SHOWN = 25;
+
+/** Saws per site that are in service and down; retired saws are history and not counted. */
+async function sawCountsBySite(ctx: SectionContext): Promise<Map<string, { inService: number; down: number }>> {
+  const rows = (await Saw.findAll({
+    attributes: ['siteId', 'status', [fn('count', col('id')), 'n']],
+    where: scopedWhere(ctx.signedIn.ability, 'read', 'Saw', Saw, {
+      siteId: { [Op.in]: ctx.sites.map((s) => s.id) },
+      status: { [Op.ne]: 'retired' },
+    }),
+    group: ['siteId', 'status'],
+    raw: true,
+  })) as unknown as { siteId: string; status: string; n: number }[];
+  const counts = new Map<string, { inService: number; down: number }>();
+  for (const r of rows) {
+    const c = counts.get(r.siteId) ?? { inService: 0, down: 0 };
+    if (r.status === 'down') c.down += Number(r.n);
+    else c.inService += Number(r.n);
+    counts.set(r.siteId, c);
+  }
+  return counts;
+}
+
+/** Each site with its saws in service and down. */
+export const sitesSection: SectionBuilder = {
+  key: 'sites',
+  async build(ctx) {
+    const counts = await sawCountsBySite(ctx);
+    return {
+      title: 'Sites and saws',
+      columns: ['Site', 'Code', 'In service', 'Down'],
+      rows: ctx.sites.map((s) => {
+        const c = counts.get(s.id) ?? { inService: 0, down: 0 };
+        return [s.name, s.code, String(c.inService), c.down > 0 ? `${c.down} down` : '0'];
+      }),
+      empty: 'No sites are assigned to you yet.',
+      link: { label: 'Open the sites in Kerfline', url: appLink(ctx.publicUrl, '/sites') },
+    };
+  },
+};
+
+/** The saws marked down right now, the longest unchanged first. */
+export const sawsDownSection: SectionBuilder = {
+  key: 'saws-down',
+  async build(ctx) {
+    const where = scopedWhere(ctx.signedIn.ability, 'read', 'Saw', Saw, {
+      siteId: { [Op.in]: ctx.sites.map((s) => s.id) },
+      status: 'down',
+    });
+    const [saws, total] = await Promise.all([
+      Saw.findAll({ where, order: [['updatedAt', 'ASC']], limit: SAWS_DOWN_SHOWN }),
+      Saw.count({ where }),
+    ]);
+    const siteName = new Map(ctx.sites.map((s) => [s.id, s.name]));
+    return {
+      title: 'Saws down now',
+      intro:
+        total > SAWS_DOWN_SHOWN
+          ? `${total} saws are down; the ${SAWS_DOWN_SHOWN} that have been down longest are listed.`
+          : undefined,
+      columns: ['Saw', 'Name', 'Site', 'Record last changed'],
+      rows: saws.map((s) => [s.assetTag, s.name, siteName.get(s.siteId) ?? '', s.updatedAt.toISOString().slice(0, 10)]),
+      empty: 'Every saw is in service.',
+      link:
+        total > 0
+          ? { label: 'See the saws that are down', url: appLink(ctx.publicUrl, '/saws?status=down') }
+          : undefined,
+    };
+  },
+};
+
+/**
+ * The weekly digest to each regional lead, section by section. EXTENSION POINT: the features that add new
+ * outlier flags, overdue maintenance checks, open follow-up actions and the week's top failure reasons append
+ * their builders here (each scoped through `ctx.signedIn.ability`, as above).
+ */
+export const weeklyDigestSections: SectionBuilder[] = [sitesSection, sawsDownSection];
+
+/**
+ * The monthly summary to each manager. EXTENSION POINT: blade spend against budget per site (and cost per
+ * area cut, downtime and availability for the month) is added by the feature that adds budgets and spend.
+ */
+export const monthlySummarySections: SectionBuilder[] = [sitesSection];
+
+/**
+ * The low-stock notice to a site's admins. EXTENSION POINT: the blade-stock feature adds the section listing
+ * the blade specs below their reorder point (with days of stock left). Until then no notice has anything to
+ * say, and a queued one is recorded as skipped rather than sent empty.
+ */
+export const lowStockSections: SectionBuilder[] = [];
