@@ -23,6 +23,13 @@ import { sitesRouter } from './modules/sites/sites.router.js';
 import { sawsRouter } from './modules/saws/saws.router.js';
 import { usersRouter } from './modules/users/users.router.js';
 import { auditRouter } from './modules/audit/audit.router.js';
+import { bladeSpecsRouter } from './modules/blade-specs/blade-specs.router.js';
+import { bladeStockRouter } from './modules/blade-stock/blade-stock.router.js';
+import { bladeRunsRouter } from './modules/blade-runs/blade-runs.router.js';
+import { stopsRouter } from './modules/stops/stops.router.js';
+import { cutLogsRouter } from './modules/cut-logs/cut-logs.router.js';
+import { photosRouter } from './modules/photos/photos.router.js';
+import { DatabasePhotoStorage, type PhotoStorage } from './modules/photos/photo-storage.js';
 
 export type AppDeps = {
   sequelize: Sequelize;
@@ -35,6 +42,8 @@ export type AppDeps = {
   webDist?: string;
   signInLimit?: number;
   logLevel?: string;
+  /** Where photo bytes live; PostgreSQL (shared by every process) unless another store is given. */
+  photoStorage?: PhotoStorage;
 };
 
 export const SESSION_COOKIE = 'kerfline.sid';
@@ -121,6 +130,12 @@ export function createApp(deps: AppDeps): Express {
   api.use(sawsRouter());
   api.use(usersRouter(deps.sequelize));
   api.use(auditRouter());
+  api.use(bladeSpecsRouter());
+  api.use(bladeStockRouter());
+  api.use(bladeRunsRouter());
+  api.use(stopsRouter());
+  api.use(cutLogsRouter());
+  api.use(photosRouter(deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize)));
   api.use(notFoundHandler);
   app.use('/api', api);
 

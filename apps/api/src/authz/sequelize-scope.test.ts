@@ -4,13 +4,19 @@ import { createMongoAbility, subject } from '@casl/ability';
 import type { Model, ModelStatic } from 'sequelize';
 import { ACTIONS, type AppAbility, type AppRawRule, type SubjectName } from '@kerfline/domain/authz/ability';
 import { startTestApp, type TestContext } from '../test-support/test-db.js';
-import { buildWorld, type World } from '../test-support/fixtures.js';
+import { buildRecords, buildWorld, type World } from '../test-support/fixtures.js';
 import { loadSignedIn } from '../modules/auth/auth.service.js';
 import { Region } from '../modules/regions/region.model.js';
 import { Site } from '../modules/sites/site.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
 import { User } from '../modules/users/user.model.js';
 import { AuditEntry } from '../modules/audit/audit-entry.model.js';
+import { BladeSpec } from '../modules/blade-specs/blade-spec.model.js';
+import { StockLevel, StockReceipt } from '../modules/blade-stock/stock-receipt.model.js';
+import { BladeRun } from '../modules/blade-runs/blade-run.model.js';
+import { Stop } from '../modules/stops/stop.model.js';
+import { CutLog } from '../modules/cut-logs/cut-log.model.js';
+import { Photo } from '../modules/photos/photo.model.js';
 import { scopeWhere } from './sequelize-scope.js';
 
 let ctx: TestContext;
@@ -31,10 +37,25 @@ beforeAll(async () => {
       after: { n },
     })),
   );
+  // Records of sites A and C, a fleet-wide blade spec (site NULL) and one of site A's own.
+  await buildRecords(world);
 });
 afterAll(async () => ctx.close());
 
-const MODELS: Record<SubjectName, ModelStatic<Model>> = { Region, Site, Saw, User, AuditEntry };
+const MODELS: Record<SubjectName, ModelStatic<Model>> = {
+  Region,
+  Site,
+  Saw,
+  User,
+  AuditEntry,
+  BladeSpec,
+  StockReceipt,
+  StockLevel,
+  BladeRun,
+  Stop,
+  CutLog,
+  Photo,
+};
 
 /** For every row: does the scoped query return it exactly when `ability.can` says yes? */
 async function mismatches(ability: AppAbility, action: (typeof ACTIONS)[number], type: SubjectName): Promise<string[]> {

@@ -331,7 +331,7 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
             capacityRoundMm: c.roundMm,
             capacityRectWidthMm: c.rect[0],
             capacityRectHeightMm: c.rect[1],
-            status: status ?? 'in_service',
+            status: status === 'retired' ? 'retired' : 'in_service',
             retiredAt: status === 'retired' ? new Date('2025-06-30T12:00:00Z') : null,
           },
           { transaction },

@@ -4,6 +4,12 @@ import { Site } from '../modules/sites/site.model.js';
 import { User, UserSite } from '../modules/users/user.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
 import { AuditEntry } from '../modules/audit/audit-entry.model.js';
+import { BladeSpec } from '../modules/blade-specs/blade-spec.model.js';
+import { StockLevel, StockReceipt } from '../modules/blade-stock/stock-receipt.model.js';
+import { BladeRun } from '../modules/blade-runs/blade-run.model.js';
+import { Stop } from '../modules/stops/stop.model.js';
+import { CutLog } from '../modules/cut-logs/cut-log.model.js';
+import { Photo } from '../modules/photos/photo.model.js';
 
 /** Binds every model to this Sequelize instance. Model names equal the CASL subject names. */
 export function initModels(sequelize: Sequelize): void {
@@ -14,6 +20,13 @@ export function initModels(sequelize: Sequelize): void {
   UserSite.initModel(sequelize);
   Saw.initModel(sequelize);
   AuditEntry.initModel(sequelize);
+  BladeSpec.initModel(sequelize);
+  StockReceipt.initModel(sequelize);
+  StockLevel.initModel(sequelize);
+  BladeRun.initModel(sequelize);
+  Stop.initModel(sequelize);
+  CutLog.initModel(sequelize);
+  Photo.initModel(sequelize);
 }
 
 let bound: Sequelize | undefined;

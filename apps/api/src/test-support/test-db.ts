@@ -36,7 +36,8 @@ export function startTestApp(options: { signInLimit?: number } = {}): TestContex
 /** Empties every table (keeps the schema and the migration record). */
 export async function resetData(sequelize: Sequelize): Promise<void> {
   await sequelize.query(
-    'TRUNCATE audit_entries, saws, user_sites, users, sites, regions, sessions, rate_limit_hits RESTART IDENTITY CASCADE',
+    `TRUNCATE photo_blobs, photos, cut_logs, stops, blade_runs, stock_levels, stock_receipts, blade_specs,
+       audit_entries, saws, user_sites, users, sites, regions, sessions, rate_limit_hits RESTART IDENTITY CASCADE`,
   );
 }
 

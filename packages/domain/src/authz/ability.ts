@@ -11,7 +11,20 @@ export const ACTIONS = ['manage', 'create', 'read', 'update', 'delete', 'export'
 export type Action = (typeof ACTIONS)[number];
 
 /** Subject names equal the API's model names, so Sequelize instances and plain rows are typed alike. */
-export const SUBJECTS = ['Region', 'Site', 'Saw', 'User', 'AuditEntry'] as const;
+export const SUBJECTS = [
+  'Region',
+  'Site',
+  'Saw',
+  'User',
+  'AuditEntry',
+  'BladeSpec',
+  'StockReceipt',
+  'StockLevel',
+  'BladeRun',
+  'Stop',
+  'CutLog',
+  'Photo',
+] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
 /** The columns rules may test, per subject (CASL types each rule's conditions from these). */
@@ -20,6 +33,10 @@ type SiteFields = { id: string; regionId: string };
 type SawFields = { id: string; siteId: string };
 type UserFields = { id: string; siteId: string | null };
 type AuditEntryFields = { id: string; siteId: string | null };
+/** Null siteId: a fleet-wide catalogue spec. */
+type BladeSpecFields = { id: string; siteId: string | null };
+/** The records a site keeps: each row carries its site, so rules test the row's own column. */
+type SiteRecordFields = { id: string; siteId: string };
 
 type Subjects =
   | 'all'
@@ -28,10 +45,20 @@ type Subjects =
   | (SiteFields & ForcedSubject<'Site'>)
   | (SawFields & ForcedSubject<'Saw'>)
   | (UserFields & ForcedSubject<'User'>)
-  | (AuditEntryFields & ForcedSubject<'AuditEntry'>);
+  | (AuditEntryFields & ForcedSubject<'AuditEntry'>)
+  | (BladeSpecFields & ForcedSubject<'BladeSpec'>)
+  | (SiteRecordFields & ForcedSubject<'StockReceipt'>)
+  | (SiteRecordFields & ForcedSubject<'StockLevel'>)
+  | (SiteRecordFields & ForcedSubject<'BladeRun'>)
+  | (SiteRecordFields & ForcedSubject<'Stop'>)
+  | (SiteRecordFields & ForcedSubject<'CutLog'>)
+  | (SiteRecordFields & ForcedSubject<'Photo'>);
 
 export type AppAbility = MongoAbility<[Action, Subjects]>;
 export type AppRawRule = RawRuleOf<AppAbility>;
+
+/** Subjects that belong to exactly one site and carry it in their own `siteId` column. */
+export const SITE_RECORDS = ['StockReceipt', 'StockLevel', 'BladeRun', 'Stop', 'CutLog', 'Photo'] as const;
 
 /**
  * Who is asking, with their scope already resolved from the database: the sites and regions they may see.
@@ -58,6 +85,16 @@ export function defineAbilityFor(p: Principal): AppAbility {
   const inSites = p.siteIds === 'all' ? undefined : { $in: p.siteIds };
   const inRegions = p.regionIds === 'all' ? undefined : { $in: p.regionIds };
 
+  /** Read-only access to the records of some sites (managers, leads): the catalogue's fleet specs included. */
+  const readRecords = (sites: { $in: string[] } | undefined) => {
+    if (sites) {
+      can('read', [...SITE_RECORDS], { siteId: sites });
+      can('read', 'BladeSpec', { siteId: { $in: [null, ...sites.$in] } });
+    } else {
+      can('read', [...SITE_RECORDS, 'BladeSpec']);
+    }
+  };
+
   can('read', 'User', { id: p.id });
 
   switch (p.role) {
@@ -74,6 +111,7 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can(['read', 'export'], 'Site');
         can('read', 'Saw');
       }
+      readRecords(inSites);
       break;
     case 'regional_lead':
       if (p.regionId) {
@@ -81,6 +119,7 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can('read', 'Site', { regionId: p.regionId });
       }
       can('read', 'Saw', { siteId: inSites ?? { $in: [] } });
+      readRecords(inSites ?? { $in: [] });
       break;
     case 'site_admin':
       if (p.siteId) {
@@ -90,6 +129,11 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can('read', 'User', { siteId: p.siteId });
         // The history of their own site's records; fleet-wide records (siteId NULL) stay with admins.
         can('read', 'AuditEntry', { siteId: p.siteId });
+        // Their site's stock, blade runs, stops, cut logs and photos, and the site's own blade specs; the
+        // fleet-wide catalogue (siteId NULL) is read-only to them.
+        can(['create', 'read', 'update', 'delete'], [...SITE_RECORDS], { siteId: p.siteId });
+        can('read', 'BladeSpec', { siteId: { $in: [null, p.siteId] } });
+        can(['create', 'update', 'delete'], 'BladeSpec', { siteId: p.siteId });
       }
       break;
     case 'technician':
@@ -97,6 +141,11 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can('read', 'Region', { id: inRegions ?? { $in: [] } });
         can('read', 'Site', { id: p.siteId });
         can('read', 'Saw', { siteId: p.siteId });
+        // Technicians log work at their own site; corrections beyond that (deletes, stock) are the site admin's.
+        can('read', [...SITE_RECORDS], { siteId: p.siteId });
+        can('read', 'BladeSpec', { siteId: { $in: [null, p.siteId] } });
+        can(['create', 'update'], ['BladeRun', 'Stop', 'CutLog'], { siteId: p.siteId });
+        can('create', 'Photo', { siteId: p.siteId });
       }
       break;
   }

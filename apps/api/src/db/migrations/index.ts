@@ -1,6 +1,7 @@
 import type { MigrationContext } from '../umzug.js';
 import * as foundation from './20261201-0001-foundation.js';
 import * as audit from './20261202-0001-audit.js';
+import * as siteRecords from './20261203-0001-site-records.js';
 
 type Migration = {
   name: string;
@@ -12,4 +13,5 @@ type Migration = {
 export const migrations: Migration[] = [
   { name: '20261201-0001-foundation', ...foundation },
   { name: '20261202-0001-audit', ...audit },
+  { name: '20261203-0001-site-records', ...siteRecords },
 ];

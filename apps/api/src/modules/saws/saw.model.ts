@@ -6,7 +6,7 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize';
-import type { SawKind, SawStatus } from '@kerfline/domain/saws/schema';
+import type { SawKind, SawStoredStatus } from '@kerfline/domain/saws/schema';
 
 /** Lengths in millimetres, band speeds in metres per minute. */
 export class Saw extends Model<InferAttributes<Saw>, InferCreationAttributes<Saw>> {
@@ -27,7 +27,8 @@ export class Saw extends Model<InferAttributes<Saw>, InferCreationAttributes<Saw
   declare capacityRoundMm: number | null;
   declare capacityRectWidthMm: number | null;
   declare capacityRectHeightMm: number | null;
-  declare status: CreationOptional<SawStatus>;
+  /** Stored: in service or retired. "Down" is derived from an open stop (see saws.service.ts). */
+  declare status: CreationOptional<SawStoredStatus>;
   declare retiredAt: Date | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;

@@ -153,11 +153,11 @@ describe('changing and retiring a saw', () => {
   it('changes only the fields an update names', async () => {
     const agent = await as('siteadmin-a@test.example');
     const id = world.saws.A![0]!.id;
-    await agent.patch(`/api/saws/${id}`).send({ status: 'down', capacityRoundMm: 300 }).expect(200);
+    await agent.patch(`/api/saws/${id}`).send({ make: 'Othermake', capacityRoundMm: 300 }).expect(200);
     const before = (await agent.get(`/api/saws/${id}`)).body;
     const after = (await agent.patch(`/api/saws/${id}`).send({ name: 'Renamed' })).body;
     expect(after).toEqual({ ...before, name: 'Renamed', updatedAt: after.updatedAt });
-    expect(after).toMatchObject({ status: 'down', make: 'Testmake', model: 'T1', capacityRoundMm: 300 });
+    expect(after).toMatchObject({ status: 'in_service', make: 'Othermake', model: 'T1', capacityRoundMm: 300 });
   });
 
   it('does not let a site admin move a saw to a site they do not manage', async () => {

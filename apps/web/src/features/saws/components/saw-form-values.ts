@@ -47,14 +47,13 @@ export type SawFormValues = {
   assetTag: string;
   name: string;
   kind: SawKind | '';
-  status: 'in_service' | 'down';
   make: string;
   model: string;
 } & Record<MeasureField, string>;
 
 export type SawFormField = keyof SawFormValues;
 
-const TEXT_FIELDS = ['assetTag', 'name', 'kind', 'status', 'make', 'model'] as const;
+const TEXT_FIELDS = ['assetTag', 'name', 'kind', 'make', 'model'] as const;
 
 const FORM_FIELD_BY_PATH: Record<string, SawFormField> = Object.fromEntries([
   ...TEXT_FIELDS.map((field) => [field, field]),
@@ -79,7 +78,6 @@ export function emptySawFormValues(): SawFormValues {
     assetTag: '',
     name: '',
     kind: '',
-    status: 'in_service',
     make: '',
     model: '',
     wheelDiameter: '',
@@ -106,7 +104,6 @@ export function sawFormValuesFromSaw(saw: Saw, system: UnitSystem): SawFormValue
   values.assetTag = saw.assetTag;
   values.name = saw.name;
   values.kind = saw.kind;
-  values.status = saw.status === 'down' ? 'down' : 'in_service';
   values.make = saw.make ?? '';
   values.model = saw.model ?? '';
   for (const [field, si] of Object.entries(LENGTH_FIELDS) as [LengthField, (typeof LENGTH_FIELDS)[LengthField]][]) {
@@ -168,7 +165,6 @@ export function sawInputFromForm(
     assetTag: values.assetTag,
     name: values.name,
     kind: values.kind === '' ? undefined : values.kind,
-    status: values.status,
     make: optionalText(values.make),
     model: optionalText(values.model),
     ...measures,

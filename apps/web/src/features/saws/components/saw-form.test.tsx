@@ -87,7 +87,6 @@ describe('SawForm', () => {
       assetTag: 'HS-07',
       name: 'Bar line saw',
       kind: 'horizontal',
-      status: 'in_service',
       make: null,
       model: null,
       wheelDiameterMm: 355.6,
