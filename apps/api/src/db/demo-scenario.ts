@@ -6,6 +6,7 @@ import { Region } from '../modules/regions/region.model.js';
 import { Site } from '../modules/sites/site.model.js';
 import { User, UserSite } from '../modules/users/user.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
+import { loadDemoHistory } from './demo-history.js';
 
 /*
  * The demo scenario: Corvane Metals, an invented bar, tube and structural distributor with five cutting
@@ -359,6 +360,8 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
         );
       }
     }
+
+    await loadDemoHistory(sequelize, transaction);
   });
   return true;
 }
