@@ -77,13 +77,11 @@ describe('logging cuts', () => {
 
   it('logs a cut on a saw with no blade recorded, saying the teeth could not be worked out', async () => {
     const tech = await as('tech-a@test.example');
-    const res = await tech
-      .post('/api/cut-logs')
-      .send({
-        sawId: world.saws.A![1]!.id,
-        stock: { shape: { kind: 'flat_bar', widthMm: 100, heightMm: 10 } },
-        materialGroup: 'aluminium',
-      });
+    const res = await tech.post('/api/cut-logs').send({
+      sawId: world.saws.A![1]!.id,
+      stock: { shape: { kind: 'flat_bar', widthMm: 100, heightMm: 10 } },
+      materialGroup: 'aluminium',
+    });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ bladeRunId: null, teethInWorkMin: null, areaCutMm2: 1000 });
     expect(res.body.warnings[0].code).toBe('no_blade_recorded');
