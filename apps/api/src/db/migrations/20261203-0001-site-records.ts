@@ -121,6 +121,8 @@ export async function up({ sequelize }: MigrationContext): Promise<void> {
     CREATE INDEX blade_runs_site_installed ON blade_runs (site_id, installed_at DESC, id);
     CREATE INDEX blade_runs_saw_installed ON blade_runs (saw_id, installed_at DESC);
     CREATE INDEX blade_runs_site_removed ON blade_runs (site_id, removed_at DESC) WHERE removed_at IS NOT NULL;
+    CREATE INDEX blade_runs_site_reason_installed ON blade_runs (site_id, removal_reason, installed_at DESC)
+      WHERE removed_at IS NOT NULL;
     CREATE INDEX blade_runs_site_spec_installed ON blade_runs (site_id, blade_spec_id, installed_at);
     CREATE INDEX blade_runs_receipt ON blade_runs (stock_receipt_id) WHERE stock_receipt_id IS NOT NULL;
 

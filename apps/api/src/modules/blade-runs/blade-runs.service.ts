@@ -385,6 +385,9 @@ export async function updateBladeRun(
   }
   const values: Partial<BladeRun> = { ...patch };
   if (patch.areaCutMm2 !== undefined) values.areaSource = patch.areaCutMm2 === null ? null : 'entered';
+  // A confirmed cause belongs to the reason it was confirmed for; a new reason needs its own.
+  if (patch.removalReason && patch.removalReason !== run.removalReason)
+    Object.assign(values, { confirmedCause: null, confirmedCauseAt: null, confirmedCauseById: null });
   await inTransaction(async (transaction) => {
     const before = auditValues(run);
     await run.update(values, { transaction });

@@ -291,6 +291,8 @@ describe('taking a blade off', () => {
       confirmedCauseById: world.users.techA.id,
     });
     expect((await tech.get(`/api/blade-runs/${run.id}/likely-causes`)).body.confirmedCause).toBe('teeth_in_work_low');
+    const changed = await tech.patch(`/api/blade-runs/${run.id}`).send({ removalReason: 'broken' });
+    expect(changed.body).toMatchObject({ removalReason: 'broken', confirmedCause: null, confirmedCauseAt: null });
   });
 
   it('corrects a run without letting runs overlap or a removal precede its install', async () => {
