@@ -126,9 +126,7 @@ describe('the shop calculators, as a technician uses them on a phone', () => {
     await picker.selectOption({ label: firstSaw });
     await expect.poll(() => page.getByRole('textbox', { name: /Band thickness/ }).inputValue()).not.toBe('');
     await page.getByRole('textbox', { name: /Spring-balance reading/ }).fill('50');
-    await expect
-      .poll(() => page.getByRole('article', { name: 'Feed / head pressure' }).getByText('Fail').count())
-      .toBe(1);
+    await expect.poll(() => page.getByRole('article', { name: 'Head down-force' }).getByText('Fail').count()).toBe(1);
     await shot(page, 'calculators-check-targets-desktop');
 
     await page.goto('/calculators/check-targets?units=imperial');

@@ -4,11 +4,17 @@ import { fpmToMPerMin } from '../units/units.js';
 import { checkBandSpeed } from './check-band-speed.js';
 import { MATERIAL_GROUPS, MATERIAL_GROUP_LABELS, bandSpeedCheckInputSchema, materialGroupSchema } from './schema.js';
 import type { MaterialGroup } from './schema.js';
-import { BI_METAL_BAND_SPEEDS, recommendedBandSpeed } from './speed-ranges.js';
+import {
+  BI_METAL_BAND_SPEEDS,
+  PRINTED_SPEED_CHANGES,
+  recommendedBandSpeed,
+  speedChangeForLengthOfCut,
+} from './speed-ranges.js';
+import { inToMm } from '../units/units.js';
 
 const saw = { minMPerMin: 15, maxMPerMin: 120 };
 
-describe('recommended band speeds (bi-metal; figures from memory)', () => {
+describe('recommended band speeds (bi-metal reference ranges: shipped site settings)', () => {
   it('has a range for every group, slow for hard and stainless grades, fast for aluminium', () => {
     for (const group of MATERIAL_GROUPS) {
       const range = recommendedBandSpeed(group);
@@ -28,6 +34,66 @@ describe('recommended band speeds (bi-metal; figures from memory)', () => {
     expect(fpmToMPerMin(carbon.minFpm)).toBeCloseTo(carbon.minMPerMin, 12);
     expect(carbon.maxFpm).toBeCloseTo(90 / 0.3048, 9);
     expect(() => recommendedBandSpeed('wood' as MaterialGroup)).toThrow('Unknown material group: wood');
+  });
+});
+
+describe("band speed corrections printed in Machinery's Handbook, 31st ed., p. 1245", () => {
+  it('changes the speed by length of cut as printed: +15 %, +12 %, +10 %, 0, −12 % at 1/4, 3/4, 1 1/4, 4, 8 in', () => {
+    const printed: [number, number][] = [
+      [0.25, 0.15],
+      [0.75, 0.12],
+      [1.25, 0.1],
+      [4, 0],
+      [8, -0.12],
+    ];
+    expect(PRINTED_SPEED_CHANGES.map((p) => [p.lengthOfCutIn, p.change])).toEqual(printed);
+    for (const [inches, change] of printed) expect(speedChangeForLengthOfCut(inToMm(inches))).toBeCloseTo(change, 12);
+    // Between printed lengths, linear in the length (our reading); beyond them, the end value (ours).
+    expect(speedChangeForLengthOfCut(inToMm(6))).toBeCloseTo(-0.06, 12);
+    expect(speedChangeForLengthOfCut(inToMm(0.1))).toBeCloseTo(0.15, 12);
+    expect(speedChangeForLengthOfCut(inToMm(20))).toBeCloseTo(-0.12, 12);
+  });
+
+  it('applies the length of cut, a carbon steel blade (−50 %) and dry cutting (−30 to −50 %) to the site range', () => {
+    const ref = BI_METAL_BAND_SPEEDS.carbon_steel;
+    const small = recommendedBandSpeed('carbon_steel', { lengthOfCutMm: inToMm(0.25) });
+    expect(small.minMPerMin).toBeCloseTo(ref.minMPerMin * 1.15, 12);
+    expect(small.maxMPerMin).toBeCloseTo(ref.maxMPerMin * 1.15, 12);
+    expect(small.correctionBasis).toEqual({ kind: 'published', citation: expect.stringContaining('p. 1245') });
+    const carbonDry = recommendedBandSpeed('carbon_steel', { bladeMaterial: 'carbon', dry: true });
+    expect(carbonDry.minMPerMin).toBeCloseTo(ref.minMPerMin * 0.5 * 0.5, 12);
+    expect(carbonDry.maxMPerMin).toBeCloseTo(ref.maxMPerMin * 0.5 * 0.7, 12);
+    expect(carbonDry.corrections.map((c) => c.label)).toEqual([
+      '−50 % for a carbon steel blade',
+      '−30 % to −50 % for cutting dry',
+    ]);
+    expect(recommendedBandSpeed('carbon_steel').correctionBasis).toBeNull();
+  });
+
+  it("the shipped stainless range holds the Handbook's worked figure: 120 ft/min for 304 stainless at 4 in", () => {
+    const stainless = recommendedBandSpeed('stainless_steel', { lengthOfCutMm: inToMm(4) });
+    expect(stainless.minFpm).toBeLessThanOrEqual(120);
+    expect(stainless.maxFpm).toBeGreaterThanOrEqual(120);
+  });
+
+  it("takes the site's range, and says it is the site's", () => {
+    const r = recommendedBandSpeed('aluminium', {
+      settings: {
+        'band_speed.aluminium': {
+          key: 'band_speed.aluminium',
+          values: { minMPerMin: 150, maxMPerMin: 250 },
+          changedByName: 'Ana Ruiz',
+          changedAt: '2025-06-01T00:00:00.000Z',
+        },
+      },
+    });
+    expect(r).toMatchObject({ minMPerMin: 150, maxMPerMin: 250 });
+    expect(r.basis).toMatchObject({
+      kind: 'site_setting',
+      settingKey: 'band_speed.aluminium',
+      changedByName: 'Ana Ruiz',
+    });
+    expect(recommendedBandSpeed('aluminium').basis).toMatchObject({ kind: 'site_setting', changedAt: null });
   });
 });
 

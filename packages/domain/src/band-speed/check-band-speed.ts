@@ -9,7 +9,7 @@ import { mPerMinToFpm } from '../units/units.js';
 import { MATERIAL_GROUP_LABELS } from './schema.js';
 import type { MaterialGroup } from './schema.js';
 import { recommendedBandSpeed } from './speed-ranges.js';
-import type { RecommendedBandSpeed, SpeedRangeMPerMin } from './speed-ranges.js';
+import type { BandSpeedOptions, RecommendedBandSpeed, SpeedRangeMPerMin } from './speed-ranges.js';
 
 export const SPEED_POSITIONS = ['below', 'within', 'above'] as const;
 export type SpeedPosition = (typeof SPEED_POSITIONS)[number];
@@ -17,6 +17,7 @@ export type SpeedPosition = (typeof SPEED_POSITIONS)[number];
 export interface BandSpeedCheck {
   materialGroup: MaterialGroup;
   speedMPerMin: number;
+  /** The range checked against, with its basis (the site's setting) and the printed corrections applied. */
   recommended: RecommendedBandSpeed;
   /** Where the speed sits against the recommended range (edges count as within). */
   position: SpeedPosition;
@@ -44,18 +45,19 @@ function rangeIn(range: SpeedRangeMPerMin, system: UnitSystem): string {
 }
 
 /**
- * Checks a band speed (m/min) against the bi-metal range for a material group and against the saw's speed range
- * (m/min): below, within or above the recommended range, whether the saw can reach that range at all, and a
- * one-line explanation in the given unit system (metric unless given).
+ * Checks a band speed (m/min) against the range for a material group (the site's setting, corrected as
+ * Machinery's Handbook prints for the length of cut, blade and coolant given in `options`) and against the saw's
+ * speed range (m/min): below, within or above the recommended range, whether the saw can reach that range at
+ * all, and a one-line explanation in the given unit system (metric unless given).
  */
 export function checkBandSpeed(
   materialGroup: MaterialGroup,
   speedMPerMin: number,
   sawRange: SpeedRangeMPerMin,
-  options: { system?: UnitSystem } = {},
+  options: { system?: UnitSystem } & BandSpeedOptions = {},
 ): BandSpeedCheck {
   const system = options.system ?? 'metric';
-  const recommended = recommendedBandSpeed(materialGroup);
+  const recommended = recommendedBandSpeed(materialGroup, options);
   requirePositive(speedMPerMin, 'Band speed', 'm/min');
   requirePositive(sawRange.minMPerMin, 'Lowest band speed of the saw', 'm/min');
   requirePositive(sawRange.maxMPerMin, 'Highest band speed of the saw', 'm/min');

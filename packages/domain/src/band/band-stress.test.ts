@@ -42,6 +42,17 @@ describe('bending stress', () => {
     expect(stressMPa).toBeCloseTo(310.5, 9);
   });
 
+  it('takes E = 207 GPa = 30 000 ksi for carbon steel, as the printed table of material constants gives it', () => {
+    // Triton College strength-of-materials table: 0.2–0.8 % C steels E = 30,000 ksi, 207 GPa; Gere, Mechanics of
+    // Materials, 5th ed.: steels 190–210 GPa. 30 000 ksi × 6.894 757 MPa/ksi (NIST SP 811 B.8) = 206.84 GPa.
+    expect(STEEL_ELASTIC_MODULUS_PA / 1e9).toBeCloseTo(207, 9);
+    expect(Math.abs(STEEL_ELASTIC_MODULUS_PA - 30000e3 * 6894.757293168) / STEEL_ELASTIC_MODULUS_PA).toBeLessThan(
+      0.001,
+    );
+    expect(STEEL_ELASTIC_MODULUS_PA).toBeGreaterThanOrEqual(190e9);
+    expect(STEEL_ELASTIC_MODULUS_PA).toBeLessThanOrEqual(210e9);
+  });
+
   it('grows with thickness and falls with wheel diameter in proportion (fast-check)', () => {
     fc.assert(
       fc.property(

@@ -18,7 +18,8 @@ describe('planBreakIn, time mode (common practice, no source)', () => {
     expect(plan.totalDurationMin).toBe(20);
     expect(plan.totalAreaMm2).toBeNull();
     expect(plan.steps.every((s) => s.areaMm2 === null)).toBe(true);
-    expect(plan.basis).toBe('common practice, no source');
+    expect(plan.basis).toContain("Kerfline's starting steps");
+    expect(plan.bandSpeed).toBeNull();
     expect(plan.steps[0]?.note).toContain('33 % of normal for 10 min');
     expect(plan.steps[0]?.note).toContain('full normal band speed');
   });
@@ -201,5 +202,29 @@ describe('break-in settings validation', () => {
     });
     expect(parsed.normalCuttingRateMm2PerMin).toBeNull();
     expect(BREAK_IN_DEFAULTS.initialAreaMm2).toBeCloseTo(32258, 9);
+  });
+});
+
+describe('break-in with the material to be cut', () => {
+  it("puts the material's band speed range into the plan and its notes, at the break-in speed fraction", () => {
+    // Shipped carbon steel reference 50–90 m/min; a 1 1/4 in length of cut runs 10 % faster (Machinery's
+    // Handbook, 31st ed., p. 1245): 55–99 m/min; at 50 % band speed during break-in 27.5–49.5 m/min.
+    const plan = planBreakIn({ mode: 'time', bandSpeedFraction: 0.5 }, null, {
+      materialGroup: 'carbon_steel',
+      lengthOfCutMm: 31.75,
+    });
+    expect(plan.bandSpeed?.normal.minMPerMin).toBeCloseTo(55, 9);
+    expect(plan.bandSpeed?.normal.maxMPerMin).toBeCloseTo(99, 9);
+    expect(plan.bandSpeed?.breakInMinMPerMin).toBeCloseTo(27.5, 9);
+    expect(plan.bandSpeed?.breakInMaxMPerMin).toBeCloseTo(49.5, 9);
+    expect(plan.bandSpeed?.normal.basis).toMatchObject({ kind: 'site_setting', settingKey: 'band_speed.carbon_steel' });
+    expect(plan.steps[0]?.note).toContain('50 % of normal band speed (28–50 m/min)');
+    expect(plan.steps.at(-1)?.note).toContain('normal band speed (55–99 m/min)');
+  });
+
+  it('reads the speeds in the site units', () => {
+    const plan = planBreakIn({ mode: 'time' }, null, { materialGroup: 'stainless_steel', system: 'imperial' });
+    // Shipped stainless 20–40 m/min = 66–131 ft/min (1 ft = 0.3048 m, NIST SP 811 B.8).
+    expect(plan.steps[0]?.note).toContain('full normal band speed (66–131 ft/min)');
   });
 });

@@ -1,3 +1,6 @@
+import { recommendedBandSpeed, type BandSpeedOptions, type RecommendedBandSpeed } from '../band-speed/speed-ranges.js';
+import type { MaterialGroup } from '../band-speed/schema.js';
+import { bandSpeedToDisplay, type UnitSystem } from '../units/display.js';
 import {
   breakInSettingsSchema,
   normalCuttingRateSchema,
@@ -5,8 +8,13 @@ import {
   type BreakInSettingsInput,
 } from './schema.js';
 
-/** Where the break-in numbers come from. */
-export const BREAK_IN_BASIS = 'common practice, no source';
+/**
+ * Where the break-in numbers come from: no printed plan applies to every blade, so the steps are Kerfline's
+ * starting values, changed in the form (common practice, no source; the blade maker's own break-in takes
+ * precedence). Shown to users in these words.
+ */
+export const BREAK_IN_BASIS =
+  "Kerfline's starting steps, which you can change: no printed break-in plan applies to every blade, and the blade maker's own break-in takes precedence";
 
 export type BreakInStepKind = 'reduced' | 'ramp' | 'normal';
 
@@ -35,7 +43,24 @@ export interface BreakInPlan {
   totalAreaMm2: number | null;
   /** The normal cutting rate used, mm²/min at 100 % feed, or null. */
   normalCuttingRateMm2PerMin: number | null;
+  /**
+   * Band speeds for the material, when one is given: its normal range (with its basis) and the range during
+   * break-in (the normal range × the break-in band speed fraction), m/min.
+   */
+  bandSpeed: {
+    materialGroup: MaterialGroup;
+    normal: RecommendedBandSpeed;
+    breakInMinMPerMin: number;
+    breakInMaxMPerMin: number;
+  } | null;
   basis: string;
+}
+
+export interface BreakInMaterialOptions extends BandSpeedOptions {
+  /** The material the new blade will cut first: its band speed range goes into the plan. */
+  materialGroup?: MaterialGroup;
+  /** Wording of the speeds in the step notes; metric unless given. */
+  system?: UnitSystem;
 }
 
 const percent = (f: number): string => `${Math.round(f * 100)} %`;
@@ -67,16 +92,26 @@ function sumOrNull(values: (number | null)[]): number | null {
 export function planBreakIn(
   settings: BreakInSettingsInput = { mode: 'time' },
   normalCuttingRateMm2PerMin: number | null = null,
+  material: BreakInMaterialOptions = {},
 ): BreakInPlan {
   const s = breakInSettingsSchema.parse(settings);
   const rate = normalCuttingRateSchema.parse(normalCuttingRateMm2PerMin);
+  const system = material.system ?? 'metric';
+  const normal = material.materialGroup === undefined ? null : recommendedBandSpeed(material.materialGroup, material);
+  const speedRange = (low: number, high: number) => {
+    const lo = bandSpeedToDisplay(low, system);
+    return `${lo.text.slice(0, -lo.unit.length - 1)}–${bandSpeedToDisplay(high, system).text}`;
+  };
+  const speedFor = (fraction: number) =>
+    normal === null ? '' : ` (${speedRange(normal.minMPerMin * fraction, normal.maxMPerMin * fraction)})`;
 
   const feeds: { kind: BreakInStepKind; feedFraction: number }[] = [
     { kind: 'reduced', feedFraction: s.initialFeedFraction },
     ...s.rampFeedFractions.map((f) => ({ kind: 'ramp' as const, feedFraction: f })),
   ];
   const speedText =
-    s.bandSpeedFraction === 1 ? 'full normal band speed' : `${percent(s.bandSpeedFraction)} of normal band speed`;
+    (s.bandSpeedFraction === 1 ? 'full normal band speed' : `${percent(s.bandSpeedFraction)} of normal band speed`) +
+    speedFor(s.bandSpeedFraction);
 
   const steps: BreakInStep[] = feeds.map(({ kind, feedFraction }, i) => {
     const areaRate = rate === null ? null : feedFraction * rate;
@@ -105,7 +140,7 @@ export function planBreakIn(
     bandSpeedFraction: 1,
     durationMin: null,
     areaMm2: null,
-    note: 'Break-in done: normal feed and normal band speed from here on.',
+    note: `Break-in done: normal feed and normal band speed${speedFor(1)} from here on.`,
   });
 
   const breakInSteps = steps.slice(0, -1);
@@ -115,6 +150,15 @@ export function planBreakIn(
     totalDurationMin: sumOrNull(breakInSteps.map((st) => st.durationMin)),
     totalAreaMm2: sumOrNull(breakInSteps.map((st) => st.areaMm2)),
     normalCuttingRateMm2PerMin: rate,
+    bandSpeed:
+      normal === null || material.materialGroup === undefined
+        ? null
+        : {
+            materialGroup: material.materialGroup,
+            normal,
+            breakInMinMPerMin: normal.minMPerMin * s.bandSpeedFraction,
+            breakInMaxMPerMin: normal.maxMPerMin * s.bandSpeedFraction,
+          },
     basis: BREAK_IN_BASIS,
   };
 }

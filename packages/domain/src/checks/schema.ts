@@ -1,5 +1,7 @@
 import { z } from 'zod';
 import { inToMm, lbfToN, psiToPa } from '../units/units.js';
+import { FWW_BAND_TENSION } from '../figures/sources.js';
+import type { PrintedSource } from '../figures/basis.js';
 
 /** The kinds of maintenance check Kerfline records, as stored ids. */
 export const CHECK_KIND_IDS = [
@@ -42,7 +44,7 @@ export const CHECK_KINDS: readonly CheckKind[] = [
   { kind: 'tracking', label: 'Band tracking', unit: 'mm', due: 'blade_change', defaultIntervalDays: null },
   { kind: 'band_tension', label: 'Band tension', unit: 'MPa', due: 'blade_change', defaultIntervalDays: null },
   { kind: 'chip_brush', label: 'Chip brush', unit: 'condition', due: 'blade_change', defaultIntervalDays: null },
-  { kind: 'feed_pressure', label: 'Feed / head pressure', unit: 'N', due: 'periodic', defaultIntervalDays: 30 },
+  { kind: 'feed_pressure', label: 'Head down-force', unit: 'N', due: 'periodic', defaultIntervalDays: 30 },
   {
     kind: 'bearing_wear',
     label: 'Guide and pressure bearing wear',
@@ -59,26 +61,35 @@ export type BladeMaterial = (typeof BLADE_MATERIALS)[number];
 const mpaFromPsi = (psi: number): number => psiToPa(psi) / 1e6;
 
 /**
- * Band tension ranges by blade material, MPa. From memory, not a published table: bi-metal (and, we assume,
- * carbide-tipped) production bands are commonly tensioned to about 30 000–35 000 psi (≈ 207–241 MPa), carbon
- * bands lower, about 15 000–20 000 psi (≈ 103–138 MPa). The blade maker's figure always overrides these.
+ * Shipped band tension ranges by blade material, MPa. Carbon and bi-metal: the blade makers' ranges printed in
+ * Fine Woodworking, "Setting Bandsaw Blade Tension" (carbon-steel blades 15,000–20,000 psi, bimetal
+ * 25,000–30,000 psi). Carbide-tipped: no printed range for metal-cutting bands; Kerfline starts from the bi-metal
+ * range as a site setting. The blade maker's figure for a blade always overrides these.
  */
 export const DEFAULT_TENSION_RANGE_MPA: Record<BladeMaterial, { minMPa: number; maxMPa: number }> = {
   carbon: { minMPa: mpaFromPsi(15000), maxMPa: mpaFromPsi(20000) },
-  bimetal: { minMPa: mpaFromPsi(30000), maxMPa: mpaFromPsi(35000) },
-  carbide_tipped: { minMPa: mpaFromPsi(30000), maxMPa: mpaFromPsi(35000) },
+  bimetal: { minMPa: mpaFromPsi(25000), maxMPa: mpaFromPsi(30000) },
+  carbide_tipped: { minMPa: mpaFromPsi(25000), maxMPa: mpaFromPsi(30000) },
+};
+
+/** The printed source of each shipped tension range; null where none was found. */
+export const TENSION_RANGE_SOURCES: Record<BladeMaterial, PrintedSource | null> = {
+  carbon: FWW_BAND_TENSION,
+  bimetal: FWW_BAND_TENSION,
+  carbide_tipped: null,
 };
 
 /**
- * Defaults of the check targets, SI. Common practice, no source, except where said otherwise; the
- * tolerances and the tracking scaling are Kerfline's own choices, documented beside each.
+ * Shipped values of the check targets, SI: the defaults of the site settings in `settings/registry.ts`. Common
+ * practice, no source, except where said otherwise; the tolerances and the tracking scaling are Kerfline's own
+ * choices, documented beside each.
  */
 export const CHECK_DEFAULTS = {
   /** Guide opening = band thickness + 0.001 in (common practice, no source). */
   guideExtraClearanceMm: inToMm(0.001),
   /**
-   * Our choice: pass within ±0.001 in of the target, i.e. from the band thickness itself up to thickness +
-   * 0.002 in. Tighter than the band binds it; looser lets it wander.
+   * Our choice: up to 0.001 in more open than the target passes; the tolerance is on the open side only, since
+   * any opening tighter than the target pinches the band.
    */
   guideToleranceMm: inToMm(0.001),
   /** 1/8 in overhang on a 1 in band (common practice, no source), scaled as 1/8 of the band width. */
@@ -89,11 +100,17 @@ export const CHECK_DEFAULTS = {
   trackingMaxOverhangMm: inToMm(1 / 4),
   /** Our choice: ±1/32 in around the target overhang. */
   trackingToleranceMm: inToMm(1 / 32),
-  /** 8 lbf ≈ 35.6 N on a spring balance over the last inch of head travel (common practice for one class of saw, no source). */
+  /** 8 lbf ≈ 35.6 N on a spring balance over the last inch of head travel (common practice, no source). */
   maxHeadForceN: lbfToN(8),
+  /** Our choice: below 2 lbf ≈ 8.9 N over the last inch the head is taken as not feeding. */
+  minHeadForceN: lbfToN(2),
   /** Our choice: a 0.001 in feeler under the straightedge is the most a bearing face may show. */
   bearingWearToleranceMm: inToMm(0.001),
 } as const;
+
+/** How a saw's head is fed: by its own weight or a spring (checked with a spring balance), or hydraulically. */
+export const HEAD_FEEDS = ['gravity_spring', 'hydraulic'] as const;
+export type HeadFeed = (typeof HEAD_FEEDS)[number];
 
 // zod 4's number() already refuses NaN and ±Infinity.
 const finite = (label: string, unit: string) => z.number({ message: `${label} must be a number (${unit})` });
@@ -110,10 +127,10 @@ const nonNegative = (label: string, unit: string, max: number) =>
 export const guideClearanceInputSchema = z.object({
   kind: z.literal('guide_clearance'),
   bandThicknessMm: positive('Band thickness', 'mm', 5),
-  /** Clearance added to the band thickness for the target; default 0.001 in. */
-  extraClearanceMm: nonNegative('Extra clearance', 'mm', 1).default(CHECK_DEFAULTS.guideExtraClearanceMm),
-  /** Allowed difference either side of the target; default 0.001 in. */
-  toleranceMm: nonNegative('Tolerance', 'mm', 1).default(CHECK_DEFAULTS.guideToleranceMm),
+  /** This saw's own clearance over the band thickness; the site's `guide_clearance` setting when left out. */
+  extraClearanceMm: nonNegative('Extra clearance', 'mm', 1).optional(),
+  /** This saw's own allowed extra opening (open side only); the site's setting when left out. */
+  toleranceMm: nonNegative('Tolerance', 'mm', 1).optional(),
   measuredMm: nonNegative('Measured clearance', 'mm', 10).nullable().optional(),
 });
 
@@ -122,29 +139,41 @@ export const trackingInputSchema = z
   .object({
     kind: z.literal('tracking'),
     bandWidthMm: positive('Band width', 'mm', 200),
-    toleranceMm: nonNegative('Tolerance', 'mm', 10).default(CHECK_DEFAULTS.trackingToleranceMm),
-    minOverhangMm: nonNegative('Smallest overhang', 'mm', 50).default(CHECK_DEFAULTS.trackingMinOverhangMm),
-    maxOverhangMm: nonNegative('Largest overhang', 'mm', 50).default(CHECK_DEFAULTS.trackingMaxOverhangMm),
+    /** This saw's own figures; the site's `tracking` setting for each one left out. */
+    toleranceMm: nonNegative('Tolerance', 'mm', 10).optional(),
+    minOverhangMm: nonNegative('Smallest overhang', 'mm', 50).optional(),
+    maxOverhangMm: nonNegative('Largest overhang', 'mm', 50).optional(),
     /** Negative when the tooth edge sits back on the wheel face. */
     measuredOverhangMm: finite('Measured overhang', 'mm').nullable().optional(),
   })
-  .refine((v) => v.minOverhangMm <= v.maxOverhangMm, {
+  .refine((v) => v.minOverhangMm === undefined || v.maxOverhangMm === undefined || v.minOverhangMm <= v.maxOverhangMm, {
     path: ['maxOverhangMm'],
     message: 'Largest overhang must not be below the smallest',
   });
 
-/** Feed / head pressure: spring-balance reading of the head over the last inch of its travel. */
-export const feedPressureInputSchema = z.object({
-  kind: z.literal('feed_pressure'),
-  /** This saw's maximum; default 8 lbf. */
-  maxHeadForceN: positive('Largest head force', 'N', 100000).default(CHECK_DEFAULTS.maxHeadForceN),
-  measuredN: nonNegative('Measured head force', 'N', 1000000).nullable().optional(),
-});
+/**
+ * Head down-force: spring-balance reading of a gravity- or spring-fed head over the last inch of its travel. A
+ * hydraulically fed head is not checked this way (the check answers "does not apply").
+ */
+export const feedPressureInputSchema = z
+  .object({
+    kind: z.literal('feed_pressure'),
+    headFeed: z.enum(HEAD_FEEDS, { message: 'Say how the head feeds: gravity_spring or hydraulic' }),
+    /** This saw's own least and greatest force; the site's `head_force` setting for each one left out. */
+    minHeadForceN: nonNegative('Least head force', 'N', 100000).optional(),
+    maxHeadForceN: positive('Largest head force', 'N', 100000).optional(),
+    measuredN: nonNegative('Measured head force', 'N', 1000000).nullable().optional(),
+  })
+  .refine((v) => v.minHeadForceN === undefined || v.maxHeadForceN === undefined || v.minHeadForceN <= v.maxHeadForceN, {
+    path: ['maxHeadForceN'],
+    message: 'Largest head force must not be below the least',
+  });
 
 /** Guide and pressure bearing wear: gap under a straightedge laid on the bearing face. */
 export const bearingWearInputSchema = z.object({
   kind: z.literal('bearing_wear'),
-  toleranceMm: nonNegative('Allowed gap', 'mm', 5).default(CHECK_DEFAULTS.bearingWearToleranceMm),
+  /** This saw's own largest gap; the site's `bearing_wear` setting when left out. */
+  toleranceMm: nonNegative('Allowed gap', 'mm', 5).optional(),
   measuredGapMm: nonNegative('Measured gap', 'mm', 50).nullable().optional(),
 });
 
@@ -158,12 +187,14 @@ export const bandTensionInputSchema = z
     maxMPa: positive('Highest tension', 'MPa', 2000).optional(),
     measuredMPa: nonNegative('Measured tension', 'MPa', 5000).nullable().optional(),
   })
-  .refine(
-    (v) =>
-      (v.minMPa ?? DEFAULT_TENSION_RANGE_MPA[v.bladeMaterial].minMPa) <=
-      (v.maxMPa ?? DEFAULT_TENSION_RANGE_MPA[v.bladeMaterial].maxMPa),
-    { path: ['maxMPa'], message: 'Highest tension must not be below the lowest' },
-  );
+  .refine((v) => (v.minMPa === undefined) === (v.maxMPa === undefined), {
+    path: ['maxMPa'],
+    message: "Give both ends of the blade maker's tension range, or neither",
+  })
+  .refine((v) => v.minMPa === undefined || v.maxMPa === undefined || v.minMPa <= v.maxMPa, {
+    path: ['maxMPa'],
+    message: 'Highest tension must not be below the lowest',
+  });
 
 /** Chip brush: does it reach into the gullets, and is it worn? */
 export const chipBrushInputSchema = z.object({

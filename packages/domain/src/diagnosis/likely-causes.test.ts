@@ -83,7 +83,7 @@ describe('rankLikelyCauses with evidence', () => {
       checks: [{ kind: 'feed_pressure', passed: false, overdue: false }],
     });
     expect(d.causes[0]).toMatchObject({ cause: 'feed_high', baseWeight: 0.55, score: 1.05 });
-    expect(d.causes[0]?.evidence).toEqual([{ text: 'Last feed / head pressure check failed.', effect: 0.5 }]);
+    expect(d.causes[0]?.evidence).toEqual([{ text: 'Last head down-force check failed.', effect: 0.5 }]);
   });
 
   it('fatigue crack: a too-small wheel lifts wheel_too_small above tension', () => {

@@ -35,3 +35,24 @@ export interface PrintedSource {
 }
 
 export const published = (source: PrintedSource): FigureBasis => ({ kind: 'published', citation: source.citation });
+
+/**
+ * The basis in words a user trusts, for a line under a figure: "Published: …", "Your site's setting, changed by
+ * Ana Ruiz on 2025-03-04", or "Kerfline's starting value for your site: …". Dates are shown as the ISO day.
+ */
+export function describeBasis(basis: FigureBasis): string {
+  switch (basis.kind) {
+    case 'published':
+      return `Published: ${basis.citation}`;
+    case 'site_setting':
+      if (basis.changedAt !== null) {
+        const who = basis.changedByName === null ? '' : ` by ${basis.changedByName}`;
+        return `Your site's setting, changed${who} on ${basis.changedAt.slice(0, 10)}`;
+      }
+      return `Kerfline's starting value for your site's setting (a site admin can change it): ${basis.note}`;
+    case 'record':
+      return `From your records: ${basis.note}`;
+    case 'measured':
+      return `Measured: ${basis.note}`;
+  }
+}

@@ -132,8 +132,29 @@ export const reliabilityInputSchema = z
     periodStart: date('Period start'),
     periodEnd: date('Period end'),
     asOf: date('As-of date').optional(),
-    /** Hours the saw was scheduled to run in the period; default the whole period (24 h a day). */
+    /**
+     * Hours the saw was scheduled to run in the period, when its shifts are not known one by one; downtime is
+     * then taken to fall inside them. Default the whole period (24 h a day).
+     */
     scheduledHours: z.number().positive({ message: 'Scheduled hours must be greater than 0' }).optional(),
+    /**
+     * The saw's scheduled shifts, when known: downtime outside them does not count against uptime. Give these or
+     * `scheduledHours`, not both.
+     */
+    scheduledWindows: z
+      .array(
+        z
+          .object({ start: date('Shift start'), end: date('Shift end') })
+          .refine((w) => w.end.getTime() > w.start.getTime(), {
+            path: ['end'],
+            message: 'Shift end must be after its start',
+          }),
+      )
+      .optional(),
+  })
+  .refine((v) => v.scheduledHours === undefined || v.scheduledWindows === undefined, {
+    path: ['scheduledWindows'],
+    message: 'Give the scheduled hours or the scheduled shifts, not both',
   })
   .refine((v) => v.periodEnd.getTime() > v.periodStart.getTime(), {
     path: ['periodEnd'],

@@ -9,7 +9,7 @@ import { z } from 'zod';
  * - angle: lies as an L, `legOnBedMm` flat on the bed along the band, `legUpMm` standing;
  * - channel: web flat on the bed, flanges pointing up, so the depth lies along the band;
  * - I/H beam: stands upright (web vertical), so the flange width lies along the band.
- * Corners are modelled sharp and fillets left out; see `cut-area.ts` for what that costs.
+ * See `cut-area.ts` for how fillets and tube corners are taken into the area.
  */
 export const STOCK_SHAPE_KINDS = [
   'round_bar',
@@ -100,12 +100,20 @@ const angleSchema = z
     message: 'Thickness must be less than each leg',
   });
 
-/** Channel and beam share their fields: depth, flange width, web and flange thickness. */
+/**
+ * Channel and beam share their fields: depth, flange width, web and flange thickness, and optionally the root
+ * radius (the fillet between web and flange); a standard section's dimensions bring their printed area.
+ */
 const flangedFields = {
   depthMm: dimensionMm('Depth'),
   flangeWidthMm: dimensionMm('Flange width'),
   webThicknessMm: dimensionMm('Web thickness'),
   flangeThicknessMm: dimensionMm('Flange thickness'),
+  rootRadiusMm: z
+    .number({ message: 'Root radius must be a number (mm)' })
+    .min(0, { message: 'Root radius must not be negative' })
+    .max(200, { message: 'Root radius must be at most 200 mm' })
+    .optional(),
 };
 
 function flangedIssues(v: {

@@ -5,9 +5,10 @@ import { cutFaceAreaMm2 } from '../stock-area/cut-area.js';
 import type { StockShape } from '../stock-area/schema.js';
 import { engagedLengthMm } from './engaged-length.js';
 import { meanTpi, parsePitchLabel, pitchLabel, STANDARD_PITCHES } from './pitch.js';
-import { recommendPitches } from './recommend-pitches.js';
+import { pitchAdvice, recommendPitches } from './recommend-pitches.js';
+import { PRINTED_PITCH_PAIRS, tablePitchForLengthOfCut } from './pitch-table.js';
 import type { Pitch } from './schema.js';
-import { judgeTeethInWork, TEETH_FITS, TEETH_IN_WORK_RULE, teethInWork, teethInWorkForStock } from './teeth-in-work.js';
+import { judgeTeethInWork, TEETH_IN_WORK_RULE, teethInWork, teethInWorkForStock } from './teeth-in-work.js';
 
 const constant = (tpi: number): Pitch => ({ kind: 'constant', tpi });
 const variable = (coarseTpi: number, fineTpi: number): Pitch => ({ kind: 'variable', coarseTpi, fineTpi });
@@ -150,7 +151,7 @@ describe('engaged length, checked by brute-force geometry', () => {
   });
 });
 
-describe('judging teeth in the work (3–24, best 6–12: common practice, no source)', () => {
+describe('judging teeth in the work (3–24 guards, 6–12 preference: common practice, no source)', () => {
   it('labels and warns', () => {
     expect(TEETH_IN_WORK_RULE).toEqual({ fewest: 3, most: 24, bestFewest: 6, bestMost: 12 });
     expect(judgeTeethInWork({ min: 6, max: 12 })).toEqual({ fit: 'best', warnings: [] });
@@ -171,26 +172,129 @@ describe('judging teeth in the work (3–24, best 6–12: common practice, no so
   });
 });
 
-describe('recommendPitches', () => {
-  it('ranks best fits first for a 50 mm round bar', () => {
-    const ranked = recommendPitches({ kind: 'round_bar', diameterMm: 50 });
-    expect(ranked).toHaveLength(STANDARD_PITCHES.length);
-    const top = ranked[0];
-    expect(top?.fit).toBe('best');
-    // Mean chord 39.27 mm = 1.546 in and diameter 1.969 in: 6–12 teeth needs 3.9 to 6.1 TPI.
-    expect(top?.meanTpi).toBeGreaterThanOrEqual(3.9);
-    expect(top?.meanTpi).toBeLessThanOrEqual(6.1);
-    expect(ranked.at(-1)?.fit).toBe('outside_limits');
+describe('round bar: each figure named for what it is, and the warning on the centre line', () => {
+  it('gives the mean over the cut π·D/4 and the chord at the centre line D, and names them', () => {
+    const engaged = engagedLengthMm({ kind: 'round_bar', diameterMm: 40 });
+    expect(engaged).toMatchObject({ minLabel: 'mean over the cut', maxLabel: 'at the centre line' });
+    expect(engaged.minMm).toBeCloseTo((Math.PI * 40) / 4, 12);
+    expect(engaged.maxMm).toBe(40);
+    // Published pitch tables read a round solid's diameter as its length of cut (Machinery's Handbook, 31st ed.,
+    // p. 1245): the too-few-teeth warning reads the same figure.
+    expect(engaged.fewestTeethMm).toBe(40);
+    const square = engagedLengthMm({ kind: 'square_bar', sideMm: 40 });
+    expect(square).toMatchObject({ minLabel: 'least', maxLabel: 'greatest', fewestTeethMm: 40 });
   });
 
-  it('puts coarse pitches first for large solids and fine pitches first for thin walls', () => {
-    expect(recommendPitches({ kind: 'round_bar', diameterMm: 300 })[0]?.meanTpi).toBeLessThanOrEqual(1.25);
-    const tube = recommendPitches({ kind: 'round_tube', outsideDiameterMm: 50, wallMm: 3 });
-    expect(tube[0]?.meanTpi).toBeGreaterThanOrEqual(10);
-    expect(tube[0]?.fit).toBe('workable');
+  it('does not warn when the centre line holds 3 teeth, though the mean over the cut holds fewer', () => {
+    // 1 in bar at 3.5 TPI (a pitch typed in): 3.5 teeth at the centre line, 3.5·π/4 = 2.75 on the mean.
+    const teeth = teethInWorkForStock({ kind: 'round_bar', diameterMm: inToMm(1) }, constant(3.5));
+    expect(teeth.fewest).toBeCloseTo(3.5, 12);
+    expect(teeth.min).toBeCloseTo(2.7489, 4);
+    expect(judgeTeethInWork(teeth).warnings).toEqual([]);
+    // Under the old reading (the mean called "least") this warned:
+    expect(judgeTeethInWork({ min: teeth.min, max: teeth.max }).warnings.map((w) => w.code)).toEqual(['too_few_teeth']);
   });
 
-  it('warns when no pitch fits, ranking too many teeth above too few', () => {
+  it('warns when the centre line itself holds fewer than 3 teeth, and says where', () => {
+    // 0.7 in bar at 3 TPI: 2.1 teeth at the centre line.
+    const teeth = teethInWorkForStock({ kind: 'round_bar', diameterMm: inToMm(0.7) }, constant(3));
+    const judged = judgeTeethInWork(teeth);
+    expect(judged.fit).toBe('outside_limits');
+    expect(judged.warnings[0]?.message).toBe(
+      'As few as 2.1 teeth in the work at the centre line (fewer than 3): teeth may strip. Choose a finer pitch.',
+    );
+  });
+});
+
+describe('pitch for solids from the printed table', () => {
+  // Machinery's Handbook, 31st ed. (Industrial Press, 2020), p. 1245, notes to the table "Bimetal Band Saw
+  // Speeds for Cutting 4-Inch Material with Coolant": length of cut → blade pitch.
+  const printed: [number, string][] = [
+    [0.25, '10/14'],
+    [0.75, '6/10'],
+    [1.25, '4/6'],
+    [4, '3/4'],
+    [8, '2/3'],
+  ];
+
+  it('the table data are the printed pairs', () => {
+    expect(PRINTED_PITCH_PAIRS.map((p) => [p.lengthOfCutIn, pitchLabel(p.pitch)])).toEqual(printed);
+  });
+
+  for (const [inches, label] of printed) {
+    it(`MH 31st ed. p. 1245: ${inches} in of solid → ${label} TPI (round, square and flat bar)`, () => {
+      const shapes: StockShape[] = [
+        { kind: 'round_bar', diameterMm: inToMm(inches) },
+        { kind: 'square_bar', sideMm: inToMm(inches) },
+        { kind: 'flat_bar', widthMm: inToMm(inches), heightMm: 10 },
+      ];
+      for (const shape of shapes) {
+        const advice = pitchAdvice(shape);
+        expect(advice.candidates[0]?.label, shape.kind).toBe(label);
+        expect(advice.candidates[0]?.recommended).toBe(true);
+        expect(advice.source).toBe('published_table');
+        expect(advice.basis).toEqual({ kind: 'published', citation: expect.stringContaining('p. 1245') });
+        expect(advice.candidates[0]?.fit).not.toBe('outside_limits');
+      }
+    });
+  }
+
+  it('accepts about 3 teeth on small solids and about 20 on large ones, as the table does', () => {
+    const small = recommendPitches({ kind: 'round_bar', diameterMm: inToMm(0.25) })[0]!;
+    expect(small.teethFewest).toBeCloseTo(3, 9);
+    expect(small.warnings).toEqual([]);
+    const large = recommendPitches({ kind: 'round_bar', diameterMm: inToMm(8) })[0]!;
+    expect(large.teethMax).toBeCloseTo(20, 9);
+    // The 6–12 preference is shown, not ranked above the table: 1/1.5 TPI would put 10 teeth in 8 in.
+    expect(large.inPreferredRange).toBe(false);
+    const preferred = recommendPitches({ kind: 'round_bar', diameterMm: inToMm(8) }).find((c) => c.label === '1/1.5');
+    expect(preferred?.inPreferredRange).toBe(true);
+    expect(preferred?.recommended).toBe(false);
+  });
+
+  it('between printed lengths takes the nearest printed length on a ratio scale (our reading)', () => {
+    expect(pitchLabel(tablePitchForLengthOfCut(inToMm(0.43)).pitch)).toBe('10/14');
+    expect(pitchLabel(tablePitchForLengthOfCut(inToMm(0.44)).pitch)).toBe('6/10');
+    expect(pitchLabel(tablePitchForLengthOfCut(inToMm(2.2)).pitch)).toBe('4/6');
+    expect(pitchLabel(tablePitchForLengthOfCut(inToMm(2.3)).pitch)).toBe('3/4');
+    expect(pitchLabel(tablePitchForLengthOfCut(inToMm(5.6)).pitch)).toBe('3/4');
+    expect(pitchLabel(tablePitchForLengthOfCut(inToMm(5.7)).pitch)).toBe('2/3');
+    expect(tablePitchForLengthOfCut(inToMm(9)).withinTable).toBe(false);
+    expect(() => tablePitchForLengthOfCut(0)).toThrow('Length of cut must be a number greater than 0 mm');
+  });
+
+  it('beyond the table the guards choose (fewer than 3 / more than 24 teeth: common practice, no source)', () => {
+    const thin = pitchAdvice({ kind: 'flat_bar', widthMm: inToMm(0.2), heightMm: 20 });
+    expect(thin.source).toBe('teeth_in_work');
+    expect(thin.basis).toBeNull();
+    expect(thin.candidates[0]!.teethFewest).toBeGreaterThanOrEqual(3);
+    expect(thin.note).toContain('beyond the printed pitch table');
+    const big = pitchAdvice({ kind: 'round_bar', diameterMm: inToMm(14) });
+    expect(big.source).toBe('teeth_in_work');
+    expect(big.candidates[0]!.teethMax).toBeLessThanOrEqual(24);
+  });
+
+  it('takes the nearest pitch of a site list that lacks the printed one', () => {
+    const advice = pitchAdvice(
+      { kind: 'round_bar', diameterMm: inToMm(4) },
+      { pitches: [constant(2), constant(4), constant(8)] },
+    );
+    // Printed 3/4 (3.5 TPI): 4 TPI is nearest.
+    expect(advice.source).toBe('nearest_to_table');
+    expect(advice.candidates[0]?.label).toBe('4');
+    expect(advice.note).toContain('3/4 TPI');
+  });
+
+  it('tubes and shapes keep the teeth-in-work choice and say so', () => {
+    const tube = pitchAdvice({ kind: 'round_tube', outsideDiameterMm: 50, wallMm: 3 });
+    expect(tube.source).toBe('teeth_in_work');
+    expect(tube.table).toBeNull();
+    expect(tube.note).toContain('solid sections only');
+    expect(tube.candidates[0]?.meanTpi).toBeGreaterThanOrEqual(10);
+    expect(tube.candidates[0]?.fit).toBe('workable');
+  });
+
+  it('warns when no pitch fits a tube, ranking too many teeth above too few', () => {
     // 200 × 100 × 4 mm tube: 8 mm of side walls (0.315 in) and 200 mm of top (7.87 in).
     // 10 TPI: 3.1 to 78.7 teeth (too many); 2 TPI: 0.63 to 15.7 teeth (too few).
     const shape: StockShape = { kind: 'rect_tube', widthMm: 200, heightMm: 100, wallMm: 4 };
@@ -207,13 +311,12 @@ describe('recommendPitches', () => {
       { piecesAcross: 3, pitches: [constant(3), constant(6)], limit: 1 },
     );
     expect(ranked).toHaveLength(1);
-    // 3 × 20 mm = 2.362 in: 3 TPI gives 7.1 teeth (best), 6 TPI 14.2 (workable).
+    // 3 × 20 mm = 2.362 in of cut takes the printed 3/4 (3.5 TPI): 3 TPI is nearer it than 6 on a ratio scale.
     expect(ranked[0]?.label).toBe('3');
     expect(recommendPitches({ kind: 'square_bar', sideMm: 20 }, { limit: -1 })).toEqual([]);
   });
 
-  it('never ranks a worse fit above a better one (fast-check)', () => {
-    const order = (fit: string) => TEETH_FITS.indexOf(fit as (typeof TEETH_FITS)[number]);
+  it('never ranks a pitch outside the guards above one within them (fast-check)', () => {
     fc.assert(
       fc.property(
         fc.double({ min: 2, max: 1000, noNaN: true }),
@@ -223,8 +326,8 @@ describe('recommendPitches', () => {
             { kind: 'round_bar', diameterMm: od },
             { kind: 'round_tube', outsideDiameterMm: od, wallMm: od * f },
           ] as StockShape[]) {
-            const fits = recommendPitches(shape).map((c) => order(c.fit));
-            if (fits.some((fit, i) => i > 0 && fit < (fits[i - 1] ?? 0))) return false;
+            const outside = recommendPitches(shape).map((c) => c.fit === 'outside_limits');
+            if (outside.some((o, i) => i > 0 && !o && outside[i - 1])) return false;
           }
           return true;
         },

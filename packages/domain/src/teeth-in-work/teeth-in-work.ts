@@ -11,8 +11,9 @@ import { meanTpi } from './pitch.js';
 import type { Pitch } from './schema.js';
 
 /**
- * The trade's rule for teeth in the work (common practice, no source): at least 3, at most 24, and 6 to 12 cuts
- * best.
+ * Guards on teeth in the work: fewer than 3 and teeth strip, more than 24 and the gullets overload (common
+ * practice, no source; the printed pitch table itself runs from 3.0 teeth at its smallest length of cut to 20 at
+ * its largest). 6 to 12 is the trade's preference, shown as such; it never overrides the printed pitch table.
  */
 export const TEETH_IN_WORK_RULE = { fewest: 3, most: 24, bestFewest: 6, bestMost: 12 } as const;
 
@@ -26,21 +27,40 @@ export function teethInWork(pitch: Pitch, lengthMm: number): number {
 }
 
 export interface TeethInWorkRange {
-  /** Teeth in the work where the least metal is under the band. */
+  /** Teeth on the lower figure of metal: the least, or on round bar the mean over the cut (`minLabel`). */
   min: number;
-  /** Teeth in the work where the most metal is under the band. */
+  /** Teeth where the most metal is under the band (on round bar: at the centre line). */
   max: number;
-  /** Where min and max come from (see `engagedLengthMm`). */
+  /** What `min` is: "least", or "mean over the cut" on round bar. */
+  minLabel: string;
+  /** What `max` is: "greatest", or "at the centre line" on round bar. */
+  maxLabel: string;
+  /**
+   * Teeth on the length the too-few-teeth warning reads: the length of cut of a published pitch table for a solid
+   * (a round bar's diameter), the least length for tubes and shapes. Equals `min` except on round bar.
+   */
+  fewest: number;
+  /** Where the figures come from (see `engagedLengthMm`). */
   basis: string;
 }
 
-/** Least and greatest teeth in the work for a stock shape (mm) cut with a pitch, `piecesAcross` side by side. */
+/** Teeth in the work for a stock shape (mm) cut with a pitch, `piecesAcross` side by side. */
 export function teethInWorkForStock(shape: StockShape, pitch: Pitch, piecesAcross = 1): TeethInWorkRange {
   const engaged = engagedLengthMm(shape, piecesAcross);
-  return { min: teethInWork(pitch, engaged.minMm), max: teethInWork(pitch, engaged.maxMm), basis: engaged.basis };
+  return {
+    min: teethInWork(pitch, engaged.minMm),
+    max: teethInWork(pitch, engaged.maxMm),
+    minLabel: engaged.minLabel,
+    maxLabel: engaged.maxLabel,
+    fewest: teethInWork(pitch, engaged.fewestTeethMm),
+    basis: engaged.basis,
+  };
 }
 
-/** best: 6–12 teeth all through the cut; workable: within 3–24; outside_limits: below 3 or above 24 somewhere. */
+/**
+ * best: 6–12 teeth (the trade's preference) on the figures the warnings read; workable: within 3–24;
+ * outside_limits: below 3 or above 24.
+ */
 export const TEETH_FITS = ['best', 'workable', 'outside_limits'] as const;
 export type TeethFit = (typeof TEETH_FITS)[number];
 
@@ -50,24 +70,34 @@ export interface TeethWarning {
 }
 
 const oneDecimal = (teeth: number) => (Math.round(teeth * 10) / 10).toFixed(1);
+/** A count exactly on a guard (3.0 teeth from 12 TPI over 1/4 in) must not fail on float noise in the inch. */
+const EPSILON = 1e-9;
 
-/** Judges a range of teeth in the work against `TEETH_IN_WORK_RULE`: a fit label and plain-word warnings. */
-export function judgeTeethInWork(range: { min: number; max: number }): { fit: TeethFit; warnings: TeethWarning[] } {
+/**
+ * Judges teeth in the work against `TEETH_IN_WORK_RULE`: a fit label and plain-word warnings. The too-few check
+ * reads `fewest` when given (a round bar's centre line, as published pitch tables read its diameter), else `min`.
+ */
+export function judgeTeethInWork(range: { min: number; max: number; fewest?: number }): {
+  fit: TeethFit;
+  warnings: TeethWarning[];
+} {
   const { fewest, most, bestFewest, bestMost } = TEETH_IN_WORK_RULE;
   const warnings: TeethWarning[] = [];
-  if (range.min < fewest) {
+  const low = range.fewest ?? range.min;
+  if (low < fewest - EPSILON) {
+    const where = range.fewest !== undefined && range.fewest !== range.min ? ' at the centre line' : '';
     warnings.push({
       code: 'too_few_teeth',
-      message: `As few as ${oneDecimal(range.min)} teeth in the work (fewer than ${fewest}): teeth may strip. Choose a finer pitch.`,
+      message: `As few as ${oneDecimal(low)} teeth in the work${where} (fewer than ${fewest}): teeth may strip. Choose a finer pitch.`,
     });
   }
-  if (range.max > most) {
+  if (range.max > most + EPSILON) {
     warnings.push({
       code: 'too_many_teeth',
       message: `Up to ${oneDecimal(range.max)} teeth in the work (more than ${most}): gullets pack with chips and the cut slows. Choose a coarser pitch.`,
     });
   }
   if (warnings.length > 0) return { fit: 'outside_limits', warnings };
-  const best = range.min >= bestFewest && range.max <= bestMost;
+  const best = low >= bestFewest - EPSILON && range.max <= bestMost + EPSILON;
   return { fit: best ? 'best' : 'workable', warnings };
 }

@@ -1,10 +1,11 @@
+import { describeBasis } from '@kerfline/domain/figures/basis';
 import type { SpeedPosition } from '@kerfline/domain/band-speed/check-band-speed';
 import { MATERIAL_GROUP_LABELS } from '@kerfline/domain/band-speed/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { Notice } from '../../../lib/ui/notice';
 import { CalculatorLayout, Explanation, ResultFigure, SourceNote } from './calculator-layout';
 import { ChoiceField, EntryField, FieldGroup } from './entry-field';
-import { rangeFigure } from './quantities';
+import { figure, rangeFigure } from './quantities';
 import { SawPicker, type CalculatorSaw } from './saw-picker';
 import { StatusBadge, type StatusShape } from './status-badge';
 import { BAND_SPEED_LABELS, MATERIAL_OPTIONS, evaluateBandSpeed, type BandSpeedKey } from './band-speed-values';
@@ -46,7 +47,7 @@ export function BandSpeedCalculator({ system, saws = [] }: { system: UnitSystem;
   );
 
   // The size of stock the table's speeds are typical for: 50–150 mm.
-  const stockSize = rangeFigure('length', 50, 150, system, 0).text;
+  const stockSize = figure('length', 101.6, system, 0).text;
   let body = null;
   if (material && recommended) {
     const range = rangeFigure('bandSpeed', recommended.minMPerMin, recommended.maxMPerMin, system);
@@ -57,7 +58,7 @@ export function BandSpeedCalculator({ system, saws = [] }: { system: UnitSystem;
           label={`Recommended band speed for ${MATERIAL_GROUP_LABELS[material]}`}
           value={range.number}
           unit={range.unit}
-          detail={`Bi-metal blade, solid stock of about ${stockSize}, with coolant.`}
+          detail={`Bi-metal blade, a ${stockSize} length of cut, with coolant.`}
         />
         {check ? (
           <>
@@ -100,10 +101,10 @@ export function BandSpeedCalculator({ system, saws = [] }: { system: UnitSystem;
         <>
           {body}
           <SourceNote>
-            Bi-metal band speeds by material group — from memory, not from a named handbook table: typical speeds for
-            solid stock of about {stockSize} cut with coolant. Larger sections, harder tempers and work-hardening grades
-            sit at the low end or below it; small sections and free-machining grades at the high end. 1 ft = 0.3048 m
-            exactly (NIST SP 811).
+            {recommended ? `${describeBasis(recommended.basis)}. ` : ''}
+            The range is for a bi-metal blade, a {stockSize} length of cut, with coolant. Machinery&apos;s Handbook
+            (31st ed., p. 1245) raises it up to 15 % for shorter cuts, lowers it 12 % for 8 in, halves it for
+            carbon-steel blades and lowers it 30–50 % for cutting dry. 1 ft = 0.3048 m exactly (NIST SP 811).
           </SourceNote>
         </>
       }

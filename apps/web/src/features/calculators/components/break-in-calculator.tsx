@@ -148,9 +148,8 @@ export function BreakInCalculator({ system }: { system: UnitSystem }) {
         <>
           {body}
           <SourceNote>
-            Break-in steps: {BREAK_IN_BASIS}. Full normal band speed; feed at about one third of normal for about ten
-            minutes (or the first {firstArea} of cut), then 50 % and 75 % before normal feed. Every number is a setting
-            a site may change.
+            Break-in steps: {BREAK_IN_BASIS}. They start at full normal band speed; feed at about one third of normal
+            for about ten minutes (or the first {firstArea} of cut), then 50 % and 75 % before normal feed.
           </SourceNote>
         </>
       }

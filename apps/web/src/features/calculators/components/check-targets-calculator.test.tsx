@@ -35,12 +35,12 @@ describe('CheckTargetsCalculator', () => {
   it('gives the guide opening for a 0.035 in band and fails a loose reading', async () => {
     const { user } = renderCalculator('imperial');
     await user.type(field(/Band thickness/), '0.035');
-    // Common practice, no source: band thickness + 0.001 in = 0.036 in, passing within ±0.001 in.
+    // Common practice, no source: band thickness + 0.001 in = 0.036 in; up to 0.001 in more open passes.
     const target = guideClearanceTarget({ kind: 'guide_clearance', bandThicknessMm: 0.889 });
     expect(lengthToDisplay(target.target!, 'imperial', { decimals: 4 }).text).toBe('0.0360 in');
     const guide = check('Guide bearing clearance');
     expect(guide).toHaveTextContent('Target0.0360 in');
-    expect(guide).toHaveTextContent('Passes0.0350–0.0370 in');
+    expect(guide).toHaveTextContent('Passes0.0360–0.0370 in');
     expect(within(guide).getByText('Not measured')).toHaveAttribute('data-shape', 'dash');
 
     await user.type(field(/Measured opening/), '0.040');
@@ -50,12 +50,20 @@ describe('CheckTargetsCalculator', () => {
     await user.type(field(/Measured opening/), '0.0365');
     expect(within(guide).getByText('Pass')).toHaveAttribute('data-shape', 'circle');
     expect(within(guide).queryByText('Fail')).not.toBeInTheDocument();
+    // As tight as the band itself pinches it: a fail.
+    await user.clear(field(/Measured opening/));
+    await user.type(field(/Measured opening/), '0.035');
+    expect(within(guide).getByText('Fail')).toHaveAttribute('data-shape', 'square');
+    expect(guide).toHaveTextContent('too tight');
+    // The explanation reads inches first on an imperial site.
+    expect(guide).toHaveTextContent('0.036 in (0.914 mm)');
   });
 
   it('has head force and bearing targets before any band is entered', () => {
     renderCalculator('metric');
-    // 8 lbf × 4.448 N/lbf (NIST SP 811, B.8) = 35.6 N (common practice for one class of saw, no source).
-    expect(check('Feed / head pressure')).toHaveTextContent('TargetAt most 35.6 N');
+    // 8 lbf × 4.448 N/lbf (NIST SP 811, B.8) = 35.6 N (common practice, no source); 2 lbf = 8.9 N (ours).
+    expect(check('Head down-force')).toHaveTextContent('TargetAt most 35.6 N');
+    expect(check('Head down-force')).toHaveTextContent('Passes8.9–35.6 N');
     expect(check('Guide bearing clearance')).toHaveTextContent('Enter the band thickness above for this target.');
   });
 

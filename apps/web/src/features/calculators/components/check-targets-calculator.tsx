@@ -1,5 +1,6 @@
 import { useId } from 'react';
 import type { CheckResult } from '@kerfline/domain/checks/check-targets';
+import { describeBasis } from '@kerfline/domain/figures/basis';
 import { CHECK_DEFAULTS, type CheckKindId } from '@kerfline/domain/checks/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { CalculatorLayout } from './calculator-layout';
@@ -16,7 +17,6 @@ import {
   type CheckTargetsKey,
 } from './check-targets-values';
 import { useEntries, type EntriesForm, type FieldErrors } from './use-entries';
-import { capitalise } from './words';
 
 /** Lengths in checks are feeler-gauge small: four decimals of an inch, three of a millimetre. */
 const CHECK_DECIMALS: Partial<Record<Quantity, Record<UnitSystem, number>>> = {
@@ -43,7 +43,9 @@ function targetLines(result: CheckResult, system: UnitSystem): { target: string;
     return { target: 'Reaches the gullets, not worn', passes: 'Reaches: yes · Worn: no' };
   }
   const max = checkFigure(result, result.max, system).text;
-  if (result.kind === 'feed_pressure') return { target: `At most ${max}`, passes: `Up to ${max}` };
+  if (result.kind === 'feed_pressure') {
+    return { target: `At most ${max}`, passes: checkRange(result, result.min ?? 0, result.max, system).text };
+  }
   if (result.kind === 'bearing_wear') return { target: 'Flush: no gap', passes: `A gap up to ${max}` };
   return {
     target: checkFigure(result, result.target, system).text,
@@ -72,7 +74,7 @@ const READINGS: Partial<
     key: 'forceMeasured',
     label: 'Spring-balance reading',
     quantity: 'force',
-    hint: 'Under the head, over the last inch (25.4 mm) of travel.',
+    hint: 'Hooked on the head directly above the band, read over the last inch (25.4 mm) of travel.',
   },
   bearing_wear: { key: 'wearMeasured', label: 'Gap under the straightedge', quantity: 'length' },
 };
@@ -144,10 +146,12 @@ function CheckItem({
       {result ? (
         <>
           <p className="text-sm text-ink">{result.explanation}</p>
-          <p className="text-xs text-ink-muted">
-            <span className="font-bold">Source: </span>
-            {capitalise(result.basis)}.
-          </p>
+          {result.basis ? (
+            <p className="text-xs text-ink-muted">
+              <span className="font-bold">Source: </span>
+              {describeBasis(result.basis)}.
+            </p>
+          ) : null}
         </>
       ) : null}
     </article>

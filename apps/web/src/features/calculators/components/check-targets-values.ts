@@ -138,7 +138,7 @@ export function evaluateCheckTargets(
           { bandThicknessMm: 'thickness', measuredMm: 'guideMeasured' },
           errors,
           system,
-          guideClearanceTarget,
+          (input) => guideClearanceTarget(input, { system }),
         );
   const tracking =
     widthMm === undefined
@@ -149,18 +149,19 @@ export function evaluateCheckTargets(
           { bandWidthMm: 'width', measuredOverhangMm: 'trackingMeasured' },
           errors,
           system,
-          trackingTarget,
+          (input) => trackingTarget(input, { system }),
         );
   const feed =
     maxForceReading.kind === 'invalid'
       ? null
       : runCheck(
           feedPressureInputSchema,
-          { kind: 'feed_pressure', maxHeadForceN: maxForceN, measuredN: measured.force },
+          // The calculator has no saw attribute for the feed yet: it shows the spring-balance check.
+          { kind: 'feed_pressure', headFeed: 'gravity_spring', maxHeadForceN: maxForceN, measuredN: measured.force },
           { maxHeadForceN: 'maxForce', measuredN: 'forceMeasured' },
           errors,
           system,
-          feedPressureTarget,
+          (input) => feedPressureTarget(input, { system }),
         );
   const wear = runCheck(
     bearingWearInputSchema,
@@ -168,7 +169,7 @@ export function evaluateCheckTargets(
     { measuredGapMm: 'wearMeasured' },
     errors,
     system,
-    bearingWearTarget,
+    (input) => bearingWearTarget(input, { system }),
   );
   const tension = runCheck(
     bandTensionInputSchema,
@@ -180,7 +181,7 @@ export function evaluateCheckTargets(
     { bladeMaterial: 'material', measuredMPa: 'tensionMeasured' },
     errors,
     system,
-    bandTensionTarget,
+    (input) => bandTensionTarget(input, { system }),
   );
   const brush = runCheck(
     chipBrushInputSchema,

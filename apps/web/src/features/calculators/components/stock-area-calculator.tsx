@@ -1,3 +1,4 @@
+import { describeBasis } from '@kerfline/domain/figures/basis';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { STOCK_SHAPE_LABELS, type StockShapeKind } from '@kerfline/domain/stock-area/schema';
 import { formatNumber } from '../../../lib/format';
@@ -82,9 +83,8 @@ export function StockAreaCalculator({ system }: { system: UnitSystem }) {
         <>
           {body}
           <SourceNote>
-            {STOCK_SHAPE_LABELS[kind]}: area = {SHAPE_AREA_FORMULAS[kind]}. Corners are taken sharp and root fillets
-            left out: on rolled shapes the fillets add a little metal (about 1–2 % on a wide-flange beam) and rounded
-            tube corners take a little away, both small next to the spread of blade life.
+            {STOCK_SHAPE_LABELS[kind]}: area = {SHAPE_AREA_FORMULAS[kind]}. {result ? result.how.note : ''}
+            {result?.how.basis ? ` ${describeBasis(result.how.basis)}.` : ''}
           </SourceNote>
         </>
       }

@@ -1,5 +1,5 @@
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
-import { bundleCutAreaMm2, cutFaceAreaMm2 } from '@kerfline/domain/stock-area/cut-area';
+import { bundleCutAreaMm2, cutFaceArea, type CutFaceArea } from '@kerfline/domain/stock-area/cut-area';
 import { stockCutSchema, type StockShape } from '@kerfline/domain/stock-area/schema';
 import { readNumber, type Entry } from './quantities';
 import { compute, hasErrors, placeIssues, take } from './readings';
@@ -15,6 +15,8 @@ export interface StockAreaResult {
   pieceAreaMm2: number;
   /** All the pieces cut in one pass, mm². */
   bundleAreaMm2: number;
+  /** How the area was taken (a standard section's printed area, AISC's HSS rule, or the geometry) and its source. */
+  how: Pick<CutFaceArea, 'basis' | 'designation' | 'note'>;
 }
 
 export interface StockAreaEvaluation {
@@ -46,10 +48,14 @@ export function evaluateStockArea(entries: Record<StockAreaKey, Entry>, system: 
   if (!parsed.success || hasErrors(errors)) return { errors, formError: null, result: null };
 
   const cut = parsed.data;
-  const worked = compute(() => ({
-    pieceAreaMm2: cutFaceAreaMm2(cut.shape),
-    bundleAreaMm2: bundleCutAreaMm2(cut.shape, cut.pieceCount),
-  }));
+  const worked = compute(() => {
+    const piece = cutFaceArea(cut.shape);
+    return {
+      pieceAreaMm2: piece.areaMm2,
+      bundleAreaMm2: bundleCutAreaMm2(cut.shape, cut.pieceCount),
+      how: { basis: piece.basis, designation: piece.designation, note: piece.note },
+    };
+  });
   if (!worked.ok) return { errors, formError: worked.message, result: null };
   return { errors, formError: null, result: { shape: cut.shape, pieceCount: cut.pieceCount, ...worked.value } };
 }

@@ -78,18 +78,19 @@ export const SHAPE_ORIENTATION: Partial<Record<StockShapeKind, string>> = {
 };
 
 /**
- * The area formula of each shape as the domain's cut-area functions state it; corners sharp, fillets left out.
+ * The area formula of each shape as the domain's cut-area functions state it (t: the design wall of a tube, r: the
+ * root radius of a beam or channel).
  */
 export const SHAPE_AREA_FORMULAS: Record<StockShapeKind, string> = {
   round_bar: 'π·D²/4',
   square_bar: 'side²',
   flat_bar: 'width × height',
   round_tube: 'π·wall·(OD − wall)',
-  square_tube: '4t(side − t)',
-  rect_tube: '2t(W + H − 2t)',
+  square_tube: '4t·side − (16 − 3π)t², t = 0.93 × nominal wall',
+  rect_tube: '2t(W + H) − (16 − 3π)t², t = 0.93 × nominal wall',
   angle: 't(A + B − t)',
-  channel: '2·b·tf + (d − 2tf)·tw',
-  beam: '2·b·tf + (d − 2tf)·tw',
+  channel: '2·b·tf + (d − 2tf)·tw + 2(1 − π/4)r²',
+  beam: '2·b·tf + (d − 2tf)·tw + 4(1 − π/4)r²',
 };
 
 export const SHAPE_OPTIONS = STOCK_SHAPE_KINDS.map((kind) => ({ value: kind, label: STOCK_SHAPE_LABELS[kind] }));

@@ -29,8 +29,9 @@ describe('TeethInWorkCalculator', () => {
     expect(teeth.min).toBeCloseTo(7.7303, 4);
     const low = formatNumber(teeth.min, 1);
     const high = formatNumber(teeth.max, 1);
+    // Each figure is named for what it is: the mean over the cut and the chord at the centre line.
     expect(result()).toHaveTextContent(
-      `4/6 TPI puts ${low} to ${high} teeth in this 50 mm round bar — in the 6–12 sweet spot.`,
+      `4/6 TPI puts ${low} to ${high} teeth in this 50 mm round bar (${low} mean over the cut, ${high} at the centre line) — in the 6–12 sweet spot.`,
     );
     expect(result()).toHaveTextContent('Best: 6–12 teeth');
     // 39.27–50 mm of metal under the band.

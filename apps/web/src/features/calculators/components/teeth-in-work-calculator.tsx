@@ -26,6 +26,7 @@ import {
   type TeethKey,
 } from './teeth-in-work-values';
 import { useEntries } from './use-entries';
+import { capitalise } from './words';
 
 const { fewest, most, bestFewest, bestMost } = TEETH_IN_WORK_RULE;
 
@@ -127,7 +128,11 @@ export function TeethInWorkCalculator({ system }: { system: UnitSystem }) {
             <Explanation>
               {chosen.label} TPI puts {teethText(chosen.range.min, chosen.range.max, ' to ')} teeth in this{' '}
               {describeShape(shape, system)}
-              {pieces} — {FIT[chosen.fit].phrase}.
+              {pieces}
+              {chosen.range.minLabel === 'least'
+                ? ''
+                : ` (${formatNumber(chosen.range.min, 1)} ${chosen.range.minLabel}, ${formatNumber(chosen.range.max, 1)} ${chosen.range.maxLabel})`}{' '}
+              — {FIT[chosen.fit].phrase}.
             </Explanation>
             <Warnings chosen={chosen} />
           </>
@@ -141,7 +146,11 @@ export function TeethInWorkCalculator({ system }: { system: UnitSystem }) {
           label="Metal under the band"
           value={metal.number}
           unit={metal.unit}
-          detail={`Least to greatest during the cut: ${engaged.basis}.`}
+          detail={
+            engaged.minLabel === 'least'
+              ? `Least to greatest during the cut: ${engaged.basis}.`
+              : `${capitalise(engaged.basis)}.`
+          }
         />
         <section aria-label="Pitches that suit this stock">
           <h3 className="text-base font-bold text-ink">Pitches that suit this stock</h3>
@@ -176,10 +185,11 @@ export function TeethInWorkCalculator({ system }: { system: UnitSystem }) {
           </ol>
         </section>
         <SourceNote>
-          Trade rule: at least {fewest} and at most {most} teeth in the work, {bestFewest} to {bestMost} best — common
-          practice, no source. Teeth = TPI × inches of metal under the band; a variable pitch counts by the mean of its
-          two ends (4/6 → 5 TPI). The pitches ranked are those commonly stocked for production band sawing — common
-          practice, no source.
+          {evaluation.advice?.note}{' '}
+          {evaluation.advice?.basis?.kind === 'published' ? `${evaluation.advice.basis.citation}. ` : ''}
+          Guards: fewer than {fewest} teeth in the work strip teeth, more than {most} overload the gullets; {bestFewest}{' '}
+          to {bestMost} is the trade&apos;s usual preference, shown but never put above the printed table. Teeth = TPI ×
+          inches of metal under the band; a variable pitch counts by the mean of its two ends (4/6 → 5 TPI).
         </SourceNote>
       </>
     );

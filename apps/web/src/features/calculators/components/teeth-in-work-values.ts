@@ -2,7 +2,7 @@ import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import type { StockShape } from '@kerfline/domain/stock-area/schema';
 import { engagedLengthMm, type EngagedLength } from '@kerfline/domain/teeth-in-work/engaged-length';
 import { parsePitchLabel, pitchLabel, STANDARD_PITCHES } from '@kerfline/domain/teeth-in-work/pitch';
-import { recommendPitches, type PitchCandidate } from '@kerfline/domain/teeth-in-work/recommend-pitches';
+import { pitchAdvice, type PitchAdvice, type PitchCandidate } from '@kerfline/domain/teeth-in-work/recommend-pitches';
 import { pitchAdviceInputSchema, pitchSchema, type Pitch } from '@kerfline/domain/teeth-in-work/schema';
 import {
   judgeTeethInWork,
@@ -53,8 +53,10 @@ export interface TeethEvaluation {
   engaged: EngagedLength | null;
   /** The chosen pitch's teeth in the work; null until a pitch is chosen and the stock is valid. */
   chosen: ChosenPitchResult | null;
-  /** The standard pitches ranked for this stock, best first. */
+  /** The standard pitches ranked for this stock, the recommended one first. */
   recommendations: PitchCandidate[];
+  /** Where the recommendation comes from (the printed table for solids, the teeth-in-work rule otherwise). */
+  advice: Pick<PitchAdvice, 'source' | 'basis' | 'note'> | null;
 }
 
 function readPitch(entries: Record<TeethKey, Entry>, errors: FieldErrors<TeethKey>): Pitch | null {
@@ -95,6 +97,7 @@ export function evaluateTeethInWork(entries: Record<TeethKey, Entry>, system: Un
     engaged: null,
     chosen: null,
     recommendations: [],
+    advice: null,
   };
   if (!isShapeKind(kind)) return { ...empty, errors: { shape: 'Choose a stock shape' } };
 
@@ -124,9 +127,11 @@ export function evaluateTeethInWork(entries: Record<TeethKey, Entry>, system: Un
   const pieces = parsed.data.piecesAcross;
   const worked = compute(() => {
     const range = pitch ? teethInWorkForStock(stock, pitch, pieces) : null;
+    const advice = pitchAdvice(stock, { piecesAcross: pieces });
     return {
       engaged: engagedLengthMm(stock, pieces),
-      recommendations: recommendPitches(stock, { piecesAcross: pieces }),
+      recommendations: advice.candidates,
+      advice: { source: advice.source, basis: advice.basis, note: advice.note },
       chosen: pitch && range ? { pitch, label: pitchLabel(pitch), range, ...judgeTeethInWork(range) } : null,
     };
   });

@@ -52,7 +52,7 @@ export function SawFiguresPanel({ saw, unitSystem }: { saw: Saw; unitSystem: Uni
         <Row
           label="Bending stress on the wheels"
           value={stressToDisplay(figures.bendingStressPa, unitSystem).text}
-          note="E·t/D with E = 207 GPa for the band's steel: the stress each wheel puts in the band, on top of its tension."
+          note="E·t/D with E = 207 GPa for carbon steel (a published strength-of-materials figure): the stress each wheel puts in the band, on top of its tension."
         />
         <Row
           label="Bends per hour at top speed"
@@ -62,12 +62,12 @@ export function SawFiguresPanel({ saw, unitSystem }: { saw: Saw; unitSystem: Uni
         <Row
           label="Guide opening"
           value={length(figures.guideClearance.targetMm)}
-          note={`Band thickness plus 0.001 in (common practice); ${length(figures.guideClearance.minMm)} to ${length(figures.guideClearance.maxMm)} passes.`}
+          note={`Band thickness plus your site's guide-opening setting; ${length(figures.guideClearance.minMm)} to ${length(figures.guideClearance.maxMm)} passes, anything tighter pinches the band.`}
         />
         <Row
           label="Tracking overhang"
           value={length(figures.trackingOverhangMm)}
-          note="Tooth edge past the wheel face with the band's back flush to the wheel's back edge (common practice)."
+          note="Tooth edge past the wheel face with the band's back flush to the wheel's back edge (your site's tracking setting)."
         />
       </dl>
     </Card>
