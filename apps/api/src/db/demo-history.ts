@@ -624,6 +624,7 @@ function makeCutLogs(
         bandSpeedMinMPerMin: saw.band_speed_min_m_per_min,
         bandSpeedMaxMPerMin: saw.band_speed_max_m_per_min,
       },
+      bladeMaterial: classOf(saw) === 'vertical' ? 'carbon' : 'bimetal',
       unitSystem: saw.unit_system,
     });
     const quantity = Math.max(1, Math.min(10_000, Math.round(areaMm2 / n / figures.areaPerCutMm2)));

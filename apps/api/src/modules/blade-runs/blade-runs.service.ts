@@ -24,6 +24,8 @@ import { AppError } from '../../errors.js';
 import { writeAudit, type Actor, type AuditRecord } from '../../audit/write-audit.js';
 import { inTransaction } from '../../db/models.js';
 import { Saw } from '../saws/saw.model.js';
+import { Site } from '../sites/site.model.js';
+import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { BladeSpec } from '../blade-specs/blade-spec.model.js';
 import { Photo } from '../photos/photo.model.js';
 import {
@@ -154,6 +156,12 @@ async function usualCuttingRate(sawId: string, materialGroup: MaterialGroup | nu
   return row?.rate ?? null;
 }
 
+/** The saw's site's unit system, for the wording of speeds in the break-in plan. */
+async function unitSystemOf(saw: Saw): Promise<UnitSystem> {
+  const site = await Site.findByPk(saw.siteId, { attributes: ['unitSystem'] });
+  return (site?.unitSystem ?? 'metric') as UnitSystem;
+}
+
 async function readableSaw(ability: AppAbility, sawId: string): Promise<Saw> {
   const saw = await Saw.findOne({ where: scopedWhere(ability, 'read', 'Saw', Saw, { id: sawId }) });
   if (!saw) throw AppError.notFound('Saw');
@@ -175,7 +183,13 @@ export async function getBreakInAdvice(
       { path: 'bladeSpecId', message: 'choose a blade spec' },
     ]);
   const materialGroup = q.materialGroup ?? null;
-  return breakInAdvice(saw, spec, materialGroup, await usualCuttingRate(saw.id, materialGroup));
+  return breakInAdvice(
+    saw,
+    spec,
+    materialGroup,
+    await usualCuttingRate(saw.id, materialGroup),
+    await unitSystemOf(saw),
+  );
 }
 
 /** The run whose time range collides with [from, to) on this saw, named for a 409. */
@@ -294,7 +308,13 @@ export async function installBladeRun(
     throw await runConflict(err, saw.id, null, installedAt, null, saw.siteId);
   });
 
-  const advice = breakInAdvice(saw, spec, input.materialGroup, await usualCuttingRate(saw.id, input.materialGroup));
+  const advice = breakInAdvice(
+    saw,
+    spec,
+    input.materialGroup,
+    await usualCuttingRate(saw.id, input.materialGroup),
+    await unitSystemOf(saw),
+  );
   return { run: await getBladeRun(ability, run.id), breakIn: advice, warnings: [...advice.warnings, ...warnings] };
 }
 

@@ -62,6 +62,16 @@ describe('putting a blade on', () => {
     expect(res.body.breakIn.normalCuttingRateMm2PerMin).toBeNull();
     // Stainless: 20–40 m/min recommended (from memory, see band-speed); the fixture saw runs 18–110 m/min.
     expect(res.body.breakIn.bandSpeed.reachableMPerMin).toEqual({ minMPerMin: 20, maxMPerMin: 40 });
+    expect(res.body.breakIn.plan.bandSpeed).toMatchObject({ materialGroup: 'stainless_steel', breakInMaxMPerMin: 40 });
+    // A carbon steel band runs at half the bi-metal speed (Machinery's Handbook, 31st ed., p. 1245): 10–20 m/min.
+    const carbon = (
+      await (await as('admin@test.example')).post('/api/blade-specs').send(specBody(null, { material: 'carbon' }))
+    ).body.id;
+    const slow = await tech.get(
+      `/api/saws/${saw.id}/break-in-plan?bladeSpecId=${carbon}&materialGroup=stainless_steel`,
+    );
+    expect(slow.body.bandSpeed.recommended).toMatchObject({ minMPerMin: 10, maxMPerMin: 20 });
+    expect(slow.body.bandSpeed.reachableMPerMin).toEqual({ minMPerMin: 18, maxMPerMin: 20 });
     expect(res.body.warnings.map((w: { code: string }) => w.code)).toEqual(['not_from_stock']);
 
     const saw1 = (await tech.get(`/api/saws/${saw.id}`)).body;

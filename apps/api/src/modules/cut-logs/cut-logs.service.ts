@@ -4,6 +4,7 @@ import type { AppAbility } from '@kerfline/domain/authz/ability';
 import type { Page } from '@kerfline/domain/common/schema';
 import type { CutLog as CutLogDto, CutLogCreateParsed, CutLogListQuery } from '@kerfline/domain/cut-logs/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
+import type { BladeMaterial } from '@kerfline/domain/checks/schema';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
 import { writeAudit, type Actor } from '../../audit/write-audit.js';
@@ -75,8 +76,8 @@ export async function getCutLog(ability: AppAbility, id: string): Promise<CutLog
 export async function createCutLog({ ability, userId }: Actor, input: CutLogCreateParsed): Promise<CutLogDto> {
   const saw = await sawForWrite(ability, input.sawId, 'create', 'CutLog', { path: 'sawId' });
   const cutAt = input.cutAt ?? new Date();
-  const [run] = await select<{ id: string; coarse_tpi: number; fine_tpi: number | null }>(
-    `SELECT r.id, b.coarse_tpi, b.fine_tpi FROM blade_runs r JOIN blade_specs b ON b.id = r.blade_spec_id
+  const [run] = await select<{ id: string; coarse_tpi: number; fine_tpi: number | null; material: BladeMaterial }>(
+    `SELECT r.id, b.coarse_tpi, b.fine_tpi, b.material FROM blade_runs r JOIN blade_specs b ON b.id = r.blade_spec_id
       WHERE r.saw_id = :sawId AND tstzrange(r.installed_at, r.removed_at, '[)') @> :cutAt::timestamptz
       LIMIT 1`,
     { sawId: saw.id, cutAt },
@@ -90,6 +91,7 @@ export async function createCutLog({ ability, userId }: Actor, input: CutLogCrea
     materialGroup: input.materialGroup,
     bandSpeedMPerMin: input.bandSpeedMPerMin,
     pitch: run ? pitchOf({ coarseTpi: run.coarse_tpi, fineTpi: run.fine_tpi }) : null,
+    bladeMaterial: run?.material ?? null,
     saw,
     unitSystem: (site?.unitSystem ?? 'metric') as UnitSystem,
   });

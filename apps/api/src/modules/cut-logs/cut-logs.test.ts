@@ -59,8 +59,10 @@ describe('logging cuts', () => {
 
   it('warns, without refusing, when the band speed is outside the material’s range or the saw’s', async () => {
     const tech = await as('tech-a@test.example');
-    // Stainless steel 20–40 m/min (bi-metal, from memory): 90 m/min is above; 50 mm square bar with 4 TPI
-    // gives 4 × 50 / 25.4 = 7.9 teeth, fine.
+    // Stainless steel 20–40 m/min at the 4 in reference length of cut (the shipped site setting), raised for the
+    // 50 mm (1.97 in) length of cut by the printed change, interpolated between +10 % at 1.25 in and 0 at 4 in
+    // (Machinery's Handbook, 31st ed., p. 1245): +7.39 % → 21.5–43.0 m/min. 90 m/min is above. The 50 mm square
+    // bar with 4 TPI gives 4 × 50 / 25.4 = 7.9 teeth, fine.
     const fast = await log(tech, {
       materialGroup: 'stainless_steel',
       stock: { shape: { kind: 'square_bar', sideMm: 50 } },
@@ -70,7 +72,7 @@ describe('logging cuts', () => {
     expect(fast.body.warnings).toEqual([
       {
         code: 'band_speed_above',
-        message: '90 m/min is above the 20–40 m/min range for stainless steel; lower it to at most 40 m/min.',
+        message: '90 m/min is above the 21–43 m/min range for stainless steel; lower it to at most 43 m/min.',
       },
     ]);
   });

@@ -14,6 +14,8 @@ import {
   TEETH_IN_WORK_RULE,
 } from '@kerfline/domain/teeth-in-work/teeth-in-work';
 import type { Pitch } from '@kerfline/domain/teeth-in-work/schema';
+import { engagedLengthMm } from '@kerfline/domain/teeth-in-work/engaged-length';
+import type { BladeMaterial } from '@kerfline/domain/checks/schema';
 import { checkBandSpeed } from '@kerfline/domain/band-speed/check-band-speed';
 import { recommendedBandSpeed } from '@kerfline/domain/band-speed/speed-ranges';
 import type { MaterialGroup } from '@kerfline/domain/band-speed/schema';
@@ -29,7 +31,22 @@ type SawBand = {
   bandSpeedMinMPerMin: number;
   bandSpeedMaxMPerMin: number;
 };
-type SpecBand = { id: string; name: string; widthMm: number; thicknessMm: number; lengthMm: number };
+type SpecBand = {
+  id: string;
+  name: string;
+  widthMm: number;
+  thicknessMm: number;
+  lengthMm: number;
+  material: BladeMaterial;
+};
+
+/**
+ * The blade material as the band speed corrections know it: the printed table covers bi-metal and carbon steel
+ * blades; carbide-tipped bands are read against the bi-metal range (no printed correction for them).
+ */
+function speedBlade(material: BladeMaterial | null | undefined): 'bimetal' | 'carbon' | undefined {
+  return material === 'carbon' ? 'carbon' : material === 'bimetal' ? 'bimetal' : undefined;
+}
 
 /**
  * Where a spec does not match the band the saw takes. Our tolerances, not a standard: 1 % on length (a band
@@ -58,30 +75,32 @@ export function specFitWarnings(saw: SawBand, spec: SpecBand): RecordWarning[] {
 }
 
 /**
- * The break-in plan for a saw, band and material: Kerfline's default plan (common practice; a site setting
- * later), with step areas from this saw's usual cutting rate for the material when its cut logs give one.
+ * The break-in plan for a saw, band and material: Kerfline's default steps, the material's band speeds for this
+ * blade (the domain's range, corrected for a carbon blade), and step areas from this saw's usual cutting rate for
+ * the material when its cut logs give one.
  */
 export function breakInAdvice(
   saw: SawBand,
   spec: SpecBand,
   materialGroup: MaterialGroup | null,
   normalCuttingRateMm2PerMin: number | null,
+  system: UnitSystem = 'metric',
 ): BreakInAdvice {
   const rate =
     normalCuttingRateMm2PerMin !== null && normalCuttingRateMm2PerMin > 0 ? normalCuttingRateMm2PerMin : null;
+  const bladeMaterial = speedBlade(spec.material);
   let bandSpeed: BreakInAdvice['bandSpeed'] = null;
   if (materialGroup) {
-    const check = checkBandSpeed(materialGroup, recommendedBandSpeed(materialGroup).minMPerMin, {
-      minMPerMin: saw.bandSpeedMinMPerMin,
-      maxMPerMin: saw.bandSpeedMaxMPerMin,
-    });
-    bandSpeed = { recommended: check.recommended, reachableMPerMin: check.reachableMPerMin };
+    const recommended = recommendedBandSpeed(materialGroup, { bladeMaterial });
+    const low = Math.max(recommended.minMPerMin, saw.bandSpeedMinMPerMin);
+    const high = Math.min(recommended.maxMPerMin, saw.bandSpeedMaxMPerMin);
+    bandSpeed = { recommended, reachableMPerMin: low <= high ? { minMPerMin: low, maxMPerMin: high } : null };
   }
   return {
     sawId: saw.id,
     bladeSpecId: spec.id,
     materialGroup,
-    plan: planBreakIn({ mode: 'time' }, rate),
+    plan: planBreakIn({ mode: 'time' }, rate, materialGroup ? { materialGroup, bladeMaterial, system } : { system }),
     normalCuttingRateMm2PerMin: rate,
     cuttingRateBasis:
       rate === null
@@ -101,6 +120,8 @@ export function cutLogFigures(input: {
   materialGroup: MaterialGroup;
   bandSpeedMPerMin: number | null;
   pitch: Pitch | null;
+  /** The blade's material, for the band speed range (a carbon blade runs slower); bi-metal when unknown. */
+  bladeMaterial?: BladeMaterial | null;
   saw: SawBand;
   unitSystem: UnitSystem;
 }): {
@@ -130,7 +151,12 @@ export function cutLogFigures(input: {
       input.materialGroup,
       input.bandSpeedMPerMin,
       { minMPerMin: input.saw.bandSpeedMinMPerMin, maxMPerMin: input.saw.bandSpeedMaxMPerMin },
-      { system: input.unitSystem },
+      // The printed table's speeds depend on the length of cut: the most metal the band crosses in this cut.
+      {
+        system: input.unitSystem,
+        bladeMaterial: speedBlade(input.bladeMaterial),
+        lengthOfCutMm: engagedLengthMm(input.shape, input.piecesAcross).maxMm,
+      },
     );
     if (check.position !== 'within')
       warnings.push({ code: `band_speed_${check.position}`, message: check.explanation });
