@@ -27,6 +27,13 @@ import { siteSettingsRouter } from './modules/site-settings/site-settings.router
 import { invitationsRouter } from './modules/invitations/invitations.router.js';
 import { mailRouter } from './modules/mail/mail.router.js';
 import { QUEUES, type Jobs } from './jobs/jobs.js';
+import { bladeSpecsRouter } from './modules/blade-specs/blade-specs.router.js';
+import { bladeStockRouter } from './modules/blade-stock/blade-stock.router.js';
+import { bladeRunsRouter } from './modules/blade-runs/blade-runs.router.js';
+import { stopsRouter } from './modules/stops/stops.router.js';
+import { cutLogsRouter } from './modules/cut-logs/cut-logs.router.js';
+import { photosRouter } from './modules/photos/photos.router.js';
+import { DatabasePhotoStorage, type PhotoStorage } from './modules/photos/photo-storage.js';
 
 export type AppDeps = {
   sequelize: Sequelize;
@@ -43,6 +50,8 @@ export type AppDeps = {
   jobs: Jobs;
   /** Folder of the local mail catcher (development and tests); set, admins get the outbox page. */
   mailCatcherDir?: string | undefined;
+  /** Where photo bytes live; PostgreSQL (shared by every process) unless another store is given. */
+  photoStorage?: PhotoStorage;
 };
 
 export const SESSION_COOKIE = 'kerfline.sid';
@@ -151,6 +160,12 @@ export function createApp(deps: AppDeps): Express {
         deps.jobs.fire(schedule === 'weekly-digest' ? QUEUES.weeklyDigest : QUEUES.monthlySummary),
     }),
   );
+  api.use(bladeSpecsRouter());
+  api.use(bladeStockRouter());
+  api.use(bladeRunsRouter());
+  api.use(stopsRouter());
+  api.use(cutLogsRouter());
+  api.use(photosRouter(deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize)));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -4,7 +4,7 @@ import { createMongoAbility, subject } from '@casl/ability';
 import type { Model, ModelStatic } from 'sequelize';
 import { ACTIONS, type AppAbility, type AppRawRule, type SubjectName } from '@kerfline/domain/authz/ability';
 import { startTestApp, type TestContext } from '../test-support/test-db.js';
-import { buildWorld, type World } from '../test-support/fixtures.js';
+import { buildRecords, buildWorld, type World } from '../test-support/fixtures.js';
 import { loadSignedIn } from '../modules/auth/auth.service.js';
 import { Region } from '../modules/regions/region.model.js';
 import { Site } from '../modules/sites/site.model.js';
@@ -14,6 +14,12 @@ import { AuditEntry } from '../modules/audit/audit-entry.model.js';
 import { SiteSetting } from '../modules/site-settings/site-setting.model.js';
 import { Invitation } from '../modules/invitations/invitation.model.js';
 import { MailLog } from '../modules/mail/mail-log.model.js';
+import { BladeSpec } from '../modules/blade-specs/blade-spec.model.js';
+import { StockLevel, StockReceipt } from '../modules/blade-stock/stock-receipt.model.js';
+import { BladeRun } from '../modules/blade-runs/blade-run.model.js';
+import { Stop } from '../modules/stops/stop.model.js';
+import { CutLog } from '../modules/cut-logs/cut-log.model.js';
+import { Photo } from '../modules/photos/photo.model.js';
 import { scopeWhere } from './sequelize-scope.js';
 
 let ctx: TestContext;
@@ -74,6 +80,8 @@ beforeAll(async () => {
       dedupeKey: `parity:${n}`,
     })),
   );
+  // Records of sites A and C, a fleet-wide blade spec (site NULL) and one of site A's own.
+  await buildRecords(world);
 });
 afterAll(async () => ctx.close());
 
@@ -86,6 +94,13 @@ const MODELS: Record<SubjectName, ModelStatic<Model>> = {
   SiteSetting,
   Invitation,
   MailLog,
+  BladeSpec,
+  StockReceipt,
+  StockLevel,
+  BladeRun,
+  Stop,
+  CutLog,
+  Photo,
 };
 
 /** For every row: does the scoped query return it exactly when `ability.can` says yes? */

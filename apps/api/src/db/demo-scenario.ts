@@ -10,6 +10,7 @@ import { User, UserSite } from '../modules/users/user.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
 import { SiteSetting } from '../modules/site-settings/site-setting.model.js';
 import { AuditEntry } from '../modules/audit/audit-entry.model.js';
+import { loadDemoHistory } from './demo-history.js';
 
 /*
  * The demo scenario: Corvane Metals, an invented bar, tube and structural distributor with five cutting
@@ -362,7 +363,7 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
             capacityRoundMm: c.roundMm,
             capacityRectWidthMm: c.rect[0],
             capacityRectHeightMm: c.rect[1],
-            status: status ?? 'in_service',
+            status: status === 'retired' ? 'retired' : 'in_service',
             retiredAt: status === 'retired' ? new Date('2025-06-30T12:00:00Z') : null,
           },
           { transaction },
@@ -413,6 +414,8 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
         { transaction },
       );
     }
+
+    await loadDemoHistory(sequelize, transaction);
   });
   return true;
 }

@@ -8,6 +8,12 @@ import { SiteSetting } from '../modules/site-settings/site-setting.model.js';
 import { Invitation } from '../modules/invitations/invitation.model.js';
 import { PasswordReset } from '../modules/auth/password-reset.model.js';
 import { MailLog, MailPreference } from '../modules/mail/mail-log.model.js';
+import { BladeSpec } from '../modules/blade-specs/blade-spec.model.js';
+import { StockLevel, StockReceipt } from '../modules/blade-stock/stock-receipt.model.js';
+import { BladeRun } from '../modules/blade-runs/blade-run.model.js';
+import { Stop } from '../modules/stops/stop.model.js';
+import { CutLog } from '../modules/cut-logs/cut-log.model.js';
+import { Photo } from '../modules/photos/photo.model.js';
 
 /** Binds every model to this Sequelize instance. Model names equal the CASL subject names. */
 export function initModels(sequelize: Sequelize): void {
@@ -23,6 +29,13 @@ export function initModels(sequelize: Sequelize): void {
   PasswordReset.initModel(sequelize);
   MailLog.initModel(sequelize);
   MailPreference.initModel(sequelize);
+  BladeSpec.initModel(sequelize);
+  StockReceipt.initModel(sequelize);
+  StockLevel.initModel(sequelize);
+  BladeRun.initModel(sequelize);
+  Stop.initModel(sequelize);
+  CutLog.initModel(sequelize);
+  Photo.initModel(sequelize);
 }
 
 let bound: Sequelize | undefined;

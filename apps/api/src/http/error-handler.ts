@@ -2,6 +2,7 @@ import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ForbiddenError } from '@casl/ability';
 import { ZodError } from 'zod';
 import {
+  ExclusionConstraintError,
   ForeignKeyConstraintError,
   UniqueConstraintError,
   ValidationError as SequelizeValidationError,
@@ -49,6 +50,12 @@ export function toAppError(err: unknown): { error: AppError; internal: boolean }
     const details: ErrorDetail[] = err.errors.map((e) => ({ path: camel(e.path ?? ''), message: 'already taken' }));
     return {
       error: new AppError('CONFLICT', UNIQUE_MESSAGES[constraint] ?? 'That record already exists', details),
+      internal: false,
+    };
+  }
+  if (err instanceof ExclusionConstraintError) {
+    return {
+      error: new AppError('CONFLICT', 'Those times overlap another record of the same saw; change the times'),
       internal: false,
     };
   }

@@ -1,8 +1,9 @@
-import { Op, fn, col } from 'sequelize';
+import { Op, fn, col, literal, type WhereOptions } from 'sequelize';
+import { STOP_CATEGORY_LABELS, type StopCategory } from '@kerfline/domain/stops/schema';
 import type { SignedIn } from '../modules/auth/auth.service.js';
 import { scopedWhere } from '../authz/sequelize-scope.js';
 import { Site } from '../modules/sites/site.model.js';
-import { Saw } from '../modules/saws/saw.model.js';
+import { HAS_OPEN_STOP_SQL, OPEN_STOP_SQL, Saw } from '../modules/saws/saw.model.js';
 import { appLink, type MailSection } from '../mail/templates.js';
 
 /**
@@ -24,22 +25,32 @@ export type SectionBuilder = { key: string; build: (ctx: SectionContext) => Prom
 
 const SAWS_DOWN_SHOWN = 25;
 
-/** Saws per site that are in service and down; retired saws are history and not counted. */
+/** The recipient's saws at the mail's sites that are not retired, as a scoped where (plus any extra condition). */
+function sawsWhere(ctx: SectionContext, ...extra: WhereOptions[]): WhereOptions {
+  return scopedWhere(ctx.signedIn.ability, 'read', 'Saw', Saw, {
+    [Op.and]: [{ siteId: { [Op.in]: ctx.sites.map((s) => s.id) } }, { status: { [Op.ne]: 'retired' } }, ...extra],
+  });
+}
+
+/** Saws per site that are in service and down (down: an open stop); retired saws are history and not counted. */
 async function sawCountsBySite(ctx: SectionContext): Promise<Map<string, { inService: number; down: number }>> {
-  const rows = (await Saw.findAll({
-    attributes: ['siteId', 'status', [fn('count', col('id')), 'n']],
-    where: scopedWhere(ctx.signedIn.ability, 'read', 'Saw', Saw, {
-      siteId: { [Op.in]: ctx.sites.map((s) => s.id) },
-      status: { [Op.ne]: 'retired' },
-    }),
-    group: ['siteId', 'status'],
-    raw: true,
-  })) as unknown as { siteId: string; status: string; n: number }[];
+  const countBySite = async (where: WhereOptions) =>
+    (await Saw.findAll({
+      attributes: ['siteId', [fn('count', col('id')), 'n']],
+      where,
+      group: ['siteId'],
+      raw: true,
+    })) as unknown as { siteId: string; n: number }[];
+  const [all, down] = await Promise.all([
+    countBySite(sawsWhere(ctx)),
+    countBySite(sawsWhere(ctx, literal(HAS_OPEN_STOP_SQL))),
+  ]);
   const counts = new Map<string, { inService: number; down: number }>();
-  for (const r of rows) {
+  for (const r of all) counts.set(r.siteId, { inService: Number(r.n), down: 0 });
+  for (const r of down) {
     const c = counts.get(r.siteId) ?? { inService: 0, down: 0 };
-    if (r.status === 'down') c.down += Number(r.n);
-    else c.inService += Number(r.n);
+    c.down = Number(r.n);
+    c.inService -= c.down;
     counts.set(r.siteId, c);
   }
   return counts;
@@ -63,16 +74,18 @@ export const sitesSection: SectionBuilder = {
   },
 };
 
-/** The saws marked down right now, the longest unchanged first. */
+/** The saws down right now (an open stop), the longest down first, with why and since when. */
 export const sawsDownSection: SectionBuilder = {
   key: 'saws-down',
   async build(ctx) {
-    const where = scopedWhere(ctx.signedIn.ability, 'read', 'Saw', Saw, {
-      siteId: { [Op.in]: ctx.sites.map((s) => s.id) },
-      status: 'down',
-    });
+    const where = sawsWhere(ctx, literal(HAS_OPEN_STOP_SQL));
     const [saws, total] = await Promise.all([
-      Saw.findAll({ where, order: [['updatedAt', 'ASC']], limit: SAWS_DOWN_SHOWN }),
+      Saw.findAll({
+        attributes: { include: [[literal(OPEN_STOP_SQL), 'down']] },
+        where,
+        order: [[literal(`(${OPEN_STOP_SQL})->>'since'`), 'ASC']],
+        limit: SAWS_DOWN_SHOWN,
+      }),
       Saw.count({ where }),
     ]);
     const siteName = new Map(ctx.sites.map((s) => [s.id, s.name]));
@@ -82,8 +95,17 @@ export const sawsDownSection: SectionBuilder = {
         total > SAWS_DOWN_SHOWN
           ? `${total} saws are down; the ${SAWS_DOWN_SHOWN} that have been down longest are listed.`
           : undefined,
-      columns: ['Saw', 'Name', 'Site', 'Record last changed'],
-      rows: saws.map((s) => [s.assetTag, s.name, siteName.get(s.siteId) ?? '', s.updatedAt.toISOString().slice(0, 10)]),
+      columns: ['Saw', 'Name', 'Site', 'Why', 'Down since'],
+      rows: saws.map((s) => {
+        const down = s.get('down') as { category: StopCategory; since: string } | null;
+        return [
+          s.assetTag,
+          s.name,
+          siteName.get(s.siteId) ?? '',
+          down ? STOP_CATEGORY_LABELS[down.category] : '',
+          down ? new Date(down.since).toISOString().slice(0, 10) : '',
+        ];
+      }),
       empty: 'Every saw is in service.',
       link:
         total > 0

@@ -12,7 +12,7 @@ import { buildWorld, PASSWORD, type World } from '../test-support/fixtures.js';
 import { clearJobs, eventually, startTestMail, type TestMail } from '../test-support/mail.js';
 import { createSequelize } from '../db/sequelize.js';
 import { User } from '../modules/users/user.model.js';
-import { Saw } from '../modules/saws/saw.model.js';
+import { Stop } from '../modules/stops/stop.model.js';
 import { Jobs } from './jobs.js';
 import { queueLowStockNotices } from './low-stock.js';
 
@@ -55,8 +55,20 @@ describe('the weekly digest', () => {
       siteId: null,
       regionId: world.regions.south.id,
     });
-    await Saw.update({ status: 'down' }, { where: { id: world.saws.A![0]!.id } });
-    await Saw.update({ status: 'down' }, { where: { id: world.saws.C![1]!.id } });
+    // Down means an open stop.
+    for (const saw of [world.saws.A![0]!, world.saws.C![1]!]) {
+      await Stop.create({
+        siteId: saw.siteId,
+        sawId: saw.id,
+        startedAt: new Date(Date.now() - 3_600_000),
+        endedAt: null,
+        category: 'hydraulic',
+        planned: false,
+        notes: null,
+        createdById: null,
+        endedById: null,
+      });
+    }
 
     await ctx.jobs.fire('mail-weekly-digest');
     const north = await mail.waitFor('lead-north@test.example');

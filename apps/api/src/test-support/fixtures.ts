@@ -6,6 +6,12 @@ import { Region } from '../modules/regions/region.model.js';
 import { Site } from '../modules/sites/site.model.js';
 import { User, UserSite } from '../modules/users/user.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
+import { BladeSpec } from '../modules/blade-specs/blade-spec.model.js';
+import { StockLevel, StockReceipt } from '../modules/blade-stock/stock-receipt.model.js';
+import { BladeRun } from '../modules/blade-runs/blade-run.model.js';
+import { Stop } from '../modules/stops/stop.model.js';
+import { CutLog } from '../modules/cut-logs/cut-log.model.js';
+import { Photo } from '../modules/photos/photo.model.js';
 import { resetData } from './test-db.js';
 
 export const PASSWORD = 'fixture-password-123';
@@ -108,4 +114,175 @@ export async function buildWorld(sequelize: Sequelize) {
   ]);
   return { regions: { north, south }, sites: { A: siteA, B: siteB, C: siteC }, saws, retiredA, users };
 }
+
+/**
+ * Records at sites A and C for scope tests, written straight to the tables: a fleet-wide spec (site NULL) and
+ * one of site A's own, stock, a removed run and an open run, stops (one open), a cut log and a photo at each
+ * site, and stock levels. Nullable columns are left NULL where they may be.
+ */
+export async function buildRecords(world: World) {
+  const fleetSpec = await BladeSpec.create({
+    siteId: null,
+    name: 'Fleet 34x1.1 3/4',
+    widthMm: 34,
+    thicknessMm: 1.1,
+    lengthMm: 4115,
+    coarseTpi: 3,
+    fineTpi: 4,
+    toothForm: 'hook',
+    toothSet: 'raker',
+    material: 'bimetal',
+    unitCostMinor: 6000,
+    currency: 'EUR',
+    supplier: null,
+  });
+  const siteSpec = await BladeSpec.create({
+    siteId: world.sites.A.id,
+    name: 'A own 34x1.1 2/3',
+    widthMm: 34,
+    thicknessMm: 1.1,
+    lengthMm: 4115,
+    coarseTpi: 2,
+    fineTpi: 3,
+    toothForm: 'regular',
+    toothSet: 'wavy',
+    material: 'bimetal',
+    unitCostMinor: 5800,
+    currency: 'EUR',
+    supplier: 'Test supplier',
+  });
+  const day = 86_400_000;
+  const now = Date.now();
+  const records: Record<'A' | 'C', { receipt: StockReceipt; run: BladeRun; openRun: BladeRun; stop: Stop }> =
+    {} as never;
+  for (const code of ['A', 'C'] as const) {
+    const site = world.sites[code];
+    const [saw1, saw2] = world.saws[code]!;
+    const receipt = await StockReceipt.create({
+      siteId: site.id,
+      bladeSpecId: fleetSpec.id,
+      quantity: 5,
+      unitCostMinor: 6100,
+      currency: 'EUR',
+      receivedOn: new Date(now - 40 * day).toISOString().slice(0, 10),
+      reference: code === 'A' ? 'LOT-1' : null,
+      notes: null,
+      createdById: null,
+    });
+    const run = await BladeRun.create({
+      siteId: site.id,
+      sawId: saw1!.id,
+      bladeSpecId: fleetSpec.id,
+      stockReceiptId: receipt.id,
+      installedAt: new Date(now - 30 * day),
+      installedById: null,
+      tensionMpa: null,
+      materialGroup: null,
+      breakInFollowed: null,
+      installNotes: null,
+      costMinor: 6100,
+      currency: 'EUR',
+      removedAt: new Date(now - 20 * day),
+      removalReason: 'worn_out',
+    });
+    const openRun = await BladeRun.create({
+      siteId: site.id,
+      sawId: saw1!.id,
+      bladeSpecId: fleetSpec.id,
+      stockReceiptId: null,
+      installedAt: new Date(now - 20 * day),
+      installedById: null,
+      tensionMpa: 220,
+      materialGroup: 'carbon_steel',
+      breakInFollowed: true,
+      installNotes: null,
+      costMinor: 6000,
+      currency: 'EUR',
+    });
+    const stop = await Stop.create({
+      siteId: site.id,
+      sawId: saw2!.id,
+      startedAt: new Date(now - 3 * day),
+      endedAt: new Date(now - 2 * day),
+      category: 'mechanical',
+      planned: false,
+      notes: null,
+      createdById: null,
+      endedById: null,
+    });
+    await Stop.create({
+      siteId: site.id,
+      sawId: saw2!.id,
+      startedAt: new Date(now - day),
+      endedAt: null,
+      category: 'hydraulic',
+      planned: false,
+      notes: 'Open',
+      createdById: null,
+      endedById: null,
+    });
+    await CutLog.create({
+      siteId: site.id,
+      sawId: saw1!.id,
+      bladeRunId: code === 'A' ? openRun.id : null,
+      cutAt: new Date(now - 5 * day),
+      shape: { kind: 'round_bar', diameterMm: 100 },
+      pieceCount: 1,
+      piecesAcross: 1,
+      materialGroup: 'carbon_steel',
+      quantity: 10,
+      bandSpeedMPerMin: null,
+      feedMmPerMin: null,
+      cutTimeS: null,
+      areaPerCutMm2: 7854,
+      areaCutMm2: 78540,
+      teethInWorkMin: null,
+      teethInWorkMax: null,
+      warnings: [],
+      notes: null,
+      createdById: null,
+    });
+    await Photo.create({
+      siteId: site.id,
+      bladeRunId: run.id,
+      contentType: 'image/png',
+      byteSize: 10,
+      widthPx: 1,
+      heightPx: 1,
+      caption: null,
+      uploadedById: null,
+    });
+    await StockLevel.create({
+      siteId: site.id,
+      bladeSpecId: fleetSpec.id,
+      leadTimeDays: 10,
+      safetyStock: 1,
+      updatedById: null,
+    });
+    records[code] = { receipt, run, openRun, stop };
+  }
+  return { fleetSpec, siteSpec, ...records };
+}
+export type Records = Awaited<ReturnType<typeof buildRecords>>;
 export type World = Awaited<ReturnType<typeof buildWorld>>;
+
+/** A valid blade spec body (a 34 × 1.1 mm bi-metal band for the fixture saws, 3/4 TPI). */
+export function specBody(siteId: string | null, overrides: Record<string, unknown> = {}) {
+  return {
+    siteId,
+    name: `Spec ${Math.random().toString(36).slice(2, 8)}`,
+    widthMm: 34,
+    thicknessMm: 1.1,
+    lengthMm: 4115,
+    pitch: { kind: 'variable', coarseTpi: 3, fineTpi: 4 },
+    toothForm: 'hook',
+    toothSet: 'raker',
+    material: 'bimetal',
+    unitCostMinor: 6450,
+    currency: 'EUR',
+    ...overrides,
+  };
+}
+
+/** An ISO time `minutes` before now. */
+export const minutesAgo = (minutes: number): string => new Date(Date.now() - minutes * 60_000).toISOString();

@@ -46,6 +46,7 @@ const MESSAGE_BY_CODE: Record<ErrorCode, string> = {
   FORBIDDEN: 'Your role does not allow this.',
   NOT_FOUND: 'That record does not exist or is outside your sites.',
   CONFLICT: 'That change clashes with a record that already exists.',
+  PAYLOAD_TOO_LARGE: 'That file is too large to send.',
   RATE_LIMITED: 'Too many attempts. Wait a minute and try again.',
   UNAVAILABLE: 'Kerfline is not available right now. Try again in a moment.',
   INTERNAL: 'Something went wrong on the server. Try again; if it keeps happening, tell your administrator.',

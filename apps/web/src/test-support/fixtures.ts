@@ -47,6 +47,8 @@ export function makeSaw(overrides: Partial<Saw> = {}): Saw {
     capacityRectWidthMm: null,
     capacityRectHeightMm: null,
     status: 'in_service',
+    down: null,
+    bladeOn: null,
     retiredAt: null,
     createdAt: '2025-03-12T13:05:00.000Z',
     updatedAt: '2025-03-12T13:05:00.000Z',

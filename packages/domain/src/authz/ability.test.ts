@@ -27,20 +27,19 @@ const invitation = (siteId: string | null, role: Role) => subject('Invitation', 
 const mailLog = (userId: string | null) => subject('MailLog', { id: 'm', userId });
 const audit = (siteId: string | null) => subject('AuditEntry', { id: 'e', siteId });
 const setting = (siteId: string) => subject('SiteSetting', { id: 'k', siteId });
+const spec = (siteId: string | null) => subject('BladeSpec', { id: 'b', siteId });
+const run = (siteId: string) => subject('BladeRun', { id: 'r', siteId });
+const stop = (siteId: string) => subject('Stop', { id: 'p', siteId });
+const cutLog = (siteId: string) => subject('CutLog', { id: 'l', siteId });
+const photo = (siteId: string) => subject('Photo', { id: 'f', siteId });
+const receipt = (siteId: string) => subject('StockReceipt', { id: 'k', siteId });
+const levels = (siteId: string) => subject('StockLevel', { id: 'v', siteId });
 
 // The permission matrix: [role, action, object, expected].
 const matrix: [
   string,
   Parameters<ReturnType<typeof defineAbilityFor>['can']>[0],
-  (
-    | ReturnType<typeof saw>
-    | ReturnType<typeof site>
-    | ReturnType<typeof user>
-    | ReturnType<typeof audit>
-    | ReturnType<typeof setting>
-    | ReturnType<typeof invitation>
-    | ReturnType<typeof mailLog>
-  ),
+  Parameters<ReturnType<typeof defineAbilityFor>['can']>[1],
   boolean,
 ][] = [
   ['admin', 'create', saw(C), true],
@@ -130,6 +129,67 @@ const matrix: [
   ['techA', 'read', setting(B), false],
   ['techA', 'update', setting(A), false],
   ['techA', 'delete', setting(A), false],
+  // The blade-spec catalogue: fleet-wide specs (siteId null) are the admins'; a site admin keeps their site's own.
+  ['admin', 'create', spec(null), true],
+  ['siteAdminA', 'read', spec(null), true],
+  ['siteAdminA', 'update', spec(null), false],
+  ['siteAdminA', 'create', spec(A), true],
+  ['siteAdminA', 'update', spec(A), true],
+  ['siteAdminA', 'delete', spec(A), true],
+  ['siteAdminA', 'read', spec(B), false],
+  ['siteAdminA', 'create', spec(B), false],
+  ['techA', 'read', spec(null), true],
+  ['techA', 'read', spec(A), true],
+  ['techA', 'read', spec(C), false],
+  ['techA', 'create', spec(A), false],
+  ['managerAC', 'read', spec(null), true],
+  ['managerAC', 'read', spec(C), true],
+  ['managerAC', 'read', spec(B), false],
+  ['managerAC', 'create', spec(A), false],
+  ['leadNorth', 'read', spec(B), true],
+  ['leadNorth', 'read', spec(C), false],
+  ['leadNorth', 'read', spec(null), true],
+  // Records a site keeps: technicians write runs, stops and cut logs at their own site and add photos.
+  ['techA', 'create', run(A), true],
+  ['techA', 'update', run(A), true],
+  ['techA', 'delete', run(A), false],
+  ['techA', 'create', run(B), false],
+  ['techA', 'read', run(B), false],
+  ['techA', 'create', stop(A), true],
+  ['techA', 'update', stop(A), true],
+  ['techA', 'create', stop(C), false],
+  ['techA', 'create', cutLog(A), true],
+  ['techA', 'create', photo(A), true],
+  ['techA', 'read', photo(A), true],
+  ['techA', 'read', photo(B), false],
+  ['techA', 'delete', photo(A), false],
+  ['techA', 'read', receipt(A), true],
+  ['techA', 'create', receipt(A), false],
+  ['techA', 'update', levels(A), false],
+  // Site admins manage all of their site's records, stock included, and nothing elsewhere.
+  ['siteAdminA', 'create', receipt(A), true],
+  ['siteAdminA', 'delete', receipt(A), true],
+  ['siteAdminA', 'update', levels(A), true],
+  ['siteAdminA', 'delete', run(A), true],
+  ['siteAdminA', 'delete', photo(A), true],
+  ['siteAdminA', 'read', stop(B), false],
+  ['siteAdminA', 'create', receipt(B), false],
+  // Managers and leads read within their scope and write nothing.
+  ['managerAll', 'read', run(B), true],
+  ['managerAll', 'create', run(B), false],
+  ['managerAll', 'update', stop(B), false],
+  ['managerAll', 'create', receipt(B), false],
+  ['managerAC', 'read', stop(A), true],
+  ['managerAC', 'read', stop(B), false],
+  ['managerAC', 'read', photo(C), true],
+  ['leadNorth', 'read', run(B), true],
+  ['leadNorth', 'read', run(C), false],
+  ['leadNorth', 'read', cutLog(A), true],
+  ['leadNorth', 'create', stop(A), false],
+  ['leadNorth', 'update', run(A), false],
+  ['leadNorth', 'read', receipt(C), false],
+  ['admin', 'delete', stop(C), true],
+  ['admin', 'create', receipt(C), true],
 ];
 
 describe('who can do what', () => {
@@ -137,10 +197,13 @@ describe('who can do what', () => {
     expect(defineAbilityFor(principals[who]!).can(action, object)).toBe(expected);
   });
 
-  it('gives a manager assigned to no sites nothing to read', () => {
+  it('gives a manager assigned to no sites nothing to read but the fleet-wide catalogue', () => {
     const ability = defineAbilityFor({ ...principals.managerAC!, siteIds: [], regionIds: [] });
     expect(ability.can('read', saw(A))).toBe(false);
     expect(ability.can('read', site(A, NORTH))).toBe(false);
+    expect(ability.can('read', run(A))).toBe(false);
+    expect(ability.can('read', spec(A))).toBe(false);
+    expect(ability.can('read', spec(null))).toBe(true);
   });
 
   it('gives a site admin or technician without a home site nothing beyond themselves', () => {
@@ -148,6 +211,8 @@ describe('who can do what', () => {
       const ability = defineAbilityFor({ id: ME, role, siteId: null, regionId: null, siteIds: [], regionIds: [] });
       expect(ability.can('read', saw(A))).toBe(false);
       expect(ability.can('read', user(ME, null))).toBe(true);
+      expect(ability.can('create', run(A))).toBe(false);
+      expect(ability.can('read', spec(null))).toBe(false);
     }
   });
 
@@ -184,6 +249,13 @@ describe('rules stay translatable to SQL', () => {
     SiteSetting: new Set(['id', 'siteId']),
     Invitation: new Set(['id', 'siteId', 'role']),
     MailLog: new Set(['id', 'userId']),
+    BladeSpec: new Set(['id', 'siteId']),
+    StockReceipt: new Set(['id', 'siteId']),
+    StockLevel: new Set(['id', 'siteId']),
+    BladeRun: new Set(['id', 'siteId']),
+    Stop: new Set(['id', 'siteId']),
+    CutLog: new Set(['id', 'siteId']),
+    Photo: new Set(['id', 'siteId']),
   };
 
   it('uses only $eq, $ne, $in and $nin on the subject’s own columns, for every role', () => {

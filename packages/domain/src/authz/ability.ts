@@ -21,6 +21,13 @@ export const SUBJECTS = [
   'SiteSetting',
   'Invitation',
   'MailLog',
+  'BladeSpec',
+  'StockReceipt',
+  'StockLevel',
+  'BladeRun',
+  'Stop',
+  'CutLog',
+  'Photo',
 ] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
@@ -33,6 +40,10 @@ type AuditEntryFields = { id: string; siteId: string | null };
 type SiteSettingFields = { id: string; siteId: string };
 type InvitationFields = { id: string; siteId: string | null; role: Role };
 type MailLogFields = { id: string; userId: string | null };
+/** Null siteId: a fleet-wide catalogue spec. */
+type BladeSpecFields = { id: string; siteId: string | null };
+/** The records a site keeps: each row carries its site, so rules test the row's own column. */
+type SiteRecordFields = { id: string; siteId: string };
 
 type Subjects =
   | 'all'
@@ -44,10 +55,20 @@ type Subjects =
   | (AuditEntryFields & ForcedSubject<'AuditEntry'>)
   | (SiteSettingFields & ForcedSubject<'SiteSetting'>)
   | (InvitationFields & ForcedSubject<'Invitation'>)
-  | (MailLogFields & ForcedSubject<'MailLog'>);
+  | (MailLogFields & ForcedSubject<'MailLog'>)
+  | (BladeSpecFields & ForcedSubject<'BladeSpec'>)
+  | (SiteRecordFields & ForcedSubject<'StockReceipt'>)
+  | (SiteRecordFields & ForcedSubject<'StockLevel'>)
+  | (SiteRecordFields & ForcedSubject<'BladeRun'>)
+  | (SiteRecordFields & ForcedSubject<'Stop'>)
+  | (SiteRecordFields & ForcedSubject<'CutLog'>)
+  | (SiteRecordFields & ForcedSubject<'Photo'>);
 
 export type AppAbility = MongoAbility<[Action, Subjects]>;
 export type AppRawRule = RawRuleOf<AppAbility>;
+
+/** Subjects that belong to exactly one site and carry it in their own `siteId` column. */
+export const SITE_RECORDS = ['StockReceipt', 'StockLevel', 'BladeRun', 'Stop', 'CutLog', 'Photo'] as const;
 
 /**
  * Who is asking, with their scope already resolved from the database: the sites and regions they may see.
@@ -77,6 +98,16 @@ export function defineAbilityFor(p: Principal): AppAbility {
   const inSites = p.siteIds === 'all' ? undefined : { $in: p.siteIds };
   const inRegions = p.regionIds === 'all' ? undefined : { $in: p.regionIds };
 
+  /** Read-only access to the records of some sites (managers, leads): the catalogue's fleet specs included. */
+  const readRecords = (sites: { $in: string[] } | undefined) => {
+    if (sites) {
+      can('read', [...SITE_RECORDS], { siteId: sites });
+      can('read', 'BladeSpec', { siteId: { $in: [null, ...sites.$in] } });
+    } else {
+      can('read', [...SITE_RECORDS, 'BladeSpec']);
+    }
+  };
+
   can('read', 'User', { id: p.id });
 
   switch (p.role) {
@@ -93,6 +124,7 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can(['read', 'export'], 'Site');
         can('read', ['Saw', 'SiteSetting']);
       }
+      readRecords(inSites);
       break;
     case 'regional_lead':
       if (p.regionId) {
@@ -100,6 +132,7 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can('read', 'Site', { regionId: p.regionId });
       }
       can('read', ['Saw', 'SiteSetting'], { siteId: inSites ?? { $in: [] } });
+      readRecords(inSites ?? { $in: [] });
       break;
     case 'site_admin':
       if (p.siteId) {
@@ -117,6 +150,11 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can('read', 'AuditEntry', { siteId: p.siteId });
         // Their site's figures with no single printed value (band speeds, tension ranges, check limits).
         can(['read', 'create', 'update', 'delete'], 'SiteSetting', { siteId: p.siteId });
+        // Their site's stock, blade runs, stops, cut logs and photos, and the site's own blade specs; the
+        // fleet-wide catalogue (siteId NULL) is read-only to them.
+        can(['create', 'read', 'update', 'delete'], [...SITE_RECORDS], { siteId: p.siteId });
+        can('read', 'BladeSpec', { siteId: { $in: [null, p.siteId] } });
+        can(['create', 'update', 'delete'], 'BladeSpec', { siteId: p.siteId });
       }
       break;
     case 'technician':
@@ -124,6 +162,11 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can('read', 'Region', { id: inRegions ?? { $in: [] } });
         can('read', 'Site', { id: p.siteId });
         can('read', ['Saw', 'SiteSetting'], { siteId: p.siteId });
+        // Technicians log work at their own site; corrections beyond that (deletes, stock) are the site admin's.
+        can('read', [...SITE_RECORDS], { siteId: p.siteId });
+        can('read', 'BladeSpec', { siteId: { $in: [null, p.siteId] } });
+        can(['create', 'update'], ['BladeRun', 'Stop', 'CutLog'], { siteId: p.siteId });
+        can('create', 'Photo', { siteId: p.siteId });
       }
       break;
   }

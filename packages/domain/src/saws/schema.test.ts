@@ -18,13 +18,11 @@ const base = {
 };
 
 describe('saw inputs', () => {
-  it('fills a new saw’s optional details with "not recorded" and puts it in service', () => {
-    expect(sawCreateSchema.parse(base)).toMatchObject({
-      make: null,
-      model: null,
-      capacityRoundMm: null,
-      status: 'in_service',
-    });
+  it('fills a new saw’s optional details with "not recorded" and takes no status: down comes from a stop', () => {
+    const parsed = sawCreateSchema.parse({ ...base, status: 'down' });
+    expect(parsed).toMatchObject({ make: null, model: null, capacityRoundMm: null });
+    expect(parsed).not.toHaveProperty('status');
+    expect(sawUpdateSchema.safeParse({ status: 'down' }).success).toBe(false);
   });
 
   it('keeps an update to the fields it names, so nothing else is reset', () => {

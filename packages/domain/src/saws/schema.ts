@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { idSchema, pageQuerySchema, text } from '../common/schema.js';
+import { DOWNTIME_CATEGORIES } from '../metrics/schema.js';
 
 export const SAW_KINDS = ['horizontal', 'vertical'] as const;
 export type SawKind = (typeof SAW_KINDS)[number];
@@ -13,9 +14,34 @@ export type SawKind = (typeof SAW_KINDS)[number];
 export { HEAD_FEEDS, type HeadFeed } from '../checks/schema.js';
 import { HEAD_FEEDS } from '../checks/schema.js';
 
-/** in_service: available to cut; down: stopped for a fault or repair; retired: kept for history only. */
+/**
+ * in_service: available to cut; down: has an open stop (derived from the stop, never stored); retired: kept
+ * for history only.
+ */
 export const SAW_STATUSES = ['in_service', 'down', 'retired'] as const;
 export type SawStatus = (typeof SAW_STATUSES)[number];
+
+/** What the database stores: whether the saw is retired. "Down" comes from its open stop. */
+export const SAW_STORED_STATUSES = ['in_service', 'retired'] as const;
+export type SawStoredStatus = (typeof SAW_STORED_STATUSES)[number];
+
+/** Why and since when a saw is down: its open stop. */
+export const sawDownSchema = z.object({
+  stopId: idSchema,
+  category: z.enum(DOWNTIME_CATEGORIES),
+  planned: z.boolean(),
+  since: z.string(),
+});
+export type SawDown = z.infer<typeof sawDownSchema>;
+
+/** The blade on the saw now: its open blade run. */
+export const sawBladeOnSchema = z.object({
+  runId: idSchema,
+  bladeSpecId: idSchema,
+  bladeSpecName: z.string(),
+  since: z.string(),
+});
+export type SawBladeOn = z.infer<typeof sawBladeOnSchema>;
 
 const positiveMm = (label: string, max: number) =>
   z
@@ -46,7 +72,12 @@ export const sawSchema = z.object({
   capacityRoundMm: z.number().nullable(),
   capacityRectWidthMm: z.number().nullable(),
   capacityRectHeightMm: z.number().nullable(),
+  /** Retired, else down while a stop is open, else in service. */
   status: z.enum(SAW_STATUSES),
+  /** The open stop, when the saw is down. */
+  down: sawDownSchema.nullable(),
+  /** The blade on the saw now, if one is recorded. */
+  bladeOn: sawBladeOnSchema.nullable(),
   retiredAt: z.string().nullable(),
   createdAt: z.string(),
   updatedAt: z.string(),
@@ -75,10 +106,9 @@ const sawFieldShapes = {
   capacityRoundMm: positiveMm('Round capacity', 3000).nullable(),
   capacityRectWidthMm: positiveMm('Rectangle capacity width', 5000).nullable(),
   capacityRectHeightMm: positiveMm('Rectangle capacity height', 5000).nullable(),
-  status: z.enum(['in_service', 'down'], { message: 'choose in service or down' }),
 };
 
-/** On create, optional details default to "not recorded" and a new saw is in service. */
+/** On create, optional details default to "not recorded". A saw is down only through a stop. */
 const sawFields = z.object({
   ...sawFieldShapes,
   // Production saws are mostly fed hydraulically; a gravity- or spring-fed head is said so.
@@ -88,7 +118,6 @@ const sawFields = z.object({
   capacityRoundMm: sawFieldShapes.capacityRoundMm.default(null),
   capacityRectWidthMm: sawFieldShapes.capacityRectWidthMm.default(null),
   capacityRectHeightMm: sawFieldShapes.capacityRectHeightMm.default(null),
-  status: sawFieldShapes.status.default('in_service'),
 });
 
 type SawRanges = {

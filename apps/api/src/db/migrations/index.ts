@@ -4,6 +4,7 @@ import * as audit from './20261202-0001-audit.js';
 import * as siteSettings from './20261203-0201-site-settings.js';
 import * as sawHeadFeed from './20261203-0202-saw-head-feed.js';
 import * as peopleAndMail from './20261203-0001-people-and-mail.js';
+import * as siteRecords from './20261203-0001-site-records.js';
 
 type Migration = {
   name: string;
@@ -18,4 +19,5 @@ export const migrations: Migration[] = [
   { name: '20261203-0201-site-settings', ...siteSettings },
   { name: '20261203-0202-saw-head-feed', ...sawHeadFeed },
   { name: '20261203-0001-people-and-mail', ...peopleAndMail },
+  { name: '20261203-0001-site-records', ...siteRecords },
 ];

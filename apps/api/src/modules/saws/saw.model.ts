@@ -6,7 +6,18 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize';
-import type { HeadFeed, SawKind, SawStatus } from '@kerfline/domain/saws/schema';
+import type { HeadFeed, SawKind, SawStoredStatus } from '@kerfline/domain/saws/schema';
+
+/*
+ * A saw is down while it has an open stop, and the blade on it is its open run: both are read in the same query
+ * as the saw (these fragments are correlated on the outer alias "Saw"), each through a partial unique index (one open stop, one open run per saw), never stored twice.
+ */
+export const OPEN_STOP_SQL = `(SELECT json_build_object('stopId', st.id, 'category', st.category, 'planned', st.planned,
+    'since', st.started_at) FROM stops st WHERE st.saw_id = "Saw".id AND st.ended_at IS NULL)`;
+export const BLADE_ON_SQL = `(SELECT json_build_object('runId', r.id, 'bladeSpecId', r.blade_spec_id, 'bladeSpecName', b.name,
+    'since', r.installed_at) FROM blade_runs r JOIN blade_specs b ON b.id = r.blade_spec_id
+    WHERE r.saw_id = "Saw".id AND r.removed_at IS NULL)`;
+export const HAS_OPEN_STOP_SQL = `EXISTS (SELECT 1 FROM stops st WHERE st.saw_id = "Saw".id AND st.ended_at IS NULL)`;
 
 /** Lengths in millimetres, band speeds in metres per minute. */
 export class Saw extends Model<InferAttributes<Saw>, InferCreationAttributes<Saw>> {
@@ -28,7 +39,8 @@ export class Saw extends Model<InferAttributes<Saw>, InferCreationAttributes<Saw
   declare capacityRoundMm: number | null;
   declare capacityRectWidthMm: number | null;
   declare capacityRectHeightMm: number | null;
-  declare status: CreationOptional<SawStatus>;
+  /** Stored: in service or retired. "Down" is derived from an open stop (see saws.service.ts). */
+  declare status: CreationOptional<SawStoredStatus>;
   declare retiredAt: Date | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;

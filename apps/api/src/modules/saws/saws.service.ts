@@ -1,5 +1,5 @@
 import { ForbiddenError, subject } from '@casl/ability';
-import { Op, type WhereOptions } from 'sequelize';
+import { Op, literal, type WhereOptions } from 'sequelize';
 import type { AppAbility } from '@kerfline/domain/authz/ability';
 import {
   sawRangeIssues,
@@ -7,17 +7,31 @@ import {
   type SawCreateParsed,
   type SawListQuery,
   type SawUpdate,
+  type SawDown,
+  type SawBladeOn,
 } from '@kerfline/domain/saws/schema';
 import type { Page } from '@kerfline/domain/common/schema';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
-import { Saw } from './saw.model.js';
+import { BLADE_ON_SQL, HAS_OPEN_STOP_SQL, OPEN_STOP_SQL, Saw } from './saw.model.js';
 import { Site } from '../sites/site.model.js';
 import { writeAudit, type Actor } from '../../audit/write-audit.js';
 import { inTransaction } from '../../db/models.js';
 
+/** The derived columns every saw read includes. */
+export const sawDerivedAttributes = {
+  include: [
+    [literal(OPEN_STOP_SQL), 'down'],
+    [literal(BLADE_ON_SQL), 'bladeOn'],
+  ] as [ReturnType<typeof literal>, string][],
+};
+
+const iso = (value: string | Date): string => new Date(value).toISOString();
+
 export function toSawDto(saw: Saw): SawDto {
   const s = saw.get({ plain: true });
+  const down = saw.get('down') as (Omit<SawDown, 'since'> & { since: string }) | null | undefined;
+  const bladeOn = saw.get('bladeOn') as (Omit<SawBladeOn, 'since'> & { since: string }) | null | undefined;
   return {
     id: s.id,
     siteId: s.siteId,
@@ -37,7 +51,9 @@ export function toSawDto(saw: Saw): SawDto {
     capacityRoundMm: s.capacityRoundMm,
     capacityRectWidthMm: s.capacityRectWidthMm,
     capacityRectHeightMm: s.capacityRectHeightMm,
-    status: s.status,
+    status: s.status === 'retired' ? 'retired' : down ? 'down' : 'in_service',
+    down: down ? { ...down, since: iso(down.since) } : null,
+    bladeOn: bladeOn ? { ...bladeOn, since: iso(bladeOn.since) } : null,
     retiredAt: s.retiredAt ? s.retiredAt.toISOString() : null,
     createdAt: s.createdAt.toISOString(),
     updatedAt: s.updatedAt.toISOString(),
@@ -48,7 +64,9 @@ export async function listSaws(ability: AppAbility, q: SawListQuery): Promise<Pa
   const filter: WhereOptions[] = [];
   if (q.siteId) filter.push({ siteId: q.siteId });
   if (q.kind) filter.push({ kind: q.kind });
-  if (q.status) filter.push({ status: q.status });
+  if (q.status === 'retired') filter.push({ status: 'retired' });
+  else if (q.status === 'down') filter.push({ status: 'in_service' }, literal(HAS_OPEN_STOP_SQL));
+  else if (q.status === 'in_service') filter.push({ status: 'in_service' }, literal(`NOT ${HAS_OPEN_STOP_SQL}`));
   else if (!q.includeRetired) filter.push({ status: { [Op.ne]: 'retired' } });
   if (q.q) {
     const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
@@ -56,6 +74,7 @@ export async function listSaws(ability: AppAbility, q: SawListQuery): Promise<Pa
   }
   const { rows, count } = await Saw.findAndCountAll({
     where: scopedWhere(ability, 'read', 'Saw', Saw, { [Op.and]: filter }),
+    attributes: sawDerivedAttributes,
     order: [
       ['assetTag', 'ASC'],
       ['id', 'ASC'],
@@ -68,7 +87,10 @@ export async function listSaws(ability: AppAbility, q: SawListQuery): Promise<Pa
 
 /** A saw the caller may read; anything else is "not found", so ids outside the scope reveal nothing. */
 async function findReadable(ability: AppAbility, id: string): Promise<Saw> {
-  const saw = await Saw.findOne({ where: scopedWhere(ability, 'read', 'Saw', Saw, { id }) });
+  const saw = await Saw.findOne({
+    where: scopedWhere(ability, 'read', 'Saw', Saw, { id }),
+    attributes: sawDerivedAttributes,
+  });
   if (!saw) throw AppError.notFound('Saw');
   return saw;
 }
@@ -91,7 +113,10 @@ export async function getSaw(ability: AppAbility, id: string): Promise<SawDto> {
  * A copy of the saw's stored fields for the audit trail. A copy, because `get({ plain: true })` hands back the
  * instance's own value object, which the update would then change under us.
  */
-const auditValues = (saw: Saw): Record<string, unknown> => ({ ...saw.get({ plain: true }) });
+const auditValues = (saw: Saw): Record<string, unknown> => {
+  const { down: _down, bladeOn: _bladeOn, ...stored } = saw.get({ plain: true }) as Record<string, unknown>;
+  return { ...stored };
+};
 
 export async function createSaw({ ability, userId }: Actor, input: SawCreateParsed): Promise<SawDto> {
   await assertSiteReadable(ability, input.siteId);
@@ -105,7 +130,7 @@ export async function createSaw({ ability, userId }: Actor, input: SawCreatePars
     ]);
     return created;
   });
-  return toSawDto(saw);
+  return getSaw(ability, saw.id);
 }
 
 export async function updateSaw({ ability, userId }: Actor, id: string, patch: SawUpdate): Promise<SawDto> {
@@ -119,7 +144,10 @@ export async function updateSaw({ ability, userId }: Actor, id: string, patch: S
   const merged = { ...current, ...patch };
   const issues = sawRangeIssues(merged);
   if (issues.length > 0) throw AppError.validation('Some fields need fixing', issues);
-  if (patch.siteId && patch.siteId !== current.siteId) await assertSiteReadable(ability, patch.siteId);
+  if (patch.siteId && patch.siteId !== current.siteId) {
+    await assertSiteReadable(ability, patch.siteId);
+    await assertNoRecords(saw.id);
+  }
   // Check the record as it will be, so nobody can move a saw into a site they do not manage.
   forbid.throwUnlessCan('update', subject('Saw', merged));
 
@@ -133,12 +161,35 @@ export async function updateSaw({ ability, userId }: Actor, id: string, patch: S
   return toSawDto(saw);
 }
 
+/**
+ * A saw's blade runs, stops and cut logs belong to the site where they happened (each row carries that site,
+ * and a composite foreign key ties it to the saw's site), so a saw with records keeps its site. To move such a
+ * saw, retire it at the old site and add it at the new one.
+ */
+async function assertNoRecords(sawId: string): Promise<void> {
+  const [row] = (await Saw.sequelize!.query(
+    `SELECT EXISTS (SELECT 1 FROM blade_runs WHERE saw_id = :sawId)
+         OR EXISTS (SELECT 1 FROM stops WHERE saw_id = :sawId)
+         OR EXISTS (SELECT 1 FROM cut_logs WHERE saw_id = :sawId) AS has`,
+    { replacements: { sawId }, type: 'SELECT' },
+  )) as { has: boolean }[];
+  if (row?.has)
+    throw new AppError(
+      'CONFLICT',
+      'This saw has blade runs, stops or cut logs at its site, which stay with that site; retire it here and add it at the new site instead',
+    );
+}
+
 export async function retireSaw({ ability, userId }: Actor, id: string): Promise<SawDto> {
   const saw = await findReadable(ability, id);
   ForbiddenError.from(ability)
     .setMessage('You cannot retire this saw')
     .throwUnlessCan('update', subject('Saw', saw.get({ plain: true })));
   if (saw.status === 'retired') throw new AppError('CONFLICT', 'This saw is already retired');
+  const dto = toSawDto(saw);
+  if (dto.down) throw new AppError('CONFLICT', 'This saw has an open stop; end the stop before retiring the saw');
+  if (dto.bladeOn)
+    throw new AppError('CONFLICT', 'This saw still has a blade on; take the blade off before retiring the saw');
   await inTransaction(async (transaction) => {
     const before = auditValues(saw);
     await saw.update({ status: 'retired', retiredAt: new Date() }, { transaction });

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import type supertest from 'supertest';
 import { startTestApp, signedInAgent, type TestContext } from '../../test-support/test-db.js';
-import { buildWorld, PASSWORD, sawBody, type World } from '../../test-support/fixtures.js';
+import { buildWorld, PASSWORD, sawBody, specBody, type World } from '../../test-support/fixtures.js';
 
 let ctx: TestContext;
 let world: World;
@@ -169,11 +169,11 @@ describe('changing and retiring a saw', () => {
   it('changes only the fields an update names', async () => {
     const agent = await as('siteadmin-a@test.example');
     const id = world.saws.A![0]!.id;
-    await agent.patch(`/api/saws/${id}`).send({ status: 'down', capacityRoundMm: 300 }).expect(200);
+    await agent.patch(`/api/saws/${id}`).send({ make: 'Othermake', capacityRoundMm: 300 }).expect(200);
     const before = (await agent.get(`/api/saws/${id}`)).body;
     const after = (await agent.patch(`/api/saws/${id}`).send({ name: 'Renamed' })).body;
     expect(after).toEqual({ ...before, name: 'Renamed', updatedAt: after.updatedAt });
-    expect(after).toMatchObject({ status: 'down', make: 'Testmake', model: 'Testmodel', capacityRoundMm: 300 });
+    expect(after).toMatchObject({ status: 'in_service', make: 'Othermake', model: 'Testmodel', capacityRoundMm: 300 });
   });
 
   it('does not let a site admin move a saw to a site they do not manage', async () => {
@@ -208,5 +208,22 @@ describe('changing and retiring a saw', () => {
     expect((await agent.post(`/api/saws/${id}/retire`)).status).toBe(409);
     expect((await agent.patch(`/api/saws/${id}`).send({ name: 'again' })).status).toBe(409);
     expect(tags((await agent.get('/api/saws')).body)).toEqual(['A-1']);
+  });
+
+  it('keeps a saw with an open stop or a blade on from being retired, and a saw with records at its site', async () => {
+    const admin = await as('admin@test.example');
+    const id = world.saws.A![0]!.id;
+    const stop = (await admin.post('/api/stops').send({ sawId: id, category: 'mechanical' })).body;
+    const down = await admin.post(`/api/saws/${id}/retire`);
+    expect(down.status).toBe(409);
+    expect(down.body.error.message).toBe('This saw has an open stop; end the stop before retiring the saw');
+    await admin.post(`/api/stops/${stop.id}/end`).send({}).expect(200);
+    const spec = (await admin.post('/api/blade-specs').send(specBody(null))).body.id;
+    await admin.post('/api/blade-runs').send({ sawId: id, bladeSpecId: spec }).expect(201);
+    expect((await admin.post(`/api/saws/${id}/retire`)).body.error.message).toMatch(/take the blade off/);
+    const move = await admin.patch(`/api/saws/${id}`).send({ siteId: world.sites.B.id });
+    expect(move.status).toBe(409);
+    expect(move.body.error.message).toMatch(/stay with that site; retire it here and add it at the new site/);
+    expect((await admin.get(`/api/saws/${id}`)).body.siteId).toBe(world.sites.A.id);
   });
 });

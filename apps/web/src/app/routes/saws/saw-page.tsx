@@ -92,7 +92,7 @@ export function SawPage() {
 
       <header className="flex flex-wrap items-end justify-between gap-4">
         <div className="space-y-2">
-          <SawStatusBadge status={saw.status} large />
+          <SawStatusBadge status={saw.status} down={saw.down} large />
           <h1 className="text-3xl font-extrabold tracking-tight text-ink">
             <span className="tabular">{saw.assetTag}</span> <span className="font-semibold text-ink-muted">·</span>{' '}
             {saw.name}

@@ -48,14 +48,13 @@ export type SawFormValues = {
   name: string;
   kind: SawKind | '';
   headFeed: HeadFeed;
-  status: 'in_service' | 'down';
   make: string;
   model: string;
 } & Record<MeasureField, string>;
 
 export type SawFormField = keyof SawFormValues;
 
-const TEXT_FIELDS = ['assetTag', 'name', 'kind', 'headFeed', 'status', 'make', 'model'] as const;
+const TEXT_FIELDS = ['assetTag', 'name', 'kind', 'headFeed', 'make', 'model'] as const;
 
 const FORM_FIELD_BY_PATH: Record<string, SawFormField> = Object.fromEntries([
   ...TEXT_FIELDS.map((field) => [field, field]),
@@ -82,7 +81,6 @@ export function emptySawFormValues(): SawFormValues {
     kind: '',
     // Most production saws feed hydraulically; the form says what the other choice means.
     headFeed: 'hydraulic',
-    status: 'in_service',
     make: '',
     model: '',
     wheelDiameter: '',
@@ -110,7 +108,6 @@ export function sawFormValuesFromSaw(saw: Saw, system: UnitSystem): SawFormValue
   values.name = saw.name;
   values.kind = saw.kind;
   values.headFeed = saw.headFeed;
-  values.status = saw.status === 'down' ? 'down' : 'in_service';
   values.make = saw.make ?? '';
   values.model = saw.model ?? '';
   for (const [field, si] of Object.entries(LENGTH_FIELDS) as [LengthField, (typeof LENGTH_FIELDS)[LengthField]][]) {
@@ -173,7 +170,6 @@ export function sawInputFromForm(
     name: values.name,
     kind: values.kind === '' ? undefined : values.kind,
     headFeed: values.headFeed,
-    status: values.status,
     make: optionalText(values.make),
     model: optionalText(values.model),
     ...measures,

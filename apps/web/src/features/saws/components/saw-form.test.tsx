@@ -89,7 +89,6 @@ describe('SawForm', () => {
       name: 'Bar line saw',
       kind: 'horizontal',
       headFeed: 'gravity_spring',
-      status: 'in_service',
       make: null,
       model: null,
       wheelDiameterMm: 355.6,

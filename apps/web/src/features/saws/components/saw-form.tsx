@@ -157,14 +157,6 @@ export function SawForm({ siteId, unitSystem, saw, submitLabel, onSubmit, cancel
             </select>
           )}
         </Field>
-        <Field label="Status" error={errors.status?.message}>
-          {(props) => (
-            <select {...props} {...register('status')} className={inputClass}>
-              <option value="in_service">In service</option>
-              <option value="down">Down</option>
-            </select>
-          )}
-        </Field>
         <Field label="Make" hint="Optional." error={errors.make?.message}>
           {(props) => <input {...props} {...register('make')} autoComplete="off" className={inputClass} />}
         </Field>

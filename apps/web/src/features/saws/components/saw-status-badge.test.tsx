@@ -32,4 +32,17 @@ describe('SawStatusBadge', () => {
     });
     expect(new Set(shapes).size).toBe(SAW_STATUSES.length);
   });
+
+  it('says why a down saw is down, from its open stop, with the start in the tooltip', () => {
+    const since = '2026-03-04T07:30:00.000Z';
+    render(
+      <SawStatusBadge
+        status="down"
+        down={{ stopId: '9d1c2b3a-4e5f-4a6b-8c7d-0e1f2a3b4c5d', category: 'hydraulic', planned: false, since }}
+      />,
+    );
+    const badge = screen.getByText('Down').closest('[data-status]');
+    expect(badge).toHaveTextContent('Down· Hydraulic');
+    expect(badge).toHaveAttribute('title', `Down since ${new Date(since).toLocaleString()}`);
+  });
 });

@@ -1,4 +1,5 @@
-import type { SawStatus } from '@kerfline/domain/saws/schema';
+import type { SawDown, SawStatus } from '@kerfline/domain/saws/schema';
+import { STOP_CATEGORY_LABELS } from '@kerfline/domain/stops/schema';
 
 export const SAW_STATUS_LABELS: Record<SawStatus, string> = {
   in_service: 'In service',
@@ -41,17 +42,31 @@ export function SawStatusShape({ status, className = 'size-3.5' }: { status: Saw
   );
 }
 
-/** A saw's status as a word and a shape, with colour as a third cue. */
-export function SawStatusBadge({ status, large = false }: { status: SawStatus; large?: boolean }) {
+/**
+ * A saw's status as a word and a shape, with colour as a third cue. A down saw also says why (its open stop's
+ * category); the start of the stop is in the tooltip.
+ */
+export function SawStatusBadge({
+  status,
+  down = null,
+  large = false,
+}: {
+  status: SawStatus;
+  down?: SawDown | null;
+  large?: boolean;
+}) {
+  const why = status === 'down' && down ? STOP_CATEGORY_LABELS[down.category] : null;
   return (
     <span
       data-status={status}
+      title={why && down ? `Down since ${new Date(down.since).toLocaleString()}` : undefined}
       className={`inline-flex items-center gap-2 rounded-sheet border font-bold whitespace-nowrap ${tones[status]} ${
         large ? 'px-3 py-1.5 text-base' : 'px-2 py-0.5 text-sm'
       }`}
     >
       <SawStatusShape status={status} className={large ? 'size-4' : 'size-3.5'} />
       {SAW_STATUS_LABELS[status]}
+      {why ? <span className="font-semibold">· {why}</span> : null}
     </span>
   );
 }

@@ -81,7 +81,7 @@ export function SawsTable({
         header: 'Status',
         // Sort by the order of the statuses (in service, down, retired), not alphabetically.
         sortingFn: (a, b) => SAW_STATUSES.indexOf(a.original.status) - SAW_STATUSES.indexOf(b.original.status),
-        cell: (info) => <SawStatusBadge status={info.getValue()} />,
+        cell: (info) => <SawStatusBadge status={info.getValue()} down={info.row.original.down} />,
       }),
       columnHelper.accessor('kind', { header: 'Kind', cell: (info) => SAW_KIND_LABELS[info.getValue()] }),
       columnHelper.accessor('bandWidthMm', {

@@ -1,0 +1,90 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import {
+  bladeRunInstallSchema,
+  bladeRunListQuerySchema,
+  bladeRunRemoveSchema,
+  bladeRunUpdateSchema,
+  breakInAdviceQuerySchema,
+  confirmCauseSchema,
+  likelyCausesQuerySchema,
+} from '@kerfline/domain/blade-runs/schema';
+import { idSchema } from '@kerfline/domain/common/schema';
+import { abilityOf, actorOf } from '../../http/authenticate.js';
+import { parsed, validate } from '../../http/validate.js';
+import {
+  confirmCause,
+  deleteBladeRun,
+  getBladeRun,
+  getBreakInAdvice,
+  getLikelyCauses,
+  installBladeRun,
+  listBladeRuns,
+  removeBladeRun,
+  updateBladeRun,
+} from './blade-runs.service.js';
+
+const params = z.object({ id: idSchema });
+
+export function bladeRunsRouter(): Router {
+  const router = Router();
+  router.get('/blade-runs', validate('query', bladeRunListQuerySchema), async (_req, res) => {
+    res.json(await listBladeRuns(abilityOf(res), parsed(res, 'query', bladeRunListQuerySchema)));
+  });
+  router.get('/blade-runs/:id', validate('params', params), async (_req, res) => {
+    res.json(await getBladeRun(abilityOf(res), parsed(res, 'params', params).id));
+  });
+  router.post('/blade-runs', validate('body', bladeRunInstallSchema), async (_req, res) => {
+    res.status(201).json(await installBladeRun(actorOf(res), parsed(res, 'body', bladeRunInstallSchema)));
+  });
+  router.post(
+    '/blade-runs/:id/remove',
+    validate('params', params),
+    validate('body', bladeRunRemoveSchema),
+    async (_req, res) => {
+      const { id } = parsed(res, 'params', params);
+      res.json(await removeBladeRun(actorOf(res), id, parsed(res, 'body', bladeRunRemoveSchema)));
+    },
+  );
+  router.patch(
+    '/blade-runs/:id',
+    validate('params', params),
+    validate('body', bladeRunUpdateSchema),
+    async (_req, res) => {
+      const { id } = parsed(res, 'params', params);
+      res.json(await updateBladeRun(actorOf(res), id, parsed(res, 'body', bladeRunUpdateSchema)));
+    },
+  );
+  router.delete('/blade-runs/:id', validate('params', params), async (_req, res) => {
+    await deleteBladeRun(actorOf(res), parsed(res, 'params', params).id);
+    res.status(204).end();
+  });
+  router.get(
+    '/blade-runs/:id/likely-causes',
+    validate('params', params),
+    validate('query', likelyCausesQuerySchema),
+    async (_req, res) => {
+      const { id } = parsed(res, 'params', params);
+      res.json(await getLikelyCauses(abilityOf(res), id, parsed(res, 'query', likelyCausesQuerySchema)));
+    },
+  );
+  router.post(
+    '/blade-runs/:id/confirmed-cause',
+    validate('params', params),
+    validate('body', confirmCauseSchema),
+    async (_req, res) => {
+      const { id } = parsed(res, 'params', params);
+      res.json(await confirmCause(actorOf(res), id, parsed(res, 'body', confirmCauseSchema)));
+    },
+  );
+  router.get(
+    '/saws/:id/break-in-plan',
+    validate('params', params),
+    validate('query', breakInAdviceQuerySchema),
+    async (_req, res) => {
+      const { id } = parsed(res, 'params', params);
+      res.json(await getBreakInAdvice(abilityOf(res), id, parsed(res, 'query', breakInAdviceQuerySchema)));
+    },
+  );
+  return router;
+}
