@@ -4,16 +4,22 @@ import express, { Router, type Express } from 'express';
 import session from 'express-session';
 import connectPgSimple from 'connect-pg-simple';
 import helmet from 'helmet';
-import { rateLimit } from 'express-rate-limit';
 import passportModule from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { pinoHttp } from 'pino-http';
 import type { Pool } from 'pg';
 import type { Sequelize } from 'sequelize';
-import { errorBody, errorHandler, notFoundHandler } from './http/error-handler.js';
+import { errorHandler, notFoundHandler } from './http/error-handler.js';
 import { requireSignIn } from './http/authenticate.js';
-import { PgRateLimitStore } from './http/pg-rate-limit-store.js';
-import { AppError } from './errors.js';
+import { jsonBodiesOnly, noStore, sameOriginOnly } from './http/request-guards.js';
+import { sessionLifetime } from './http/session-lifetime.js';
+import {
+  AttemptCounters,
+  DEFAULT_ATTEMPT_LIMITS,
+  clientAddress,
+  emailKey,
+  type AttemptLimitSettings,
+} from './security/attempt-limits.js';
 import { initModels } from './db/models.js';
 import { checkCredentials } from './modules/auth/auth.service.js';
 import { authRouter } from './modules/auth/auth.router.js';
@@ -44,7 +50,13 @@ export type AppDeps = {
   trustProxy?: boolean;
   /** Folder of the built web app; when set, the API also serves it. */
   webDist?: string;
-  signInLimit?: number;
+  /** Sign-in and link attempt limits (README: SIGN_IN_LIMIT and the others); unset ones keep their defaults. */
+  attemptLimits?: Partial<AttemptLimitSettings>;
+  /** Idle timeout and absolute lifetime of a session (README: SESSION_IDLE_HOURS, SESSION_MAX_DAYS). */
+  sessionIdleMs?: number;
+  sessionMaxMs?: number;
+  /** The address people open Kerfline at: requests from its origin count as Kerfline's own (CSRF check). */
+  publicUrl?: string | undefined;
   logLevel?: string;
   /** The job runtime: services queue mail through it; server.ts also runs its workers. */
   jobs: Jobs;
@@ -55,6 +67,12 @@ export type AppDeps = {
 };
 
 export const SESSION_COOKIE = 'kerfline.sid';
+
+/**
+ * The routes that take a multipart upload (matched on the path under the app); every other state-changing
+ * route takes JSON only. A new upload route must be added here, or its requests answer 415.
+ */
+export const MULTIPART_ROUTES: readonly RegExp[] = [/^\/api\/blade-runs\/[^/]+\/photos$/];
 
 /** Builds the whole HTTP application without listening, for the server and for supertest alike. */
 export function createApp(deps: AppDeps): Express {
@@ -88,9 +106,19 @@ export function createApp(deps: AppDeps): Express {
       contentSecurityPolicy: { directives: { upgradeInsecureRequests: behindTls ? [] : null } },
     }),
   );
+  // Before anything reads the body or the session (DEVELOPERS.md, "Security and reliability"): API answers are
+  // never cached; a state-changing request from another origin is refused (CSRF); bodies are JSON only, except
+  // multipart on the upload routes.
+  app.use('/api', noStore);
+  app.use(sameOriginOnly({ publicUrl: deps.publicUrl }));
+  app.use(jsonBodiesOnly({ multipartPaths: MULTIPART_ROUTES }));
   app.use(express.json({ limit: '1mb' }));
 
+  const sessionIdleMs = deps.sessionIdleMs ?? 12 * 60 * 60 * 1000;
   const PgStore = connectPgSimple(session);
+  // The pool must listen for errors: an idle client the server drops (a PostgreSQL restart) emits one, and an
+  // unheard 'error' event would end the process. The pool replaces the client on the next request.
+  deps.sessionPool.on('error', () => undefined);
   app.use(
     session({
       name: SESSION_COOKIE,
@@ -99,53 +127,83 @@ export function createApp(deps: AppDeps): Express {
       resave: false,
       saveUninitialized: false,
       rolling: true,
-      cookie: { httpOnly: true, sameSite: 'lax', secure: Boolean(deps.trustProxy), maxAge: 12 * 60 * 60 * 1000 },
+      cookie: { httpOnly: true, sameSite: 'lax', secure: Boolean(deps.trustProxy), maxAge: sessionIdleMs },
     }),
   );
+  app.use(sessionLifetime({ idleMs: sessionIdleMs, maxMs: deps.sessionMaxMs ?? 7 * 24 * 60 * 60 * 1000 }));
 
+  const attempts = new AttemptCounters(deps.sequelize, { ...DEFAULT_ATTEMPT_LIMITS, ...deps.attemptLimits });
   const passport = new passportModule.Passport();
   passport.use(
-    new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
-      checkCredentials(email, password).then(
-        (user) => done(null, user ? { id: user.id } : false),
-        (err: unknown) => done(err),
-      );
-    }),
+    new LocalStrategy(
+      { usernameField: 'email', passwordField: 'password', passReqToCallback: true },
+      (req, email, password, done) => {
+        // Counted per address and per account before the password is checked; see security/attempt-limits.ts.
+        attempts
+          .signIn(req, email, () => checkCredentials(email, password))
+          .then(
+            (outcome) =>
+              outcome.user
+                ? done(null, { id: outcome.user.id })
+                : done(null, false, { message: String(outcome.lockedForSeconds ?? '') }),
+            (err: unknown) => done(err),
+          );
+      },
+    ),
   );
   passport.serializeUser((user, done) => done(null, user.id));
   passport.deserializeUser((id: string, done) => done(null, { id }));
   app.use(passport.initialize());
   app.use(passport.session());
 
-  const signInLimiter = rateLimit({
-    windowMs: 15 * 60 * 1000,
-    limit: deps.signInLimit ?? 20,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    store: new PgRateLimitStore(deps.sequelize, 'sign-in:'),
-    handler: (req, res) => {
-      const error = new AppError('RATE_LIMITED', 'Too many sign-in attempts; wait 15 minutes and try again');
-      res.status(429).json(errorBody(error, String(req.id)));
-    },
-  });
-
-  // The routes that take a mailed link's secret or mail one out: counted apart from sign-in, same allowance.
-  const linkLimiter = rateLimit({
-    windowMs: 15 * 60 * 1000,
-    limit: deps.signInLimit ?? 20,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    store: new PgRateLimitStore(deps.sequelize, 'links:'),
-    handler: (req, res) => {
-      const error = new AppError('RATE_LIMITED', 'Too many attempts; wait 15 minutes and try again');
-      res.status(429).json(errorBody(error, String(req.id)));
-    },
-  });
-
+  // Each route that takes a secret has its own counter (attempt-limits.ts); a limit read from the settings.
+  const limits = attempts.settings;
+  const byAddress = (req: express.Request) => clientAddress(req);
   const api = Router();
   api.use(healthRouter(deps.sequelize));
-  api.use(authRouter({ passport, signInLimiter, linkLimiter, mail: deps.jobs }));
-  api.use(invitationsRouter({ mail: deps.jobs, linkLimiter }));
+  api.use(
+    authRouter({
+      passport,
+      mail: deps.jobs,
+      passwordChangeLimit: attempts.failureLimit(
+        'password-change',
+        () => limits.passwordChangePerPerson,
+        (_req, res) => String((res.locals.signedIn as { user: { id: string } }).user.id),
+        'Too many failed password changes in the last 15 minutes',
+      ),
+      resetRequestLimits: [
+        attempts.requestLimit(
+          'reset-request',
+          () => limits.resetRequestsPerAddress,
+          byAddress,
+          'Too many reset links asked for from this network in the last 15 minutes',
+        ),
+        attempts.requestLimit(
+          'reset-request-email',
+          () => limits.resetRequestsPerEmail,
+          (_req, res) => emailKey((res.locals.body as { email: string }).email),
+          'Reset links for this address were asked for several times in the last 15 minutes; use the newest e-mail',
+        ),
+      ],
+      resetLimit: attempts.failureLimit(
+        'reset',
+        () => limits.linkFailuresPerAddress,
+        byAddress,
+        'Too many reset links refused from this network in the last 15 minutes',
+      ),
+    }),
+  );
+  api.use(
+    invitationsRouter({
+      mail: deps.jobs,
+      linkLimit: attempts.failureLimit(
+        'invitation',
+        () => limits.linkFailuresPerAddress,
+        byAddress,
+        'Too many invitation links refused from this network in the last 15 minutes',
+      ),
+    }),
+  );
   api.use(requireSignIn);
   api.use(regionsRouter());
   api.use(sitesRouter());
@@ -171,6 +229,8 @@ export function createApp(deps: AppDeps): Express {
 
   if (deps.webDist) {
     const root = path.resolve(deps.webDist);
+    // Source maps are not served: the build emits none, and one left in the folder stays private.
+    app.use((req, res, next) => (req.path.endsWith('.map') ? res.status(404).end() : next()));
     app.use(express.static(root, { index: false, maxAge: '1h' }));
     // Every other path is a page of the single-page app.
     app.get('/{*splat}', (_req, res) => res.sendFile(path.join(root, 'index.html')));

@@ -2,14 +2,15 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import pg from 'pg';
 import { createApp } from './app.js';
-import { databaseUrl, loadEnv, publicUrl } from './config/env.js';
+import { attemptLimitsOf, databaseUrl, loadEnv, publicUrl } from './config/env.js';
 import { Jobs } from './jobs/jobs.js';
 import { createSequelize } from './db/sequelize.js';
 
 const env = loadEnv();
 const url = databaseUrl(env);
 const sequelize = createSequelize(url);
-const sessionPool = new pg.Pool({ connectionString: url, max: 5 });
+// A connection that cannot be made within 10 s fails (503) rather than holding the request.
+const sessionPool = new pg.Pool({ connectionString: url, max: 5, connectionTimeoutMillis: 10_000 });
 const here = path.dirname(fileURLToPath(import.meta.url));
 
 const jobs = new Jobs(
@@ -44,7 +45,10 @@ const app = createApp({
   sessionSecret: env.SESSION_SECRET,
   trustProxy: env.TRUST_PROXY,
   webDist: env.WEB_DIST ?? path.resolve(here, '../../../dist/web'),
-  signInLimit: env.SIGN_IN_LIMIT,
+  attemptLimits: attemptLimitsOf(env),
+  sessionIdleMs: env.SESSION_IDLE_HOURS * 60 * 60 * 1000,
+  sessionMaxMs: env.SESSION_MAX_DAYS * 24 * 60 * 60 * 1000,
+  publicUrl: publicUrl(env),
   logLevel: env.LOG_LEVEL,
   jobs,
   mailCatcherDir: env.MAIL_CATCHER_DIR,

@@ -8,8 +8,10 @@ export const ERROR_CODES = [
   'NOT_FOUND',
   'CONFLICT',
   'PAYLOAD_TOO_LARGE',
+  'UNSUPPORTED_MEDIA_TYPE',
   'RATE_LIMITED',
   'UNAVAILABLE',
+  'INSUFFICIENT_STORAGE',
   'INTERNAL',
 ] as const;
 export type ErrorCode = (typeof ERROR_CODES)[number];
@@ -21,8 +23,12 @@ export const HTTP_STATUS_BY_CODE: Record<ErrorCode, number> = {
   NOT_FOUND: 404,
   CONFLICT: 409,
   PAYLOAD_TOO_LARGE: 413,
+  /** A body that is not JSON (or multipart on an upload route), or in a charset or encoding we do not read. */
+  UNSUPPORTED_MEDIA_TYPE: 415,
   RATE_LIMITED: 429,
   UNAVAILABLE: 503,
+  /** The server's disk (or the database's) is full: nothing was stored. */
+  INSUFFICIENT_STORAGE: 507,
   INTERNAL: 500,
 };
 

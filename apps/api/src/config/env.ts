@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { AttemptLimitSettings } from '../security/attempt-limits.js';
 
 function bool(fallback: 'true' | 'false') {
   return z
@@ -32,8 +33,30 @@ const envSchema = z.object({
   /** Folder with the built web app; served by the API in production. */
   WEB_DIST: z.string().optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
-  /** Sign-in attempts allowed per IP address in 15 minutes. */
-  SIGN_IN_LIMIT: z.coerce.number().int().min(1).default(20),
+  /** Failed sign-ins allowed per client address in 15 minutes (successes never count). */
+  SIGN_IN_LIMIT: z.coerce.number().int().min(1).default(30),
+  /** Failed sign-ins in a row after which an account waits before its next try; the wait doubles each time. */
+  SIGN_IN_LOCKOUT_AFTER: z.coerce.number().int().min(1).max(100).default(5),
+  SIGN_IN_LOCKOUT_BASE_SECONDS: z.coerce.number().int().min(1).max(3600).default(60),
+  SIGN_IN_LOCKOUT_MAX_MINUTES: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .max(24 * 60)
+    .default(15),
+  /** Failed password changes per person, reset requests per address and per e-mail address, and failed uses of
+   * mailed links (invitations, resets) per address, each in 15 minutes. */
+  PASSWORD_CHANGE_LIMIT: z.coerce.number().int().min(1).default(10),
+  PASSWORD_RESET_REQUEST_LIMIT: z.coerce.number().int().min(1).default(10),
+  PASSWORD_RESET_EMAIL_LIMIT: z.coerce.number().int().min(1).default(3),
+  LINK_LIMIT: z.coerce.number().int().min(1).default(20),
+  /** A session ends after this long unused, and in any case this long after sign-in. */
+  SESSION_IDLE_HOURS: z.coerce
+    .number()
+    .positive()
+    .max(24 * 30)
+    .default(12),
+  SESSION_MAX_DAYS: z.coerce.number().positive().max(365).default(7),
   /** Set when the app sits behind a TLS-terminating load balancer: marks cookies Secure, trusts X-Forwarded-*. */
   TRUST_PROXY: z
     .enum(['true', 'false'])
@@ -87,6 +110,20 @@ export function databaseUrl(env: Env): string {
     ? `${encodeURIComponent(env.PGUSER)}:${encodeURIComponent(env.PGPASSWORD)}`
     : encodeURIComponent(env.PGUSER);
   return `postgres://${auth}@${env.PGHOST}:${env.PGPORT}/${encodeURIComponent(env.PGDATABASE)}`;
+}
+
+/** The attempt limits of security/attempt-limits.ts, from the environment. */
+export function attemptLimitsOf(env: Env): AttemptLimitSettings {
+  return {
+    signInPerAddress: env.SIGN_IN_LIMIT,
+    lockoutAfter: env.SIGN_IN_LOCKOUT_AFTER,
+    lockoutBaseSeconds: env.SIGN_IN_LOCKOUT_BASE_SECONDS,
+    lockoutMaxSeconds: env.SIGN_IN_LOCKOUT_MAX_MINUTES * 60,
+    passwordChangePerPerson: env.PASSWORD_CHANGE_LIMIT,
+    resetRequestsPerAddress: env.PASSWORD_RESET_REQUEST_LIMIT,
+    resetRequestsPerEmail: env.PASSWORD_RESET_EMAIL_LIMIT,
+    linkFailuresPerAddress: env.LINK_LIMIT,
+  };
 }
 
 /** The address links in e-mails start with. */

@@ -6,6 +6,8 @@ import { createApp } from '../app.js';
 import { testDatabaseUrl } from './test-database-url.js';
 import { createSequelize } from '../db/sequelize.js';
 import { Jobs, type JobsOptions } from '../jobs/jobs.js';
+import type { AttemptLimitSettings } from '../security/attempt-limits.js';
+import type { PhotoStorage } from '../modules/photos/photo-storage.js';
 
 export { testDatabaseUrl };
 
@@ -48,7 +50,12 @@ export function testJobsOptions(
  */
 export function startTestApp(
   options: {
-    signInLimit?: number;
+    /** Attempt limits; failed sign-ins per address are 1000 unless given (every test signs in from 127.0.0.1). */
+    attemptLimits?: Partial<AttemptLimitSettings>;
+    sessionIdleMs?: number;
+    sessionMaxMs?: number;
+    publicUrl?: string;
+    photoStorage?: PhotoStorage;
     mail?: { smtpPort?: number; workers?: boolean; catcherDir?: string; retryLimit?: number; cron?: string };
   } = {},
 ): TestContext {
@@ -61,7 +68,11 @@ export function startTestApp(
     sequelize,
     sessionPool: pool,
     sessionSecret: TEST_SESSION_SECRET,
-    signInLimit: options.signInLimit ?? 1000,
+    attemptLimits: { signInPerAddress: 1000, ...options.attemptLimits },
+    sessionIdleMs: options.sessionIdleMs,
+    sessionMaxMs: options.sessionMaxMs,
+    publicUrl: options.publicUrl,
+    photoStorage: options.photoStorage,
     logLevel: 'silent',
     jobs,
     mailCatcherDir: options.mail?.catcherDir,

@@ -47,8 +47,10 @@ const MESSAGE_BY_CODE: Record<ErrorCode, string> = {
   NOT_FOUND: 'That record does not exist or is outside your sites.',
   CONFLICT: 'That change clashes with a record that already exists.',
   PAYLOAD_TOO_LARGE: 'That file is too large to send.',
+  UNSUPPORTED_MEDIA_TYPE: 'Kerfline could not read what was sent. Reload the page and try again.',
   RATE_LIMITED: 'Too many attempts. Wait a minute and try again.',
   UNAVAILABLE: 'Kerfline is not available right now. Try again in a moment.',
+  INSUFFICIENT_STORAGE: 'The server has no room to store this. Nothing was saved; tell your administrator.',
   INTERNAL: 'Something went wrong on the server. Try again; if it keeps happening, tell your administrator.',
 };
 

@@ -39,6 +39,26 @@ export const passwordSchema = z
   .min(12, { message: 'must be at least 12 characters' })
   .max(200, { message: 'must be at most 200 characters' });
 
+/**
+ * The password rule every form states. The length is checked here (in the browser and the API alike); the
+ * API also refuses a password that is easy to guess — a common password, a word or name with digits, a
+ * keyboard run, the person's own name or address — using zxcvbn-ts and the word lists its packs ship.
+ */
+export const PASSWORD_HINT =
+  'At least 12 characters, and not easy to guess: a few unrelated words work well, a common password or your own name does not.';
+
+/**
+ * zxcvbn's score (0–4) a new password must reach. 3 means "safely unguessable": more than 10^8 guesses by its
+ * estimate, far beyond what the sign-in limits allow, and a safe margin against guessing a stolen hash offline.
+ */
+export const PASSWORD_MIN_SCORE = 3;
+
+/** The message for a password the strength check refused, with zxcvbn's warning (in English) when it gives one. */
+export function passwordTooGuessable(warning: string | null | undefined): string {
+  const why = warning ? ` (${warning.replace(/\.$/, '').replace(/^./, (c) => c.toLowerCase())})` : '';
+  return `is too easy to guess${why}; use three or four unrelated words, or a longer mix of words and digits`;
+}
+
 /** The parts of a person that say where their role applies. */
 export type Assignment = {
   role: Role;

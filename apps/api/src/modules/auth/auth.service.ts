@@ -6,6 +6,7 @@ import { Site } from '../sites/site.model.js';
 import { toUserDto } from '../users/user-dto.js';
 import { hashPassword, verifyPassword } from '../../security/passwords.js';
 import { AppError } from '../../errors.js';
+import { assertPasswordStrong } from '../../security/password-policy.js';
 import { inTransaction } from '../../db/models.js';
 import { endSessionsOf } from '../../security/sessions.js';
 
@@ -92,6 +93,7 @@ export async function changePassword(
   if (!user || !(await verifyPassword(user.passwordHash, input.currentPassword))) {
     throw AppError.validation('The current password is not right', [{ path: 'currentPassword', message: 'not right' }]);
   }
+  assertPasswordStrong(input.newPassword, 'newPassword', [user.email, user.name]);
   const passwordHash = await hashPassword(input.newPassword);
   await inTransaction(async (transaction) => {
     await user.update({ passwordHash, passwordChangedAt: new Date() }, { transaction });

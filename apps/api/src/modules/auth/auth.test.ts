@@ -117,40 +117,6 @@ describe('a session', () => {
   });
 });
 
-describe('the sign-in rate limit', () => {
-  it('answers 429 with the error body after too many attempts, counted in the database', async () => {
-    const limited = startTestApp({ signInLimit: 3 });
-    try {
-      for (let i = 0; i < 3; i += 1) {
-        await supertest(limited.app)
-          .post('/api/auth/sign-in')
-          .send({ email: 'x@test.example', password: 'wrong-password' })
-          .expect(401);
-      }
-      const blocked = await supertest(limited.app)
-        .post('/api/auth/sign-in')
-        .send({ email: 'admin@test.example', password: PASSWORD });
-      expect(blocked.status).toBe(429);
-      expect(blocked.body.error.code).toBe('RATE_LIMITED');
-      // A second process shares the count.
-      const other = startTestApp({ signInLimit: 3 });
-      try {
-        expect(
-          (
-            await supertest(other.app)
-              .post('/api/auth/sign-in')
-              .send({ email: 'admin@test.example', password: PASSWORD })
-          ).status,
-        ).toBe(429);
-      } finally {
-        await other.close();
-      }
-    } finally {
-      await limited.close();
-    }
-  });
-});
-
 describe('health', () => {
   it('answers 200 with the database reachable', async () => {
     const res = await supertest(ctx.app).get('/api/health');

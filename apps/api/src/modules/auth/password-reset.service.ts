@@ -1,6 +1,7 @@
 import { Op } from 'sequelize';
 import { PASSWORD_RESET_VALID_MINUTES, type PasswordReset as PasswordResetInput } from '@kerfline/domain/auth/schema';
 import { AppError } from '../../errors.js';
+import { assertPasswordStrong } from '../../security/password-policy.js';
 import { writeAudit } from '../../audit/write-audit.js';
 import { inTransaction } from '../../db/models.js';
 import { hashLinkToken, newLinkToken } from '../../security/link-tokens.js';
@@ -69,6 +70,7 @@ export async function completePasswordReset(input: PasswordResetInput): Promise<
     const user = await User.findByPk(reset.userId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!user || !user.active)
       throw new AppError('CONFLICT', 'This account is not active. Ask your site admin or an administrator.');
+    assertPasswordStrong(input.newPassword, 'newPassword', [user.email, user.name]);
     const before = { passwordChangedAt: user.passwordChangedAt };
     const now = new Date();
     await user.update({ passwordHash, passwordChangedAt: now }, { transaction });

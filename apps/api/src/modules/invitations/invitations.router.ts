@@ -1,4 +1,4 @@
-import { Router, type RequestHandler } from 'express';
+import { Router, type ErrorRequestHandler, type Request, type RequestHandler, type Response } from 'express';
 import { z } from 'zod';
 import {
   invitationAcceptSchema,
@@ -25,14 +25,31 @@ const params = z.object({ id: idSchema });
  * The invited person's two routes (no session: the link's secret is the proof) and the inviters' routes.
  * The secret travels in the body, never in an address, so it reaches no access log.
  */
-export function invitationsRouter(deps: { mail: MailQueue; linkLimiter: RequestHandler }): Router {
+export function invitationsRouter(deps: {
+  mail: MailQueue;
+  /** Failed uses of invitation links per address (app.ts): `guard` after validation, `count` last. */
+  linkLimit: { guard: RequestHandler; count: ErrorRequestHandler };
+}): Router {
   const router = Router();
-  router.post('/invitations/preview', deps.linkLimiter, validate('body', invitationLookupSchema), async (_req, res) => {
-    res.json(await previewInvitation(parsed(res, 'body', invitationLookupSchema).token));
-  });
-  router.post('/invitations/accept', deps.linkLimiter, validate('body', invitationAcceptSchema), async (_req, res) => {
-    res.status(201).json(await acceptInvitation(parsed(res, 'body', invitationAcceptSchema)));
-  });
+  const { guard, count } = deps.linkLimit;
+  router.post(
+    '/invitations/preview',
+    validate('body', invitationLookupSchema),
+    guard,
+    async (_req: Request, res: Response) => {
+      res.json(await previewInvitation(parsed(res, 'body', invitationLookupSchema).token));
+    },
+    count,
+  );
+  router.post(
+    '/invitations/accept',
+    validate('body', invitationAcceptSchema),
+    guard,
+    async (_req: Request, res: Response) => {
+      res.status(201).json(await acceptInvitation(parsed(res, 'body', invitationAcceptSchema)));
+    },
+    count,
+  );
 
   router.get('/invitations', requireSignIn, validate('query', invitationListQuerySchema), async (_req, res) => {
     res.json(await listInvitations(abilityOf(res), parsed(res, 'query', invitationListQuerySchema)));

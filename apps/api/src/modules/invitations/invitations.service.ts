@@ -13,6 +13,7 @@ import {
 import type { Page } from '@kerfline/domain/common/schema';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
+import { assertPasswordStrong } from '../../security/password-policy.js';
 import { writeAudit, type Actor } from '../../audit/write-audit.js';
 import { inTransaction } from '../../db/models.js';
 import { hashLinkToken, newLinkToken } from '../../security/link-tokens.js';
@@ -335,6 +336,7 @@ export async function acceptInvitation(input: InvitationAccept): Promise<{ email
     if (problem) throw problem;
     if (await User.findOne({ where: { email: invitation.email }, attributes: ['id'], transaction }))
       throw new AppError('CONFLICT', `An account for ${invitation.email} exists already; sign in with it instead.`);
+    assertPasswordStrong(input.password, 'password', [invitation.email, input.name]);
     const user = await User.create(
       {
         email: invitation.email,

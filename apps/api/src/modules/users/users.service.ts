@@ -12,6 +12,7 @@ import {
 import type { Page } from '@kerfline/domain/common/schema';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
+import { assertPasswordStrong } from '../../security/password-policy.js';
 import { hashPassword } from '../../security/passwords.js';
 import { endSessionsOf } from '../../security/sessions.js';
 import { writeAudit, type Actor } from '../../audit/write-audit.js';
@@ -85,6 +86,7 @@ export async function createUser({ ability, userId }: Actor, input: UserCreatePa
   // Adding with a password stays with administrators; everyone else invites.
   ForbiddenError.from(ability).setMessage('Invite people by e-mail instead').throwUnlessCan('manage', 'all');
   await assertAssignmentTargets(ability, input);
+  assertPasswordStrong(input.password, 'password', [input.email, input.name]);
   const uniqueManaged = [...new Set(input.managedSiteIds)];
   const passwordHash = await hashPassword(input.password);
   const user = await inTransaction(async (transaction) => {
