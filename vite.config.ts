@@ -19,7 +19,9 @@ export default defineConfig({
   build: {
     outDir: 'dist/web',
     emptyOutDir: true,
-    sourcemap: true,
+    // No source maps in the production build: the server would otherwise hand out the app's source (the API
+    // also refuses any .map file left in the folder).
+    sourcemap: false,
   },
   server: {
     port: 5173,

@@ -48,4 +48,39 @@ describe('turning thrown values into one error shape', () => {
     expect(error.message).not.toMatch(/secret/);
     expect(internal).toBe(true);
   });
+
+  it('keeps the 4xx an error carries (body-parser, http-errors, the router), with the one error body', () => {
+    const withStatus = (status: number, extra: Record<string, unknown> = {}) =>
+      Object.assign(new Error('library words'), { status, ...extra });
+    expect(toAppError(withStatus(413, { type: 'entity.too.large' })).error.code).toBe('PAYLOAD_TOO_LARGE');
+    expect(toAppError(withStatus(415, { type: 'charset.unsupported' })).error.code).toBe('UNSUPPORTED_MEDIA_TYPE');
+    expect(toAppError(withStatus(404)).error.code).toBe('NOT_FOUND');
+    expect(toAppError(Object.assign(new Error('x'), { statusCode: 400 })).error.code).toBe('VALIDATION_FAILED');
+    // A 4xx without a code of its own keeps its status.
+    const odd = toAppError(withStatus(416));
+    expect(odd).toMatchObject({ internal: false, status: 416 });
+    expect(odd.error.message).toMatch(/HTTP 416/);
+    // Never a server error's status, and never the library's own words.
+    const server = toAppError(withStatus(502));
+    expect(server.error.code).toBe('INTERNAL');
+    expect(toAppError(withStatus(400)).error.message).not.toMatch(/library words/);
+  });
+
+  it('answers 503 when the database is away or restarting, whatever layer reports it', () => {
+    const pg = (code: string) =>
+      Object.assign(new Error('terminating connection due to administrator command'), { code });
+    for (const code of ['57P01', '57P03', '08006', 'ECONNREFUSED']) {
+      expect(toAppError(pg(code)).error.code, code).toBe('UNAVAILABLE');
+      expect(toAppError({ name: 'SequelizeDatabaseError', parent: pg(code) }).error.code, code).toBe('UNAVAILABLE');
+    }
+    expect(toAppError(new Error('Connection terminated unexpectedly')).error.code).toBe('UNAVAILABLE');
+  });
+
+  it('answers 507 with a clear message when the disk is full: a file store’s ENOSPC or PostgreSQL’s 53100', () => {
+    const enospc = Object.assign(new Error('ENOSPC: no space left on device, write'), { code: 'ENOSPC' });
+    const disk = toAppError(enospc);
+    expect(disk.error.code).toBe('INSUFFICIENT_STORAGE');
+    expect(disk.error.message).toMatch(/nothing was saved/);
+    expect(toAppError({ parent: { code: '53100' } }).error.code).toBe('INSUFFICIENT_STORAGE');
+  });
 });

@@ -29,9 +29,11 @@ function zxcvbn(): ZxcvbnFactory {
  * `personal` holds the person's own words (e-mail, name), which make a password easy to guess for them.
  */
 export function passwordWeakness(password: string, personal: readonly (string | null | undefined)[]): string | null {
-  const words = personal
-    .flatMap((p) => (p ? p.toLowerCase().split(/[^\p{L}\p{N}]+/u) : []))
-    .filter((w) => w.length >= 3);
+  // Each word of a name or address, and the words run together ("dalepruitt" from "Dale Pruitt").
+  const words = personal.flatMap((p) => {
+    const parts = (p ?? '').toLowerCase().split('@')[0]!.split(/[^\p{L}\p{N}]+/u);
+    return [...parts, parts.join('')].filter((w) => w.length >= 3);
+  });
   const result = zxcvbn().check(password, [...words, 'kerfline', 'corvane']);
   if (result.score >= PASSWORD_MIN_SCORE) return null;
   return passwordTooGuessable(result.feedback.warning);

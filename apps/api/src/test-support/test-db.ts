@@ -55,6 +55,8 @@ export function startTestApp(
     sessionIdleMs?: number;
     sessionMaxMs?: number;
     publicUrl?: string;
+    trustProxy?: boolean;
+    webDist?: string;
     photoStorage?: PhotoStorage;
     mail?: { smtpPort?: number; workers?: boolean; catcherDir?: string; retryLimit?: number; cron?: string };
   } = {},
@@ -72,6 +74,8 @@ export function startTestApp(
     sessionIdleMs: options.sessionIdleMs,
     sessionMaxMs: options.sessionMaxMs,
     publicUrl: options.publicUrl,
+    trustProxy: options.trustProxy,
+    webDist: options.webDist,
     photoStorage: options.photoStorage,
     logLevel: 'silent',
     jobs,

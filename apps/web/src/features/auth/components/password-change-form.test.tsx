@@ -4,6 +4,7 @@ import userEvent from '@testing-library/user-event';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { createQueryClient } from '../../../lib/query-client';
 import { installFakeApi } from '../../../test-support/fake-api';
+import { PASSWORD_HINT, passwordTooGuessable } from '@kerfline/domain/users/schema';
 import { PasswordChangeForm } from './password-change-form';
 
 function renderForm() {
@@ -45,6 +46,33 @@ describe('changing one’s password', () => {
     await user.click(screen.getByRole('button', { name: 'Change password' }));
     expect(await screen.findByText('not right')).toBeInTheDocument();
     expect(screen.getByLabelText('Current password')).toHaveAttribute('aria-invalid', 'true');
+  });
+
+  it('states the password rule, and puts the server’s strength refusal beside the new password', async () => {
+    const weak = passwordTooGuessable('This is similar to a commonly used password.');
+    installFakeApi({
+      'POST /api/me/password': {
+        status: 400,
+        body: {
+          error: {
+            code: 'VALIDATION_FAILED',
+            message: 'Choose a harder password',
+            details: [{ path: 'newPassword', message: weak }],
+          },
+        },
+      },
+    });
+    const user = renderForm();
+    expect(screen.getByText(PASSWORD_HINT)).toBeInTheDocument();
+    await user.type(screen.getByLabelText('Current password'), 'old-password-1');
+    await user.type(screen.getByLabelText('New password'), 'password1234');
+    await user.click(screen.getByRole('button', { name: 'Change password' }));
+    expect(
+      await screen.findByText(
+        'is too easy to guess (this is similar to a commonly used password); use three or four unrelated words, or a longer mix of words and digits',
+      ),
+    ).toBeInTheDocument();
+    expect(screen.getByLabelText('New password')).toHaveAttribute('aria-invalid', 'true');
   });
 
   it('sends both passwords, says it worked and empties the fields', async () => {

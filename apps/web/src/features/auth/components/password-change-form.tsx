@@ -6,6 +6,7 @@ import { Button } from '../../../lib/ui/button';
 import { Field, inputClass } from '../../../lib/ui/field';
 import { Notice } from '../../../lib/ui/notice';
 import { useChangePassword } from '../api/mutations';
+import { PASSWORD_HINT } from '@kerfline/domain/users/schema';
 
 const FIELDS = new Set<keyof PasswordChange>(['currentPassword', 'newPassword']);
 
@@ -58,7 +59,7 @@ export function PasswordChangeForm() {
           />
         )}
       </Field>
-      <Field label="New password" hint="At least 12 characters." error={errors.newPassword?.message}>
+      <Field label="New password" hint={PASSWORD_HINT} error={errors.newPassword?.message}>
         {(props) => (
           <input
             {...props}

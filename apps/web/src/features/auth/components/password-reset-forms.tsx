@@ -11,6 +11,7 @@ import { Button } from '../../../lib/ui/button';
 import { Field, inputClass } from '../../../lib/ui/field';
 import { Notice } from '../../../lib/ui/notice';
 import { useRequestPasswordReset, useResetPassword } from '../api/mutations';
+import { PASSWORD_HINT } from '@kerfline/domain/users/schema';
 
 /** Asks for a reset link. The answer reads the same whether or not the address has an account. */
 export function PasswordResetRequestForm() {
@@ -78,11 +79,7 @@ export function PasswordResetForm({ token, onDone }: { token: string; onDone: ()
       {errors.root?.server?.message ? (
         <Notice title="The password was not changed">{errors.root.server.message}</Notice>
       ) : null}
-      <Field
-        label="New password"
-        hint="At least 12 characters. A few words you will remember work well."
-        error={errors.newPassword?.message}
-      >
+      <Field label="New password" hint={PASSWORD_HINT} error={errors.newPassword?.message}>
         {(props) => (
           <div className="flex gap-2">
             <input

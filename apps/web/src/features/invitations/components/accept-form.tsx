@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { invitationAcceptSchema, type InvitationPreview } from '@kerfline/domain/invitations/schema';
-import { ROLE_LABELS } from '@kerfline/domain/users/schema';
+import { PASSWORD_HINT, ROLE_LABELS } from '@kerfline/domain/users/schema';
 import { showServerError } from '../../../lib/form-errors';
 import { Button } from '../../../lib/ui/button';
 import { Field, inputClass } from '../../../lib/ui/field';
@@ -60,11 +60,7 @@ export function AcceptInvitationForm({
       </Field>
       {/* Lets password managers file the new password under the right address. */}
       <input type="hidden" name="username" autoComplete="username" value={preview.email} readOnly />
-      <Field
-        label="Choose a password"
-        hint="At least 12 characters. A few words you will remember work well."
-        error={errors.password?.message}
-      >
+      <Field label="Choose a password" hint={PASSWORD_HINT} error={errors.password?.message}>
         {(props) => (
           <div className="flex gap-2">
             <input

@@ -8,6 +8,7 @@ import {
   userUpdateSchema,
   type Role,
   type UserUpdate,
+  PASSWORD_HINT,
 } from '@kerfline/domain/users/schema';
 import { invitationCreateSchema, type InvitationCreateParsed } from '@kerfline/domain/invitations/schema';
 import { domainSchemaResolver, showServerError } from '../../../lib/form-errors';
@@ -339,7 +340,7 @@ export function PersonForm(props: PersonFormProps) {
           <legend className="mb-2 text-sm font-bold tracking-wider text-ink-muted uppercase">First password</legend>
           <Field
             label="Password"
-            hint="At least 12 characters. Give this password to the person yourself, and ask them to change it as soon as they can."
+            hint={`${PASSWORD_HINT} Give this password to the person yourself, and ask them to change it as soon as they can.`}
             error={errors.password?.message}
             className="sm:col-span-2"
           >

@@ -1,0 +1,55 @@
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import supertest from 'supertest';
+import { QueryTypes } from 'sequelize';
+import { startTestApp, type TestContext } from '../test-support/test-db.js';
+import { buildWorld, PASSWORD } from '../test-support/fixtures.js';
+
+// An absolute lifetime of 2 s against an idle timeout of an hour: only the absolute one can end the session.
+const MAX_MS = 2000;
+let ctx: TestContext;
+
+beforeAll(() => {
+  ctx = startTestApp({ sessionIdleMs: 60 * 60 * 1000, sessionMaxMs: MAX_MS });
+});
+afterAll(async () => ctx.close());
+beforeEach(async () => {
+  await buildWorld(ctx.sequelize);
+});
+
+describe('a session', () => {
+  it('ends at its absolute lifetime however active it is, in every process and in the store', async () => {
+    const signedIn = Date.now();
+    const res = await supertest(ctx.app)
+      .post('/api/auth/sign-in')
+      .send({ email: 'admin@test.example', password: PASSWORD })
+      .expect(200);
+    const cookie = res.headers['set-cookie']![0]!.split(';')[0]!;
+    const other = startTestApp({ sessionIdleMs: 60 * 60 * 1000, sessionMaxMs: MAX_MS });
+    try {
+      // Active all along: each request would push an idle timeout further out.
+      await supertest(ctx.app).get('/api/me').set('Cookie', cookie).expect(200);
+      await supertest(other.app).get('/api/me').set('Cookie', cookie).expect(200);
+      // The store's own expiry is capped at the absolute end, so no process is handed the session after it.
+      const [row] = await ctx.sequelize.query<{ expire: Date }>('SELECT expire FROM sessions', {
+        type: QueryTypes.SELECT,
+      });
+      expect(new Date(row!.expire).getTime()).toBeLessThanOrEqual(signedIn + MAX_MS + 1000);
+
+      await new Promise((resolve) => setTimeout(resolve, MAX_MS + 200));
+      const ended = await supertest(other.app).get('/api/me').set('Cookie', cookie);
+      expect(ended.status).toBe(401);
+      expect((await supertest(ctx.app).get('/api/me').set('Cookie', cookie)).status).toBe(401);
+    } finally {
+      await other.close();
+    }
+  });
+
+  it('starts a new lifetime at the next sign-in', async () => {
+    const agent = supertest.agent(ctx.app);
+    await agent.post('/api/auth/sign-in').send({ email: 'admin@test.example', password: PASSWORD }).expect(200);
+    await new Promise((resolve) => setTimeout(resolve, MAX_MS + 200));
+    expect((await agent.get('/api/me')).status).toBe(401);
+    await agent.post('/api/auth/sign-in').send({ email: 'admin@test.example', password: PASSWORD }).expect(200);
+    await agent.get('/api/me').expect(200);
+  });
+});
