@@ -31,7 +31,10 @@ function zxcvbn(): ZxcvbnFactory {
 export function passwordWeakness(password: string, personal: readonly (string | null | undefined)[]): string | null {
   // Each word of a name or address, and the words run together ("dalepruitt" from "Dale Pruitt").
   const words = personal.flatMap((p) => {
-    const parts = (p ?? '').toLowerCase().split('@')[0]!.split(/[^\p{L}\p{N}]+/u);
+    const parts = (p ?? '')
+      .toLowerCase()
+      .split('@')[0]!
+      .split(/[^\p{L}\p{N}]+/u);
     return [...parts, parts.join('')].filter((w) => w.length >= 3);
   });
   const result = zxcvbn().check(password, [...words, 'kerfline', 'corvane']);

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { idSchema } from '../common/schema.js';
+import { idSchema, isPlainText } from '../common/schema.js';
 
 /**
  * Pieces shared by the records a site keeps (blade runs, stops, cut logs, stock receipts, photos): times,
@@ -35,9 +35,9 @@ export const notesSchema = z
   .string()
   .trim()
   .max(2000, { message: 'Notes must be at most 2000 characters' })
-  // eslint-disable-next-line no-control-regex
-  .refine((v) => !/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/.test(v), {
-    message: 'Notes must not contain control characters',
+  // Line breaks and tabs stay; other controls, invisible formatting characters and lone surrogates do not.
+  .refine((v) => isPlainText(v, { multiline: true }), {
+    message: 'Notes must not contain control characters or invisible characters (such as direction marks)',
   })
   .transform((v) => (v === '' ? null : v))
   .nullable();
