@@ -4,7 +4,7 @@ import { sawCreateSchema, sawListQuerySchema, sawUpdateSchema } from '@kerfline/
 import { idSchema } from '@kerfline/domain/common/schema';
 import { abilityOf, actorOf } from '../../http/authenticate.js';
 import { parsed, validate } from '../../http/validate.js';
-import { createSaw, getSaw, listSaws, retireSaw, updateSaw } from './saws.service.js';
+import { createSaw, getSaw, listSaws, restoreSaw, retireSaw, updateSaw } from './saws.service.js';
 
 const params = z.object({ id: idSchema });
 
@@ -24,6 +24,9 @@ export function sawsRouter(): Router {
   });
   router.post('/saws/:id/retire', validate('params', params), async (_req, res) => {
     res.json(await retireSaw(actorOf(res), parsed(res, 'params', params).id));
+  });
+  router.post('/saws/:id/restore', validate('params', params), async (_req, res) => {
+    res.json(await restoreSaw(actorOf(res), parsed(res, 'params', params).id));
   });
   return router;
 }

@@ -199,3 +199,26 @@ export async function retireSaw({ ability, userId }: Actor, id: string): Promise
   });
   return toSawDto(saw);
 }
+
+/**
+ * Brings a retired saw back into service (whoever may change it: an administrator, its site's site admin), so a
+ * saw retired by mistake is never lost. Its site must be in use; its asset tag must still be free there.
+ */
+export async function restoreSaw({ ability, userId }: Actor, id: string): Promise<SawDto> {
+  const saw = await findReadable(ability, id);
+  ForbiddenError.from(ability)
+    .setMessage('You cannot bring this saw back')
+    .throwUnlessCan('update', subject('Saw', saw.get({ plain: true })));
+  if (saw.status !== 'retired') throw new AppError('CONFLICT', 'This saw is in service already');
+  const site = await Site.findByPk(saw.siteId, { attributes: ['retiredAt'] });
+  if (site?.retiredAt)
+    throw new AppError('CONFLICT', 'This saw’s site is retired; an administrator must bring the site back first');
+  await inTransaction(async (transaction) => {
+    const before = auditValues(saw);
+    await saw.update({ status: 'in_service', retiredAt: null }, { transaction });
+    await writeAudit(transaction, userId, [
+      { siteId: saw.siteId, entity: 'Saw', entityId: saw.id, action: 'restore', before, after: auditValues(saw) },
+    ]);
+  });
+  return getSaw(ability, id);
+}

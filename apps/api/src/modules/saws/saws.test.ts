@@ -227,3 +227,36 @@ describe('changing and retiring a saw', () => {
     expect((await admin.get(`/api/saws/${id}`)).body.siteId).toBe(world.sites.A.id);
   });
 });
+
+describe('bringing a retired saw back', () => {
+  it('puts a saw retired by mistake back in service, audited, for its site admin or an administrator only', async () => {
+    const siteAdmin = await as('siteadmin-a@test.example');
+    const saw = world.saws.A![0]!;
+    await siteAdmin.post(`/api/saws/${saw.id}/retire`).expect(200);
+    for (const email of ['tech-a@test.example', 'manager-all@test.example'])
+      expect((await (await as(email)).post(`/api/saws/${saw.id}/restore`)).status, email).toBe(403);
+    expect((await (await as('tech-c@test.example')).post(`/api/saws/${saw.id}/restore`)).status).toBe(404);
+
+    const back = await siteAdmin.post(`/api/saws/${saw.id}/restore`);
+    expect(back.status).toBe(200);
+    expect(back.body).toMatchObject({ status: 'in_service', retiredAt: null });
+    expect(tags((await siteAdmin.get('/api/saws')).body)).toContain(saw.assetTag);
+    const audit = await (await as('admin@test.example')).get(`/api/audit?entity=Saw&entityId=${saw.id}`);
+    expect(audit.body.items.map((e: { action: string }) => e.action)).toEqual(['restore', 'retire']);
+    expect((await siteAdmin.post(`/api/saws/${saw.id}/restore`)).status).toBe(409);
+    // The long-retired one from the fixtures comes back for an administrator too.
+    expect((await (await as('admin@test.example')).post(`/api/saws/${world.retiredA.id}/restore`)).status).toBe(200);
+  });
+
+  it('waits for its site to be brought back first', async () => {
+    const admin = await as('admin@test.example');
+    const saw = world.saws.B![0]!;
+    await admin.post(`/api/saws/${saw.id}/retire`).expect(200);
+    await admin.post(`/api/sites/${world.sites.B.id}/retire`).expect(200);
+    const refused = await admin.post(`/api/saws/${saw.id}/restore`);
+    expect(refused.status).toBe(409);
+    expect(refused.body.error.message).toMatch(/site is retired/);
+    await admin.post(`/api/sites/${world.sites.B.id}/restore`).expect(200);
+    await admin.post(`/api/saws/${saw.id}/restore`).expect(200);
+  });
+});

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { render, screen, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
 import { createMemoryRouter } from 'react-router-dom';
 import { createQueryClient } from '../../../lib/query-client';
 import { installFakeApi } from '../../../test-support/fake-api';
@@ -53,5 +54,35 @@ describe('the saw page', () => {
     renderApp(`/saws/${SAW_ID}`);
     expect(await screen.findByText(/Retired on/)).toBeInTheDocument();
     expect(screen.queryByRole('navigation', { name: 'Figures for the band on this saw' })).not.toBeInTheDocument();
+  });
+
+  it('lets a site admin bring a retired saw back into service; a technician sees no such button', async () => {
+    const retired = makeSaw({ status: 'retired', retiredAt: '2025-06-30T12:00:00.000Z' });
+    const { requests } = installFakeApi({
+      'GET /api/me': { status: 200, body: makeMe('site_admin') },
+      'GET /api/sites': { status: 200, body: page([makeSite()]) },
+      [`GET /api/saws/${SAW_ID}`]: { status: 200, body: retired },
+      [`GET /api/sites/${SITE_ID}`]: { status: 200, body: makeSite() },
+      [`POST /api/saws/${SAW_ID}/restore`]: { status: 200, body: makeSaw() },
+    });
+    renderApp(`/saws/${SAW_ID}`);
+    await userEvent.setup().click(await screen.findByRole('button', { name: 'Bring back into service' }));
+    expect(await screen.findByText(/is back in service/)).toBeInTheDocument();
+    expect(requests.some((r) => r.method === 'POST' && r.path === `/api/saws/${SAW_ID}/restore`)).toBe(true);
+  });
+
+  it('shows a technician no way to bring a retired saw back', async () => {
+    installFakeApi({
+      'GET /api/me': { status: 200, body: makeMe('technician') },
+      'GET /api/sites': { status: 200, body: page([makeSite()]) },
+      [`GET /api/saws/${SAW_ID}`]: {
+        status: 200,
+        body: makeSaw({ status: 'retired', retiredAt: '2025-06-30T12:00:00.000Z' }),
+      },
+      [`GET /api/sites/${SITE_ID}`]: { status: 200, body: makeSite() },
+    });
+    renderApp(`/saws/${SAW_ID}`);
+    expect(await screen.findByText(/Retired on/)).toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: 'Bring back into service' })).not.toBeInTheDocument();
   });
 });

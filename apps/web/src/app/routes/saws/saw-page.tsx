@@ -10,7 +10,7 @@ import { Notice } from '../../../lib/ui/notice';
 import { formatDate } from '../../../lib/format';
 import { siteSettingsQuery } from '../../../features/site-settings/api/queries';
 import { sawDetailQuery } from '../../../features/saws/api/queries';
-import { useRetireSaw } from '../../../features/saws/api/mutations';
+import { useRestoreSaw, useRetireSaw } from '../../../features/saws/api/mutations';
 import { SawDetailPanel } from '../../../features/saws/components/saw-detail-panel';
 import { SawFiguresPanel } from '../../../features/saws/components/saw-figures-panel';
 import { SawStatusBadge } from '../../../features/saws/components/saw-status-badge';
@@ -40,11 +40,12 @@ export function SawPage() {
   const ability = useAppAbility();
   const queryClient = useQueryClient();
   const retire = useRetireSaw(saw.id);
+  const restore = useRestoreSaw(saw.id);
   const [confirming, setConfirming] = useState(false);
   const confirmRef = useRef<HTMLHeadingElement>(null);
 
-  const canChange =
-    saw.status !== 'retired' && ability.can('update', subject('Saw', { id: saw.id, siteId: saw.siteId }));
+  const mayUpdate = ability.can('update', subject('Saw', { id: saw.id, siteId: saw.siteId }));
+  const canChange = saw.status !== 'retired' && mayUpdate;
 
   const askToRetire = () => {
     setConfirming(true);
@@ -103,6 +104,18 @@ export function SawPage() {
             </p>
           ) : null}
         </div>
+        {saw.status === 'retired' && mayUpdate ? (
+          <Button
+            onClick={() =>
+              restore.mutate(undefined, {
+                onSuccess: () => void queryClient.invalidateQueries({ queryKey: siteKeys.detail(saw.siteId) }),
+              })
+            }
+            disabled={restore.isPending}
+          >
+            {restore.isPending ? 'Bringing it back…' : 'Bring back into service'}
+          </Button>
+        ) : null}
         {canChange ? (
           <div className="flex flex-wrap gap-2">
             <LinkButton to={`/saws/${saw.id}/edit`} variant="primary">
@@ -136,7 +149,11 @@ export function SawPage() {
           </div>
         </Card>
       ) : null}
-      {retire.isSuccess ? <Notice tone="info">{saw.assetTag} is retired.</Notice> : null}
+      {retire.isSuccess && saw.status === 'retired' ? <Notice tone="info">{saw.assetTag} is retired.</Notice> : null}
+      {restore.isError ? <Notice title="The saw was not brought back">{restore.error.message}</Notice> : null}
+      {restore.isSuccess && saw.status !== 'retired' ? (
+        <Notice tone="info">{saw.assetTag} is back in service.</Notice>
+      ) : null}
 
       {saw.status !== 'retired' ? (
         <nav aria-label="Figures for the band on this saw" className="flex flex-wrap gap-2">

@@ -34,3 +34,12 @@ export function useRetireSaw(id: string) {
     onSuccess: (saw) => storeSaved(queryClient, saw),
   });
 }
+
+/** Brings a retired saw back into service (one retired by mistake); its history never left. */
+export function useRestoreSaw(id: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: () => api.post(`/saws/${encodeURIComponent(id)}/restore`, undefined, sawSchema),
+    onSuccess: (saw) => storeSaved(queryClient, saw),
+  });
+}
