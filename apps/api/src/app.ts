@@ -185,6 +185,7 @@ export function createApp(deps: AppDeps): Express {
           'Reset links for this address were asked for several times in the last 15 minutes; use the newest e-mail',
         ),
       ],
+      clearSignInWait: (email) => attempts.clearAccount(email),
       resetLimit: attempts.failureLimit(
         'reset',
         () => limits.linkFailuresPerAddress,

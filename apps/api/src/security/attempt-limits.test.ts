@@ -3,6 +3,8 @@ import supertest from 'supertest';
 import { startTestApp, type TestContext } from '../test-support/test-db.js';
 import { buildWorld, PASSWORD, type World } from '../test-support/fixtures.js';
 import { hashPassword } from './passwords.js';
+import { newLinkToken } from './link-tokens.js';
+import { PasswordReset } from '../modules/auth/password-reset.model.js';
 import { User } from '../modules/users/user.model.js';
 import type { AttemptLimitSettings } from './attempt-limits.js';
 
@@ -103,6 +105,20 @@ describe('an account after failed sign-ins', () => {
 
     await sleep(1100);
     expect((await signIn('tech-a@test.example', PASSWORD)).status).toBe(200);
+  });
+
+  it('ends the wait when the person chooses a new password with a reset link', async () => {
+    for (let i = 1; i <= 3; i += 1) await signIn('tech-a@test.example', `wrong-guess-${i}`);
+    const locked = await signIn('tech-a@test.example', PASSWORD);
+    expect(locked.status).toBe(429);
+    expect(locked.body.error.message).toMatch(/or choose a new password with a link/);
+    const { token, tokenHash } = newLinkToken();
+    await PasswordReset.create({ userId: world.users.techA.id, tokenHash, expiresAt: new Date(Date.now() + 600_000) });
+    await supertest(ctx.app)
+      .post('/api/auth/password-reset')
+      .send({ token, newPassword: 'copper-lantern-orbit-7' })
+      .expect(204);
+    expect((await signIn('tech-a@test.example', 'copper-lantern-orbit-7')).status).toBe(200);
   });
 
   it('doubles the wait with each further failure', async () => {

@@ -67,10 +67,10 @@ function waitWords(seconds: number): string {
 }
 
 /** A 429 that says how long to wait, with `Retry-After` set on the answer. */
-export function tooMany(res: Response | undefined, seconds: number, what: string): AppError {
+export function tooMany(res: Response | undefined, seconds: number, what: string, otherwise = ''): AppError {
   const wait = Math.max(1, Math.ceil(seconds));
   res?.set('Retry-After', String(wait));
-  return new AppError('RATE_LIMITED', `${what}; wait ${waitWords(wait)} and try again`);
+  return new AppError('RATE_LIMITED', `${what}; wait ${waitWords(wait)} and try again${otherwise}`);
 }
 
 export class AttemptCounters {
@@ -131,7 +131,8 @@ export class AttemptCounters {
    * Counts a sign-in attempt for an account before its password is checked. The row's `hits` are the failures
    * in a row and `reset_at` the moment it may try again (or, when not locked, its last failure). The attempt
    * that reaches `lockoutAfter` sets the wait at once, so parallel guesses meet the lock; a success then clears
-   * the row. Returns null when the attempt may go ahead (`locksNow` says it locked the account), or the wait.
+   * the row. `waitSeconds` null: the attempt may go ahead (`locksForSeconds`: the wait it set, if it fails);
+   * otherwise the account is waiting that long.
    */
   async claimAccount(
     email: string,
@@ -202,7 +203,8 @@ export class AttemptCounters {
       throw tooMany(
         req.res,
         account.waitSeconds,
-        'Too many failed sign-ins for this account in a row; to keep it safe it waits before the next try',
+        'Too many failed sign-ins for this account in a row, so to keep it safe it waits before the next try',
+        ', or choose a new password with a link from "Forgotten your password?", which works at once',
       );
     }
     let user: U | null;

@@ -36,6 +36,8 @@ export function authRouter(deps: {
   passwordChangeLimit: FailureLimit;
   resetRequestLimits: RequestHandler[];
   resetLimit: FailureLimit;
+  /** Forgets an account's failed sign-ins: a completed reset proves the mailbox, so its wait ends at once. */
+  clearSignInWait: (email: string) => Promise<void>;
 }): Router {
   const router = Router();
 
@@ -51,7 +53,7 @@ export function authRouter(deps: {
           new AppError(
             'UNAUTHENTICATED',
             locked > 0
-              ? `${NO_MATCH}. After several failed tries in a row, the next try waits ${minutes === 1 ? '1 minute' : `${minutes} minutes`}; a reset link from "Forgot your password?" works at once`
+              ? `${NO_MATCH}. After several failed tries in a row, the next try waits ${minutes === 1 ? '1 minute' : `${minutes} minutes`}; a link to choose a new password ("Forgotten your password?") works at once`
               : NO_MATCH,
           ),
         );
@@ -101,7 +103,8 @@ export function authRouter(deps: {
     validate('body', passwordResetSchema),
     deps.resetLimit.guard,
     async (_req: Request, res: Response) => {
-      await completePasswordReset(parsed(res, 'body', passwordResetSchema));
+      const { email } = await completePasswordReset(parsed(res, 'body', passwordResetSchema));
+      await deps.clearSignInWait(email);
       res.status(204).end();
     },
     deps.resetLimit.count,

@@ -44,9 +44,9 @@ export async function requestPasswordReset(email: string, mail: MailQueue): Prom
  * Sets a new password from a reset link, uses the link up and ends every session of that person, in one
  * transaction: whoever knew the old password is signed out everywhere.
  */
-export async function completePasswordReset(input: PasswordResetInput): Promise<void> {
+export async function completePasswordReset(input: PasswordResetInput): Promise<{ email: string }> {
   const passwordHash = await hashPassword(input.newPassword);
-  await inTransaction(async (transaction) => {
+  return inTransaction(async (transaction) => {
     const reset = await PasswordReset.findOne({
       where: { tokenHash: hashLinkToken(input.token) },
       transaction,
@@ -86,5 +86,6 @@ export async function completePasswordReset(input: PasswordResetInput): Promise<
         after: { passwordChangedAt: now, passwordChangedBy: 'reset link' },
       },
     ]);
+    return { email: user.email };
   });
 }
