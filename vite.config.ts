@@ -44,6 +44,7 @@ export default defineConfig({
           environment: 'jsdom',
           include: ['apps/web/src/**/*.test.{ts,tsx}'],
           setupFiles: ['apps/web/src/test-setup.ts'],
+          testTimeout: 20000,
         },
       },
       {

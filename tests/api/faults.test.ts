@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -48,6 +48,8 @@ afterAll(async () => ctx.close());
 beforeEach(async () => {
   world = await buildWorld(ctx.sequelize);
 });
+// Whatever happens inside a test (a timeout on a busy machine included), the next test finds the cluster running.
+afterEach(() => cluster('pg_start'));
 
 const count = async (sql: string, replacements: Record<string, unknown> = {}) =>
   (await ctx.sequelize.query<{ n: number }>(sql, { replacements, type: QueryTypes.SELECT }))[0]!.n;
@@ -79,7 +81,7 @@ describe('PostgreSQL restarted while the API runs', () => {
     await agent.patch(`/api/saws/${world.saws.A![0]!.id}`).send({ name: 'Renamed after the restart' }).expect(200);
     await supertest(ctx.app).get('/api/health').expect(200);
     await signedInAgent(ctx.app, 'admin@test.example', PASSWORD);
-  });
+  }, 120_000);
 
   it('recovers from every connection being cut at once (what a server restart does to open connections)', async () => {
     const agent = await signedInAgent(ctx.app, 'admin@test.example', PASSWORD);

@@ -1,6 +1,10 @@
 import '@testing-library/jest-dom/vitest';
-import { cleanup } from '@testing-library/react';
+import { cleanup, configure } from '@testing-library/react';
 import { afterEach, vi } from 'vitest';
+
+// Routes load lazily and the machine that runs CI may be busy: give findBy* and waitFor up to 5 s (the default is
+// 1 s) before a missing element counts as missing.
+configure({ asyncUtilTimeout: 5000 });
 
 // vitest runs without globals, so Testing Library cannot register its own cleanup: unmount after every test,
 // and take away any fake network a test installed.
