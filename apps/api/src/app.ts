@@ -34,6 +34,8 @@ import { stopsRouter } from './modules/stops/stops.router.js';
 import { cutLogsRouter } from './modules/cut-logs/cut-logs.router.js';
 import { photosRouter } from './modules/photos/photos.router.js';
 import { DatabasePhotoStorage, type PhotoStorage } from './modules/photos/photo-storage.js';
+import { importsRouter } from './modules/imports/imports.router.js';
+import { DEFAULT_IMPORT_LIMITS, type ImportLimits } from './modules/imports/imports.service.js';
 
 export type AppDeps = {
   sequelize: Sequelize;
@@ -52,6 +54,8 @@ export type AppDeps = {
   mailCatcherDir?: string | undefined;
   /** Where photo bytes live; PostgreSQL (shared by every process) unless another store is given. */
   photoStorage?: PhotoStorage;
+  /** The largest file and the most rows one import takes (IMPORT_MAX_BYTES, IMPORT_MAX_ROWS). */
+  importLimits?: ImportLimits;
 };
 
 export const SESSION_COOKIE = 'kerfline.sid';
@@ -85,7 +89,10 @@ export function createApp(deps: AppDeps): Express {
   app.use(
     helmet({
       strictTransportSecurity: behindTls,
-      contentSecurityPolicy: { directives: { upgradeInsecureRequests: behindTls ? [] : null } },
+      // The import wizard reads files in a Web Worker; papaparse and the workbook reader may start blob: workers.
+      contentSecurityPolicy: {
+        directives: { upgradeInsecureRequests: behindTls ? [] : null, workerSrc: ["'self'", 'blob:'] },
+      },
     }),
   );
   app.use(express.json({ limit: '1mb' }));
@@ -166,6 +173,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(stopsRouter());
   api.use(cutLogsRouter());
   api.use(photosRouter(deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize)));
+  api.use(importsRouter(deps.importLimits ?? DEFAULT_IMPORT_LIMITS));
   api.use(notFoundHandler);
   app.use('/api', api);
 

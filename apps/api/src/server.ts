@@ -45,6 +45,7 @@ const app = createApp({
   trustProxy: env.TRUST_PROXY,
   webDist: env.WEB_DIST ?? path.resolve(here, '../../../dist/web'),
   signInLimit: env.SIGN_IN_LIMIT,
+  importLimits: { maxBytes: env.IMPORT_MAX_BYTES, maxRows: env.IMPORT_MAX_ROWS },
   logLevel: env.LOG_LEVEL,
   jobs,
   mailCatcherDir: env.MAIL_CATCHER_DIR,

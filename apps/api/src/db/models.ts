@@ -14,6 +14,7 @@ import { BladeRun } from '../modules/blade-runs/blade-run.model.js';
 import { Stop } from '../modules/stops/stop.model.js';
 import { CutLog } from '../modules/cut-logs/cut-log.model.js';
 import { Photo } from '../modules/photos/photo.model.js';
+import { ImportBatch, ImportMapping } from '../modules/imports/import-batch.model.js';
 
 /** Binds every model to this Sequelize instance. Model names equal the CASL subject names. */
 export function initModels(sequelize: Sequelize): void {
@@ -36,6 +37,8 @@ export function initModels(sequelize: Sequelize): void {
   Stop.initModel(sequelize);
   CutLog.initModel(sequelize);
   Photo.initModel(sequelize);
+  ImportBatch.initModel(sequelize);
+  ImportMapping.initModel(sequelize);
 }
 
 let bound: Sequelize | undefined;

@@ -34,6 +34,8 @@ const cutLog = (siteId: string) => subject('CutLog', { id: 'l', siteId });
 const photo = (siteId: string) => subject('Photo', { id: 'f', siteId });
 const receipt = (siteId: string) => subject('StockReceipt', { id: 'k', siteId });
 const levels = (siteId: string) => subject('StockLevel', { id: 'v', siteId });
+const batch = (siteId: string) => subject('ImportBatch', { id: 'i', siteId });
+const mapping = (siteId: string) => subject('ImportMapping', { id: 'm', siteId });
 
 // The permission matrix: [role, action, object, expected].
 const matrix: [
@@ -129,6 +131,25 @@ const matrix: [
   ['techA', 'read', setting(B), false],
   ['techA', 'update', setting(A), false],
   ['techA', 'delete', setting(A), false],
+  // Imports of legacy logs: a site admin brings files into their own site and takes them back out; admins anywhere.
+  ['admin', 'create', batch(C), true],
+  ['admin', 'update', batch(B), true],
+  ['siteAdminA', 'create', batch(A), true],
+  ['siteAdminA', 'read', batch(A), true],
+  ['siteAdminA', 'update', batch(A), true],
+  ['siteAdminA', 'create', batch(B), false],
+  ['siteAdminA', 'read', batch(B), false],
+  ['siteAdminA', 'update', batch(B), false],
+  ['siteAdminA', 'delete', batch(A), false],
+  ['siteAdminA', 'read', mapping(A), true],
+  ['siteAdminA', 'update', mapping(A), true],
+  ['siteAdminA', 'read', mapping(B), false],
+  ['managerAll', 'read', batch(A), false],
+  ['managerAll', 'create', batch(A), false],
+  ['leadNorth', 'create', batch(A), false],
+  ['techA', 'create', batch(A), false],
+  ['techA', 'read', batch(A), false],
+  ['techA', 'read', mapping(A), false],
   // The blade-spec catalogue: fleet-wide specs (siteId null) are the admins'; a site admin keeps their site's own.
   ['admin', 'create', spec(null), true],
   ['siteAdminA', 'read', spec(null), true],
@@ -256,6 +277,8 @@ describe('rules stay translatable to SQL', () => {
     Stop: new Set(['id', 'siteId']),
     CutLog: new Set(['id', 'siteId']),
     Photo: new Set(['id', 'siteId']),
+    ImportBatch: new Set(['id', 'siteId']),
+    ImportMapping: new Set(['id', 'siteId']),
   };
 
   it('uses only $eq, $ne, $in and $nin on the subject’s own columns, for every role', () => {

@@ -28,6 +28,8 @@ export const SUBJECTS = [
   'Stop',
   'CutLog',
   'Photo',
+  'ImportBatch',
+  'ImportMapping',
 ] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
@@ -62,7 +64,9 @@ type Subjects =
   | (SiteRecordFields & ForcedSubject<'BladeRun'>)
   | (SiteRecordFields & ForcedSubject<'Stop'>)
   | (SiteRecordFields & ForcedSubject<'CutLog'>)
-  | (SiteRecordFields & ForcedSubject<'Photo'>);
+  | (SiteRecordFields & ForcedSubject<'Photo'>)
+  | (SiteRecordFields & ForcedSubject<'ImportBatch'>)
+  | (SiteRecordFields & ForcedSubject<'ImportMapping'>);
 
 export type AppAbility = MongoAbility<[Action, Subjects]>;
 export type AppRawRule = RawRuleOf<AppAbility>;
@@ -155,6 +159,9 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can(['create', 'read', 'update', 'delete'], [...SITE_RECORDS], { siteId: p.siteId });
         can('read', 'BladeSpec', { siteId: { $in: [null, p.siteId] } });
         can(['create', 'update', 'delete'], 'BladeSpec', { siteId: p.siteId });
+        // Bringing their own site's spreadsheet logs in, and taking an import back out (update = undo).
+        can(['create', 'read', 'update'], 'ImportBatch', { siteId: p.siteId });
+        can(['create', 'read', 'update'], 'ImportMapping', { siteId: p.siteId });
       }
       break;
     case 'technician':

@@ -119,8 +119,8 @@ export async function readDelimited(
         if (quoteError) {
           failure = new TableError(
             quoteError.code === 'MissingQuotes'
-              ? `A quote (") opened in or after line ${dataRow} is never closed, so the rest of the file would read as one cell. Close the quote in the file (or save it again from the spreadsheet) and drop it again.`
-              : `Line ${dataRow} has a quote (") in the wrong place: a quoted cell must end with the quote right before the delimiter. Fix it in the file and drop it again.`,
+              ? `A quote (") opened in or after row ${dataRow} is never closed, so the rest of the file would read as one cell. Close the quote in the file (or save it again from the spreadsheet) and drop it again.`
+              : `Row ${dataRow} has a quote (") in the wrong place: a quoted cell must end with the quote right before the delimiter. Fix it in the file and drop it again.`,
           );
           parser.abort();
           return;
