@@ -251,7 +251,10 @@ export class ImportCollector {
           },
         ],
       };
-    } else built = buildRow(this.kind, cells, rowNumber, this.plan, this.target, this.unmatched);
+    } else
+      built = buildRow(this.kind, cells, rowNumber, this.plan, this.target, this.unmatched, {
+        display: this.previewBuilt.length < this.options.previewRows,
+      });
     for (const issue of built.issues) this.note(issue);
     if (this.previewBuilt.length < this.options.previewRows) this.previewBuilt.push(built);
     const errors = built.issues.filter((i) => i.level === 'error').map((i) => i.message);

@@ -116,15 +116,24 @@ export function betterKind(
   return best;
 }
 
+/** Each choice's words, normalised once: a file of 100 000 rows asks the same question 100 000 times. */
+const choiceIndex = new WeakMap<ChoiceDefinition, Map<string, string>>();
+
 /** The value of a choice a written word means, from the choice's own words; null when nothing fits. */
 export function suggestChoice(choice: ChoiceDefinition, written: string): string | null {
-  const w = normaliseWord(written);
-  if (w === '') return null;
-  for (const value of choice.values) {
-    const words = [value, value.replace(/_/g, ' '), choice.labels[value] ?? '', ...(choice.words[value] ?? [])];
-    if (words.some((x) => normaliseWord(x) === w)) return value;
+  let index = choiceIndex.get(choice);
+  if (!index) {
+    index = new Map();
+    for (const value of choice.values) {
+      const words = [value, value.replace(/_/g, ' '), choice.labels[value] ?? '', ...(choice.words[value] ?? [])];
+      for (const x of words) {
+        const key = normaliseWord(x);
+        if (key !== '' && !index.has(key)) index.set(key, value);
+      }
+    }
+    choiceIndex.set(choice, index);
   }
-  return null;
+  return index.get(normaliseWord(written)) ?? null;
 }
 
 export type SawRef = { id: string; assetTag: string; name: string; retired: boolean };
@@ -134,17 +143,30 @@ export type SpecRef = { id: string; name: string };
 export const looseKey = (text: string): string => normaliseWord(text).replace(/[^a-z0-9]/g, '');
 
 /** The saw a written value names: by asset tag, then by name, ignoring case, spaces and punctuation. */
+const sawIndex = new WeakMap<readonly SawRef[], Map<string, SawRef | null>>();
+
+/**
+ * The saw a written value names: by asset tag, then by name, ignoring case, spaces and punctuation. Names repeat
+ * (a retired saw's name is often given to its successor): a name counts only when one saw in service carries it,
+ * or, failing that, exactly one saw at all. Answers are kept per list of saws, since a file names few saws often.
+ */
 export function matchSaw(saws: readonly SawRef[], written: string): SawRef | null {
   const key = looseKey(written);
   if (key === '') return null;
-  const byTag = saws.find((s) => looseKey(s.assetTag) === key);
-  if (byTag) return byTag;
-  // Names repeat (a retired saw's name is often given to its successor): a name counts only when one saw in
-  // service carries it, or, failing that, exactly one saw at all.
-  const named = saws.filter((s) => looseKey(s.name) === key);
-  const active = named.filter((s) => !s.retired);
-  if (active.length === 1) return active[0]!;
-  return active.length === 0 && named.length === 1 ? named[0]! : null;
+  let index = sawIndex.get(saws);
+  if (!index) {
+    index = new Map();
+    sawIndex.set(saws, index);
+  }
+  if (index.has(key)) return index.get(key)!;
+  let found: SawRef | null = saws.find((s) => looseKey(s.assetTag) === key) ?? null;
+  if (!found) {
+    const named = saws.filter((s) => looseKey(s.name) === key);
+    const active = named.filter((s) => !s.retired);
+    found = active.length === 1 ? active[0]! : active.length === 0 && named.length === 1 ? named[0]! : null;
+  }
+  index.set(key, found);
+  return found;
 }
 
 /** Saws whose tag or name is spelt close to the written value: at most three, closest first. */
@@ -159,10 +181,18 @@ export function nearSaws(saws: readonly SawRef[], written: string): SawRef[] {
 }
 
 /** The spec a written value names (exact, ignoring case, spaces and punctuation). */
+const specIndex = new WeakMap<readonly SpecRef[], Map<string, SpecRef>>();
+
 export function matchSpec(specs: readonly SpecRef[], written: string): SpecRef | null {
   const key = looseKey(written);
   if (key === '') return null;
-  return specs.find((s) => looseKey(s.name) === key) ?? null;
+  let index = specIndex.get(specs);
+  if (!index) {
+    index = new Map();
+    for (const s of specs) if (!index.has(looseKey(s.name))) index.set(looseKey(s.name), s);
+    specIndex.set(specs, index);
+  }
+  return index.get(key) ?? null;
 }
 
 export function nearSpecs(specs: readonly SpecRef[], written: string): SpecRef[] {

@@ -287,16 +287,8 @@ export function readDate(cell: Cell, order: DateOrder): Read<string | null> {
 
 const pad = (n: number) => String(n).padStart(2, '0');
 
-/**
- * Minutes east of UTC that `timeZone` observes at the instant `utcMs`. Formatting is slow, so offsets are cached
- * per zone and hour (zones change offset on the hour or half hour, never within one).
- */
-const offsetCache = new Map<string, number>();
 const formatters = new Map<string, Intl.DateTimeFormat>();
-function zoneOffsetMinutes(timeZone: string, utcMs: number): number {
-  const key = `${timeZone}|${Math.floor(utcMs / 1_800_000)}`;
-  const cached = offsetCache.get(key);
-  if (cached !== undefined) return cached;
+function exactOffsetMinutes(timeZone: string, utcMs: number): number {
   let f = formatters.get(timeZone);
   if (!f) {
     f = new Intl.DateTimeFormat('en-US', {
@@ -314,10 +306,27 @@ function zoneOffsetMinutes(timeZone: string, utcMs: number): number {
   const parts = f.formatToParts(new Date(utcMs));
   const get = (type: string) => Number(parts.find((p) => p.type === type)?.value ?? 0);
   const asUtc = Date.UTC(get('year'), get('month') - 1, get('day'), get('hour'), get('minute'), get('second'));
-  const offset = Math.round((asUtc - Math.floor(utcMs / 1000) * 1000) / 60_000);
-  if (offsetCache.size > 50_000) offsetCache.clear();
-  offsetCache.set(key, offset);
-  return offset;
+  return Math.round((asUtc - Math.floor(utcMs / 1000) * 1000) / 60_000);
+}
+
+/**
+ * Minutes east of UTC that `timeZone` observes at the instant `utcMs`. Formatting is slow and a file of years of
+ * logs asks for every day, so a UTC day whose start and end share an offset is kept as one entry; a day with a
+ * clock change is worked out to the instant.
+ */
+const dayOffsets = new Map<string, number | null>();
+function zoneOffsetMinutes(timeZone: string, utcMs: number): number {
+  const dayStart = Math.floor(utcMs / 86_400_000) * 86_400_000;
+  const key = `${timeZone}|${dayStart}`;
+  let whole = dayOffsets.get(key);
+  if (whole === undefined) {
+    const a = exactOffsetMinutes(timeZone, dayStart);
+    const b = exactOffsetMinutes(timeZone, dayStart + 86_400_000 - 1000);
+    whole = a === b ? a : null;
+    if (dayOffsets.size > 100_000) dayOffsets.clear();
+    dayOffsets.set(key, whole);
+  }
+  return whole ?? exactOffsetMinutes(timeZone, utcMs);
 }
 
 /**
