@@ -162,6 +162,27 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: 'imports',
+              lazy: async () => {
+                const page = await import('./routes/imports/imports-page');
+                return { loader: page.importsPageLoader(queryClient), Component: page.ImportsPage };
+              },
+            },
+            {
+              path: 'imports/new',
+              lazy: async () => {
+                const page = await import('./routes/imports/import-new-page');
+                return { loader: page.importNewPageLoader(queryClient), Component: page.ImportNewPage };
+              },
+            },
+            {
+              path: 'imports/:importId',
+              lazy: async () => {
+                const page = await import('./routes/imports/import-page');
+                return { loader: page.importPageLoader(queryClient), Component: page.ImportPage };
+              },
+            },
+            {
               path: 'calculators',
               lazy: async () => {
                 const page = await import('./routes/calculators/calculators-page');

@@ -93,6 +93,8 @@ export type UnmatchedTally = Map<string, { field: string; written: string; key: 
 type FieldValue = string | number | boolean | Date | null;
 
 const round = (n: number) => Number(n.toPrecision(6)).toString();
+/** How a stored moment reads in the preview: `2023-01-09 12:10 UTC`. */
+const utcText = (d: Date) => `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
 
 /** Reads each mapped cell of a row into field values, collecting issues and unmatched words. */
 function readFields(
@@ -181,7 +183,7 @@ function readCell(
       const at = wallTimeToInstant(r.value, target.timeZone);
       const warning =
         typeof cell === 'number' ? `${cell} was read as a spreadsheet date: ${at.toISOString()}` : undefined;
-      return { ok: true, value: at, display: wantDisplay ? at.toISOString() : null, ...(warning ? { warning } : {}) };
+      return { ok: true, value: at, display: wantDisplay ? utcText(at) : null, ...(warning ? { warning } : {}) };
     }
     case 'choice': {
       const t = cellText(cell);
@@ -488,7 +490,7 @@ export function buildRow(
       const minutes = num(values.get('duration'));
       if (!endedAt && minutes !== null && startedAt) {
         endedAt = new Date(startedAt.getTime() + Math.round(minutes * 60_000));
-        display.endedAt = endedAt.toISOString();
+        display.endedAt = utcText(endedAt);
       }
       if (!startedAt)
         issues.push({

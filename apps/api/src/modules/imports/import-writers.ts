@@ -2,6 +2,7 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import type { ImportKind, RowVerdict } from '@kerfline/domain/imports/schema';
 import type { CollectedRow } from '@kerfline/domain/imports/pipeline';
 import { ImportBatch } from './import-batch.model.js';
+import { formatAt } from '../records/record-support.js';
 import type {
   ImportTarget,
   ImportedReceipt,
@@ -105,7 +106,8 @@ async function verdictsOf(
   };
 }
 
-const day = (d: Date | null) => (d ? d.toISOString().slice(0, 16).replace('T', ' ') + ' UTC' : 'now');
+/** A moment in the site's own time, with its zone, for messages about clashing records. */
+const at = (target: ImportTarget, d: Date | null) => (d ? formatAt(d, target.timeZone) : 'now');
 
 const runColumns: Column<ImportedRun>[] = [
   { name: 'saw_id', type: 'uuid', value: (r) => r.sawId },
@@ -147,7 +149,7 @@ const bladeRuns: KindWriter = {
     return verdictsOf(
       transaction,
       (s) =>
-        `Overlaps blade run ${s.other_id} already recorded on this saw (on ${day(s.other_from)}, ${s.other_to ? `off ${day(s.other_to)}` : 'still on'}); a saw carries one blade at a time`,
+        `Overlaps a blade run already recorded on this saw (put on ${at(target, s.other_from)}, ${s.other_to ? `taken off ${at(target, s.other_to)}` : 'still on'}; run ${s.other_id}); a saw carries one blade at a time`,
     );
   },
   async insert(transaction, target, batchId) {
@@ -211,7 +213,7 @@ const stopColumns: Column<ImportedStop>[] = [
 
 /** Stops. Natural key: the saw and the moment it stopped (stops of a saw never overlap). */
 const stops: KindWriter = {
-  async settle(transaction, _target, collected) {
+  async settle(transaction, target, collected) {
     await stage(transaction, stopColumns, collected);
     await run(
       transaction,
@@ -227,7 +229,7 @@ const stops: KindWriter = {
     return verdictsOf(
       transaction,
       (s) =>
-        `Overlaps stop ${s.other_id} already recorded on this saw (from ${day(s.other_from)} to ${day(s.other_to)}); stops of a saw do not overlap`,
+        `Overlaps a stop already recorded on this saw (from ${at(target, s.other_from)} to ${s.other_to ? at(target, s.other_to) : 'still going on'}; stop ${s.other_id}); stops of a saw do not overlap`,
     );
   },
   async insert(transaction, target, batchId) {

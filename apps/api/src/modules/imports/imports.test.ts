@@ -127,7 +127,9 @@ describe('checking a file without writing', () => {
     );
     expect(messages).toEqual(
       expect.arrayContaining([
-        expect.stringMatching(/^6: Overlaps blade run .* a saw carries one blade at a time/),
+        expect.stringMatching(
+          /^6: Overlaps a blade run already recorded on this saw \(put on .*Europe\/Berlin.*\); a saw carries one blade at a time/,
+        ),
         '7: Saw: no saw of this site is called “B-1”',
         '8: Saw: saw A-OLD is retired; its records are kept as they are',
       ]),
@@ -224,7 +226,7 @@ describe('bringing a file in', () => {
     ]);
     expect(rows.map((r) => r[0])).toEqual(['Row', '4', '5', '6', '7', '8']);
     expect(rows[1]![9]).toContain('“snapped” is not one of');
-    expect(rows[3]![9]).toMatch(/Overlaps blade run/);
+    expect(rows[3]![9]).toMatch(/Overlaps a blade run already recorded/);
     // Without the value mapping both "snapped" rows are rejected (a rejected row has no key to repeat).
     expect(commit.body.batch).toMatchObject({ rowsAdded: 2, rowsRepeated: 0, rowsRejected: 5 });
   });

@@ -16,6 +16,7 @@ const NAV_ITEMS: NavItem[] = [
   { to: '/sites', label: 'Sites' },
   { to: '/saws', label: 'Saws' },
   { to: '/people', label: 'People', roles: ['admin', 'site_admin'] },
+  { to: '/imports', label: 'Imports', roles: ['admin', 'site_admin'] },
   { to: '/calculators', label: 'Shop calculators' },
   { to: '/mail', label: 'Mail', roles: ['admin'] },
 ];
