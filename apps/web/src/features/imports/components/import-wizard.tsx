@@ -19,7 +19,7 @@ import { ChoiceGroup, ChoiceTile } from '../../../lib/ui/choice-group';
 import { inputClass } from '../../../lib/ui/field';
 import { Notice } from '../../../lib/ui/notice';
 import { formatNumber } from '../../../lib/format';
-import { importContextQuery } from '../api/queries';
+import { importContextQuery, importDetailQuery } from '../api/queries';
 import { useCheckImport, useCommitImport } from '../api/mutations';
 import { runInWorker } from '../worker/messages';
 import type { CheckResult, ScanResult } from '../worker/read-file';
@@ -485,7 +485,7 @@ export function ImportWizard({
         {step === 'done' && committed && ctx ? (
           <div className="space-y-4">
             <StepHeading step="done">Brought in</StepHeading>
-            <BatchCard batch={committed} timeZone={ctx.site.timeZone} />
+            <CommittedBatch batch={committed} timeZone={ctx.site.timeZone} />
             <div className="flex flex-wrap gap-3">
               <Link
                 className="inline-flex min-h-11 items-center font-semibold text-accent-dark underline underline-offset-4"
@@ -499,6 +499,12 @@ export function ImportWizard({
       </div>
     </div>
   );
+}
+
+/** The import just made, kept current from the cache (taking it back out changes it). */
+function CommittedBatch({ batch, timeZone }: { batch: ImportBatch; timeZone: string }) {
+  const { data } = useQuery({ ...importDetailQuery(batch.id), initialData: batch });
+  return <BatchCard batch={data} timeZone={timeZone} />;
 }
 
 function SelectField({
