@@ -4,7 +4,7 @@ import type { MigrationContext } from '../umzug.js';
  * The shipped list as it stood when this migration was written (the domain's `defaultSiteChecks()`), kept here
  * as a copy so the migration gives the same result whatever the list becomes later.
  */
-const SHIPPED_LIST = [
+export const SHIPPED_LIST = [
   [
     'Guide bearing clearance',
     'Opening of the guides across the band, with feeler gauges',
