@@ -172,6 +172,8 @@ export function breakInSettingsForSite(
   settings: EffectiveSettings | undefined,
   mode: BreakInMode,
 ): BreakInSettingsInput {
+  // A site on the shipped plan gets the shipped steps as they are (1/3 exactly, not 33.33… % ÷ 100).
+  if (settings?.break_in === undefined) return { mode };
   const setting = effectiveSetting(settings, 'break_in');
   const v = (field: string) => settingValue(setting, field);
   const common = {
