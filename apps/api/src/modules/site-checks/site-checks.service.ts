@@ -1,4 +1,4 @@
-import { ForbiddenError, subject } from '@casl/ability';
+import { subject } from '@casl/ability';
 import { Op, literal, UniqueConstraintError } from 'sequelize';
 import type { AppAbility } from '@kerfline/domain/authz/ability';
 import { detailsFromZodError } from '@kerfline/domain/errors';

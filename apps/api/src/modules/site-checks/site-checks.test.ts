@@ -7,9 +7,6 @@ import { evaluateCheck } from '@kerfline/domain/checks/check-targets';
 import { startTestApp, signedInAgent, type TestContext } from '../../test-support/test-db.js';
 import { buildWorld, minutesAgo, PASSWORD, specBody, type World } from '../../test-support/fixtures.js';
 import { SHIPPED_LIST } from '../../db/migrations/20261204-0101-site-checks.js';
-import { loadSignedIn } from '../auth/auth.service.js';
-import { overdueChecksSection } from '../../jobs/digest-sections.js';
-import { Site } from '../sites/site.model.js';
 
 let ctx: TestContext;
 let world: World;
@@ -619,35 +616,6 @@ describe('due and overdue checks, in SQL', () => {
     expect(byRule.feed_pressure).toMatchObject({ state: 'ok', target: { applicable: false } });
     expect(byRule.feed_pressure.target.explanation).toMatch(/hydraulically/);
     expect((await (await as('tech-c@test.example')).get(`/api/saws/${saw.id}/checks`)).status).toBe(404);
-  });
-
-  it('puts the lead’s region’s overdue checks into the weekly digest, and nothing from elsewhere', async () => {
-    await fixture();
-    // Sites B and C from 1 January too: each saw's bearing check, never recorded, overdue since 2 January.
-    for (const table of ['saws', 'site_checks'])
-      await ctx.sequelize.query(`UPDATE ${table} SET created_at = :T0 WHERE site_id <> :siteId`, {
-        replacements: { T0, siteId: world.sites.A.id },
-      });
-    const signedIn = (await loadSignedIn(world.users.leadNorth.id))!;
-    const sites = await Site.findAll({ order: [['name', 'ASC']] });
-    // Even handed every site, the section keeps to what the lead may read: A and B, not C.
-    const section = await overdueChecksSection.build({
-      signedIn,
-      sites,
-      period: '2026-W10',
-      publicUrl: 'http://k.test',
-    });
-    expect(section?.title).toBe('Checks overdue');
-    expect(section?.intro).toBe('10 checks are overdue (Site A 8, Site B 2).');
-    expect(new Set(section?.rows.map((r) => r[2]))).toEqual(new Set(['Site A', 'Site B']));
-    const techC = (await loadSignedIn(world.users.techC.id))!;
-    const forC = await overdueChecksSection.build({
-      signedIn: techC,
-      sites,
-      period: '2026-W10',
-      publicUrl: 'http://k.test',
-    });
-    expect(new Set(forC?.rows.map((r) => r[2]))).toEqual(new Set(['Site C']));
   });
 });
 
