@@ -191,18 +191,8 @@ export function BreakInCalculator({
         <>
           {body}
           <SourceNote>
-            Break-in steps:{' '}
-            {basisSentence(
-              plan?.basis ?? {
-                kind: 'site_setting',
-                settingKey: 'break_in',
-                changedByName: null,
-                changedAt: null,
-                note: '',
-              },
-              timeZone,
-            )}
-            .{plan?.bandSpeed ? ` Band speed: ${basisSentence(plan.bandSpeed.normal.basis, timeZone)}.` : ''} The blade
+            Break-in steps: {basisSentence(plan?.basis ?? settingBasis(steps), timeZone)}.
+            {plan?.bandSpeed ? ` Band speed: ${basisSentence(plan.bandSpeed.normal.basis, timeZone)}.` : ''} The blade
             maker’s own break-in takes precedence.
           </SourceNote>
         </>
