@@ -33,6 +33,7 @@ import { bladeRunsRouter } from './modules/blade-runs/blade-runs.router.js';
 import { stopsRouter } from './modules/stops/stops.router.js';
 import { cutLogsRouter } from './modules/cut-logs/cut-logs.router.js';
 import { photosRouter } from './modules/photos/photos.router.js';
+import { siteChecksRouter } from './modules/site-checks/site-checks.router.js';
 import { DatabasePhotoStorage, type PhotoStorage } from './modules/photos/photo-storage.js';
 import { importsRouter } from './modules/imports/imports.router.js';
 import { DEFAULT_IMPORT_LIMITS, type ImportLimits } from './modules/imports/imports.service.js';
@@ -173,6 +174,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(stopsRouter());
   api.use(cutLogsRouter());
   api.use(photosRouter(deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize)));
+  api.use(siteChecksRouter());
   api.use(importsRouter(deps.importLimits ?? DEFAULT_IMPORT_LIMITS));
   api.use(notFoundHandler);
   app.use('/api', api);

@@ -20,6 +20,8 @@ import { BladeRun } from '../modules/blade-runs/blade-run.model.js';
 import { Stop } from '../modules/stops/stop.model.js';
 import { CutLog } from '../modules/cut-logs/cut-log.model.js';
 import { Photo } from '../modules/photos/photo.model.js';
+import { SiteCheck } from '../modules/site-checks/site-check.model.js';
+import { CheckRecord } from '../modules/site-checks/check-record.model.js';
 import { ImportBatch, ImportMapping } from '../modules/imports/import-batch.model.js';
 import { scopeWhere } from './sequelize-scope.js';
 
@@ -117,6 +119,8 @@ const MODELS: Record<SubjectName, ModelStatic<Model>> = {
   Stop,
   CutLog,
   Photo,
+  SiteCheck,
+  CheckRecord,
   ImportBatch,
   ImportMapping,
 };

@@ -18,6 +18,8 @@ import { siteDetailQuery } from '../../../features/sites/api/queries';
 import { siteKeys } from '../../../features/sites/api/keys';
 import { calculatorHrefForSaw } from '../../../features/calculators/components/saw-links';
 import { calculatorSaw } from '../calculators/calculator-site';
+import { sawChecksQuery } from '../../../features/checks/api/queries';
+import { DueChecksPanel, recordCheckHref, sawDueItems } from '../../../features/checks/components/due-checks-panel';
 
 export function sawPageLoader(queryClient: QueryClient) {
   return async ({ params }: LoaderFunctionArgs) => {
@@ -26,6 +28,7 @@ export function sawPageLoader(queryClient: QueryClient) {
       queryClient.ensureQueryData(siteDetailQuery(saw.siteId)),
       // The settings only say whose the guide opening is; the page shows shipped values without them.
       queryClient.ensureQueryData(siteSettingsQuery(saw.siteId)).catch(() => undefined),
+      queryClient.ensureQueryData(sawChecksQuery(saw.id)).catch(() => undefined),
     ]);
     return null;
   };
@@ -37,6 +40,7 @@ export function SawPage() {
   const { data: saw } = useSuspenseQuery(sawDetailQuery(sawId));
   const { data: site } = useSuspenseQuery(siteDetailQuery(saw.siteId));
   const { data: settings } = useQuery(siteSettingsQuery(saw.siteId));
+  const { data: checks } = useQuery({ ...sawChecksQuery(saw.id), enabled: saw.status !== 'retired' });
   const ability = useAppAbility();
   const queryClient = useQueryClient();
   const retire = useRetireSaw(saw.id);
@@ -45,6 +49,8 @@ export function SawPage() {
 
   const canChange =
     saw.status !== 'retired' && ability.can('update', subject('Saw', { id: saw.id, siteId: saw.siteId }));
+  const canRecord =
+    saw.status !== 'retired' && ability.can('create', subject('CheckRecord', { id: '', siteId: saw.siteId }));
 
   const askToRetire = () => {
     setConfirming(true);
@@ -103,11 +109,18 @@ export function SawPage() {
             </p>
           ) : null}
         </div>
+        {canRecord || canChange ? (
+          <div className="flex flex-wrap gap-2 max-sm:w-full">
+            {canRecord ? (
+              <LinkButton to={recordCheckHref(saw.id)} variant="primary" className="max-sm:min-h-14 max-sm:w-full">
+                Record a check
+              </LinkButton>
+            ) : null}
+          </div>
+        ) : null}
         {canChange ? (
           <div className="flex flex-wrap gap-2">
-            <LinkButton to={`/saws/${saw.id}/edit`} variant="primary">
-              Edit saw
-            </LinkButton>
+            <LinkButton to={`/saws/${saw.id}/edit`}>Edit saw</LinkButton>
             <Button variant="danger" onClick={askToRetire} aria-expanded={confirming} aria-controls="retire-confirm">
               Retire…
             </Button>
@@ -150,6 +163,19 @@ export function SawPage() {
             Band speed
           </LinkButton>
         </nav>
+      ) : null}
+
+      {checks ? (
+        <DueChecksPanel
+          items={sawDueItems(checks, saw)}
+          timeZone={site.timeZone}
+          canRecord={canRecord}
+          footer={
+            <Link to={`/sites/${site.id}/checks`} className="font-semibold underline underline-offset-4">
+              The site’s list of checks
+            </Link>
+          }
+        />
       ) : null}
 
       <SawDetailPanel saw={saw} unitSystem={site.unitSystem} timeZone={site.timeZone} />
