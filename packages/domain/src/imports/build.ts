@@ -3,13 +3,14 @@ import { sawCreateSchema, type SawCreateParsed } from '../saws/schema.js';
 import { stockReceiptCreateSchema } from '../blade-stock/schema.js';
 import { bladeRunInstallSchema, bladeRunRemoveSchema } from '../blade-runs/schema.js';
 import { stopCreateSchema } from '../stops/schema.js';
+import { checkRecordCreateSchema, type CheckAnswers, type CheckQuantity } from '../site-checks/schema.js';
 import { centreDistanceForBandLengthMm } from '../band/band-length.js';
 import type { RemovalReason } from '../diagnosis/schema.js';
 import type { MaterialGroup } from '../band-speed/schema.js';
 import type { DowntimeCategory } from '../metrics/schema.js';
 import { IMPORT_FIELDS, type ImportField, type ImportKind } from './fields.js';
 import type { ImportPlan, RowIssue } from './schema.js';
-import { UNITS } from './units.js';
+import { UNITS, defaultUnit, unitFromText } from './units.js';
 import {
   cellText,
   normaliseWord,
@@ -37,6 +38,10 @@ export type ImportTarget = {
   currency: string;
   saws: readonly SawRef[];
   specs: readonly { id: string; name: string; unitCostMinor: number; currency: string; archived: boolean }[];
+  /** The site's list of checks (check sheets only). */
+  checks?: readonly { id: string; name: string; quantity: CheckQuantity; retired: boolean }[];
+  /** Readings without a unit are in the site's units. */
+  unitSystem?: 'metric' | 'imperial';
 };
 
 export type ImportedSaw = SawCreateParsed;
@@ -74,7 +79,17 @@ export type ImportedStop = {
   notes: string | null;
 };
 
-export type ImportedRecord = ImportedSaw | ImportedReceipt | ImportedRun | ImportedStop;
+export type ImportedCheck = {
+  sawId: string;
+  siteCheckId: string;
+  checkedAt: Date;
+  /** In the check's SI unit (mm, N, MPa); null for a condition check. */
+  reading: number | null;
+  answers: CheckAnswers | null;
+  notes: string | null;
+};
+
+export type ImportedRecord = ImportedSaw | ImportedReceipt | ImportedRun | ImportedStop | ImportedCheck;
 
 export type BuiltRow<R = ImportedRecord> = {
   rowNumber: number;
@@ -208,6 +223,25 @@ function readCell(
       if (saw.retired)
         return { ok: false, message: `saw ${saw.assetTag} is retired; its records are kept as they are` };
       return { ok: true, value: saw.id, display: `${saw.assetTag} · ${saw.name}` };
+    }
+    case 'check': {
+      const t = cellText(cell);
+      if (t === null) return { ok: true, value: null, display: null };
+      const key = looseKey(t);
+      const chosenId = plan.values[field.key]?.[key];
+      const checks = target.checks ?? [];
+      const check = chosenId
+        ? checks.find((c) => c.id === chosenId)
+        : (checks.find((c) => !c.retired && looseKey(c.name) === key) ?? checks.find((c) => looseKey(c.name) === key));
+      if (!check)
+        return { ok: false, message: `no check on this site’s list is called “${t}”`, unmatched: { written: t, key } };
+      if (check.retired) return { ok: false, message: `“${check.name}” is retired from the site’s list` };
+      return { ok: true, value: check.id, display: check.name };
+    }
+    case 'reading': {
+      // Read once the row's check says what it measures.
+      const t = typeof cell === 'number' ? cell : cellText(cell);
+      return { ok: true, value: t, display: t === null ? null : String(t) };
     }
     case 'spec': {
       const t = cellText(cell);
@@ -531,15 +565,77 @@ export function buildRow(
       };
       return result(record, `stop|${record.sawId}|${record.startedAt.toISOString()}`);
     }
-    case 'checks':
-      issues.push({
-        rowNumber,
-        column: null,
-        field: null,
-        level: 'error',
-        message: 'Check sheets cannot be brought in yet',
+    case 'checks': {
+      const checkedAt = date(values.get('checkedAt'));
+      const check = (target.checks ?? []).find((c) => c.id === values.get('check'));
+      const raw = values.get('reading');
+      let reading: number | null = null;
+      const problem = (key: string, message: string) =>
+        issues.push({ rowNumber, column: columnOf.get(key) ?? null, field: key, level: 'error', message });
+      if (!checkedAt) problem('checkedAt', 'Checked at: a date and time is needed');
+      if (check && check.quantity !== 'condition') {
+        if (raw === null || raw === undefined) problem('reading', `Reading: ${check.name} needs a reading`);
+        else {
+          const quantity = check.quantity;
+          const unitText = str(values.get('readingUnit'));
+          const unit = unitText ? unitFromText(quantity, unitText) : undefined;
+          if (unitText && !unit)
+            problem(
+              'readingUnit',
+              `Unit of the reading: “${unitText}” is not a unit of ${quantity} (${UNITS[quantity].options.map((o) => o.label).join(', ')})`,
+            );
+          else {
+            const r = readQuantity(
+              raw as Cell,
+              quantity,
+              unit?.id ?? defaultUnit(quantity, target.unitSystem ?? 'metric'),
+              plan.decimalMark,
+            );
+            if (!r.ok) problem('reading', `Reading: ${r.message}`);
+            else {
+              reading = r.value;
+              if (reading !== null) display.reading = `${round(reading)} ${UNITS[quantity].stored}`;
+            }
+          }
+        }
+      }
+      let answers: CheckAnswers | null = null;
+      if (check?.quantity === 'condition') {
+        const reaches = yes(values.get('reachesGullets'));
+        const worn = yes(values.get('brushWorn'));
+        if (reaches === null || worn === null)
+          problem(
+            reaches === null ? 'reachesGullets' : 'brushWorn',
+            `${check.name}: say yes or no to both “brush reaches the gullets” and “brush worn”`,
+          );
+        else answers = { reachesGullets: reaches, worn };
+      }
+      const parsed = checkRecordCreateSchema.safeParse({
+        sawId: str(values.get('saw')) ?? undefined,
+        siteCheckId: check?.id ?? undefined,
+        checkedAt: checkedAt?.toISOString(),
+        reading,
+        answers,
+        notes: str(values.get('notes')),
       });
-      return result(null, null);
+      if (!parsed.success)
+        issues.push(
+          ...schemaIssues(parsed.error, rowNumber, kind, columnOf, { sawId: 'saw', siteCheckId: 'check' }).filter(
+            (i) => i.field !== 'checkedAt' || checkedAt,
+          ),
+        );
+      if (!parsed.success || issues.some((x) => x.level === 'error')) return result(null, null);
+      const d = parsed.data;
+      const record: ImportedCheck = {
+        sawId: d.sawId,
+        siteCheckId: d.siteCheckId,
+        checkedAt: d.checkedAt!,
+        reading: d.reading,
+        answers: d.answers,
+        notes: d.notes,
+      };
+      return result(record, `check|${record.sawId}|${record.siteCheckId}|${record.checkedAt.toISOString()}`);
+    }
   }
 }
 

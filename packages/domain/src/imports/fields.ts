@@ -27,7 +27,19 @@ export const IMPORT_KIND_LABELS: Record<ImportKind, { title: string; holds: stri
 };
 
 export type FieldType =
-  'text' | 'notes' | 'quantity' | 'integer' | 'money' | 'currency' | 'date' | 'datetime' | 'choice' | 'saw' | 'spec';
+  | 'text'
+  | 'notes'
+  | 'quantity'
+  | 'integer'
+  | 'money'
+  | 'currency'
+  | 'date'
+  | 'datetime'
+  | 'choice'
+  | 'saw'
+  | 'spec'
+  | 'check'
+  | 'reading';
 
 export type ChoiceDefinition = {
   values: readonly string[];
@@ -856,7 +868,91 @@ export const IMPORT_FIELDS: Record<ImportKind, readonly ImportField[]> = {
     }),
     f({ key: 'notes', label: 'Notes', type: 'notes', required: false, synonyms: NOTES_SYNONYMS, hint: '' }),
   ],
-  checks: [],
+  checks: [
+    f({
+      key: 'saw',
+      label: 'Saw',
+      type: 'saw',
+      required: true,
+      synonyms: SAW_SYNONYMS,
+      hint: 'asset tag or name of one of the site’s saws',
+    }),
+    f({
+      key: 'check',
+      label: 'Check',
+      type: 'check',
+      required: true,
+      synonyms: [
+        'check',
+        'check type',
+        'item',
+        'what',
+        'inspection',
+        'prufung',
+        'prufpunkt',
+        'kontrolle',
+        'revision',
+        'control',
+        'punto de control',
+      ],
+      hint: 'a check on the site’s list, by its name',
+    }),
+    f({
+      key: 'checkedAt',
+      label: 'Checked at',
+      type: 'datetime',
+      required: true,
+      synonyms: ['checked', 'checked at', 'date', 'when', 'datum', 'gepruft am', 'fecha', 'fecha de revision'],
+      hint: 'date and time (site’s time zone)',
+    }),
+    f({
+      key: 'reading',
+      label: 'Reading',
+      type: 'reading',
+      required: false,
+      synonyms: [
+        'reading',
+        'value',
+        'measured',
+        'measurement',
+        'result',
+        'messwert',
+        'wert',
+        'gemessen',
+        'lectura',
+        'valor',
+        'medida',
+      ],
+      hint: 'a number; its unit from the cell (0.043 in), a unit column, or the site’s units',
+    }),
+    f({
+      key: 'readingUnit',
+      label: 'Unit of the reading',
+      type: 'text',
+      required: false,
+      synonyms: ['unit', 'units', 'uom', 'einheit', 'unidad'],
+      hint: 'mm, in, N, lbf, MPa, psi…',
+    }),
+    f({
+      key: 'reachesGullets',
+      label: 'Brush reaches the gullets',
+      type: 'choice',
+      required: false,
+      choice: yesNo(),
+      synonyms: ['reaches gullets', 'brush reaches', 'brush ok', 'burste greift', 'cepillo alcanza'],
+      hint: 'for the chip brush: yes or no',
+    }),
+    f({
+      key: 'brushWorn',
+      label: 'Brush worn',
+      type: 'choice',
+      required: false,
+      choice: yesNo(),
+      synonyms: ['brush worn', 'worn', 'burste verschlissen', 'cepillo gastado'],
+      hint: 'for the chip brush: yes or no',
+    }),
+    f({ key: 'notes', label: 'Notes', type: 'notes', required: false, synonyms: NOTES_SYNONYMS, hint: '' }),
+  ],
 };
 
 /** The field of a kind with this key. */

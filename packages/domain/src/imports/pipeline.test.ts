@@ -373,3 +373,48 @@ describe('saws by name, tag and near misses', () => {
     expect(betterKind('stops', opened.header)).toBeNull();
   });
 });
+
+describe('check sheets (one reading column, its unit by row)', () => {
+  const checks = [
+    ['c1', 'Guide bearing clearance', 'length'],
+    ['c2', 'Band tracking', 'length'],
+    ['c3', 'Band tension', 'stress'],
+    ['c4', 'Chip brush', 'condition'],
+    ['c5', 'Head down-force', 'force'],
+    ['c6', 'Guide and pressure bearing wear', 'length'],
+  ].map(([n, name, quantity]) => ({
+    id: `00000000-0000-4000-8000-0000000000${n!.slice(1).padStart(2, '0')}`,
+    name: name!,
+    quantity: quantity as 'length' | 'stress' | 'condition' | 'force',
+    retired: false,
+  }));
+  const withChecks: ImportTarget = { ...hammerfield, checks, unitSystem: 'imperial' };
+
+  it('reads each reading in its row’s unit and the brush’s answers, and asks about a check it does not know', async () => {
+    const { opened, rows } = await open('hammerfield-check-sheets.csv');
+    const plan = planFor('checks', withChecks, opened, rows);
+    expect(Object.fromEntries(plan.columns.map((c) => [c.header, c.field]))).toEqual({
+      Saw: 'saw',
+      Check: 'check',
+      Date: 'checkedAt',
+      Reading: 'reading',
+      Unit: 'readingUnit',
+      'Brush reaches gullets': 'reachesGullets',
+      'Brush worn': 'brushWorn',
+      Notes: 'notes',
+    });
+    const c = collect('checks', plan, withChecks, rows);
+    expect(c.rows.map((r) => r.error).filter(Boolean)).toHaveLength(1);
+    const rec = (i: number) => c.rows[i]!.record as { reading: number | null; answers: unknown; siteCheckId: string };
+    // 0.043 in = 1.0922 mm; 27,500 psi = 189.606 MPa; 6.5 lbf = 28.913 N (NIST SP 811, B.8).
+    expect(rec(0).reading).toBeCloseTo(1.0922, 9);
+    expect(rec(1).reading).toBeCloseTo(189.6058, 3);
+    expect(rec(2)).toMatchObject({ reading: null, answers: { reachesGullets: true, worn: false } });
+    expect(rec(3).reading).toBe(1.4);
+    expect(rec(4).reading).toBeCloseTo(28.91344, 4);
+    expect(c.rows[6]!.error).toContain('no check on this site’s list is called “Guide & bearing wear”');
+    expect(c.unmatchedList()[0]).toMatchObject({ field: 'check', written: 'Guide & bearing wear' });
+    expect(c.unmatchedList()[0]!.suggestions[0]!.label).toBe('Guide and pressure bearing wear');
+    expect(c.verdictOf(7)).toMatchObject({ verdict: 'repeated' });
+  });
+});

@@ -26,7 +26,7 @@ import {
 import { IMPORT_FIELDS, type ImportKind } from './fields.js';
 import type { ImportPlan, PreviewRow, RowIssue, RowVerdict, Unmatched } from './schema.js';
 import { cellText, type Cell } from './values.js';
-import { nearSaws, nearSpecs, suggestChoice } from './suggest.js';
+import { nameScore, nearSaws, nearSpecs, suggestChoice } from './suggest.js';
 
 /**
  * One import from bytes to records, the same in the browser's Web Worker (the preview) and on the server (the
@@ -355,6 +355,14 @@ export class ImportCollector {
             value: s.id,
             label: `${s.assetTag} · ${s.name}`,
           }));
+        else if (field?.type === 'check')
+          suggestions = (this.target.checks ?? [])
+            .filter((c) => !c.retired)
+            .map((c) => ({ c, score: nameScore(u.written, c.name) }))
+            .filter((x) => x.score >= 0.5)
+            .sort((a, b) => b.score - a.score)
+            .slice(0, 3)
+            .map((x) => ({ value: x.c.id, label: x.c.name }));
         else if (field?.type === 'spec')
           suggestions = nearSpecs(
             this.target.specs.filter((s) => !s.archived),

@@ -245,6 +245,15 @@ export const importContextSchema = z.object({
       archived: z.boolean(),
     }),
   ),
+  /** The site's list of checks, for check sheets. */
+  checks: z.array(
+    z.object({
+      id: idSchema,
+      name: z.string(),
+      quantity: z.enum(['length', 'force', 'stress', 'condition']),
+      retired: z.boolean(),
+    }),
+  ),
   memory: importMemorySchema.nullable(),
   limits: z.object({ maxBytes: z.number().int(), maxRows: z.number().int() }),
   /** The kinds this installation can bring in (checks need the checks feature). */

@@ -18,6 +18,25 @@ export function similarity(a: string, b: string): number {
   return 1 - distance(a, b) / longest;
 }
 
+const words = (text: string) =>
+  new Set(
+    normaliseWord(text.replace(/&/g, ' and '))
+      .split(/[^a-z0-9]+/)
+      .filter((w) => w !== ''),
+  );
+
+/**
+ * How close two names are: the share of words they have in common, or the closeness of their spelling, whichever
+ * is higher ("Guide & bearing wear" is nearer "Guide and pressure bearing wear" than "Guide bearing clearance").
+ */
+export function nameScore(a: string, b: string): number {
+  const wa = words(a);
+  const wb = words(b);
+  const common = [...wa].filter((w) => wb.has(w)).length;
+  const union = new Set([...wa, ...wb]).size;
+  return Math.max(union === 0 ? 0 : common / union, similarity(looseKey(a), looseKey(b)) * 0.9);
+}
+
 /** How well a header names a field: 1 for one of its words, less for containing one, or for a near spelling. */
 export function headerScore(header: string, field: ImportField): number {
   const h = normaliseHeader(header);
@@ -199,7 +218,7 @@ export function nearSpecs(specs: readonly SpecRef[], written: string): SpecRef[]
   const key = looseKey(written);
   if (key === '') return [];
   return specs
-    .map((s) => ({ s, score: similarity(key, looseKey(s.name)) }))
+    .map((s) => ({ s, score: nameScore(written, s.name) }))
     .filter((x) => x.score >= 0.6)
     .sort((a, b) => b.score - a.score)
     .slice(0, 3)

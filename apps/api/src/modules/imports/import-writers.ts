@@ -2,8 +2,16 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import type { ImportKind, RowVerdict } from '@kerfline/domain/imports/schema';
 import type { CollectedRow } from '@kerfline/domain/imports/pipeline';
 import { ImportBatch } from './import-batch.model.js';
-import { formatAt } from '../records/record-support.js';
+import { formatAt, namesOf } from '../records/record-support.js';
+import { SiteCheck } from '../site-checks/site-check.model.js';
+import { Site } from '../sites/site.model.js';
+import { effectiveSettingsAt } from '../site-settings/effective-settings.js';
+import type { CheckAnswers } from '@kerfline/domain/site-checks/schema';
+import { judgeCheckReading } from '@kerfline/domain/site-checks/evaluate';
+import type { BladeMaterial, HeadFeed } from '@kerfline/domain/checks/schema';
+import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import type {
+  ImportedCheck,
   ImportTarget,
   ImportedReceipt,
   ImportedRun,
@@ -49,7 +57,7 @@ async function stage<R>(transaction: Transaction, columns: Column<R>[], collecte
        idx integer NOT NULL,
        ${columns.map((c) => `${c.name} ${c.type}`).join(',\n       ')},
        verdict text NOT NULL DEFAULT 'add',
-       other_id uuid, other_from timestamptz, other_to timestamptz
+       other_id uuid, other_from timestamptz, other_to timestamptz, reason text
      ) ON COMMIT DROP`,
   );
   if (collected.length === 0) return;
@@ -93,14 +101,18 @@ async function verdictsOf(
     other_id: string | null;
     other_from: Date | null;
     other_to: Date | null;
-  }>(transaction, `SELECT idx, verdict, other_id, other_from, other_to FROM import_stage WHERE verdict <> 'add'`);
+    reason: string | null;
+  }>(
+    transaction,
+    `SELECT idx, verdict, other_id, other_from, other_to, reason FROM import_stage WHERE verdict <> 'add'`,
+  );
   return {
     verdicts: new Map(
       settled.map((s) => [
         s.idx,
         s.verdict === 'present'
           ? { verdict: 'present' as const, message: 'Already in Kerfline; skipped' }
-          : { verdict: 'rejected' as const, message: describe(s) },
+          : { verdict: 'rejected' as const, message: s.reason ?? describe(s) },
       ]),
     ),
   };
@@ -172,17 +184,20 @@ const bladeRuns: KindWriter = {
       installed_at: Date;
       cut_logs: number;
       photos: number;
+      checks: number;
       changed: Date | null;
     }>(
       transaction,
       `SELECT s.asset_tag, r.installed_at,
               (SELECT count(*)::int FROM cut_logs c WHERE c.blade_run_id = r.id) AS cut_logs,
               (SELECT count(*)::int FROM photos p WHERE p.blade_run_id = r.id) AS photos,
+              (SELECT count(*)::int FROM check_records k WHERE k.blade_run_id = r.id) AS checks,
               CASE WHEN r.updated_at > $2 THEN r.updated_at END AS changed
          FROM blade_runs r JOIN saws s ON s.id = r.saw_id
         WHERE r.import_batch_id = $1
           AND (r.updated_at > $2 OR EXISTS (SELECT 1 FROM cut_logs c WHERE c.blade_run_id = r.id)
-               OR EXISTS (SELECT 1 FROM photos p WHERE p.blade_run_id = r.id))
+               OR EXISTS (SELECT 1 FROM photos p WHERE p.blade_run_id = r.id)
+               OR EXISTS (SELECT 1 FROM check_records k WHERE k.blade_run_id = r.id))
         ORDER BY r.installed_at LIMIT 51`,
       [batchId, since],
     );
@@ -191,6 +206,7 @@ const bladeRuns: KindWriter = {
         f.changed ? `was changed on ${at(f.changed)}` : null,
         f.cut_logs ? `has ${f.cut_logs} cut log${f.cut_logs > 1 ? 's' : ''}` : null,
         f.photos ? `has ${f.photos} photo${f.photos > 1 ? 's' : ''}` : null,
+        f.checks ? `has ${f.checks} check${f.checks > 1 ? 's' : ''} recorded with it` : null,
       ]
         .filter(Boolean)
         .join(' and ');
@@ -301,7 +317,7 @@ const saws: KindWriter = {
       runs: number;
       stops: number;
       cut_logs: number;
-      receipts: number;
+      checks: number;
       changed: Date | null;
     }>(
       transaction,
@@ -309,20 +325,24 @@ const saws: KindWriter = {
               (SELECT count(*)::int FROM blade_runs r WHERE r.saw_id = s.id) AS runs,
               (SELECT count(*)::int FROM stops x WHERE x.saw_id = s.id) AS stops,
               (SELECT count(*)::int FROM cut_logs c WHERE c.saw_id = s.id) AS cut_logs,
-              0 AS receipts,
+              (SELECT count(*)::int FROM check_records k WHERE k.saw_id = s.id) AS checks,
               CASE WHEN s.updated_at > $2 THEN s.updated_at END AS changed
          FROM saws s WHERE s.import_batch_id = $1
           AND (s.updated_at > $2 OR EXISTS (SELECT 1 FROM blade_runs r WHERE r.saw_id = s.id)
                OR EXISTS (SELECT 1 FROM stops x WHERE x.saw_id = s.id)
-               OR EXISTS (SELECT 1 FROM cut_logs c WHERE c.saw_id = s.id))
+               OR EXISTS (SELECT 1 FROM cut_logs c WHERE c.saw_id = s.id)
+               OR EXISTS (SELECT 1 FROM check_records k WHERE k.saw_id = s.id))
         ORDER BY s.asset_tag LIMIT 51`,
       [batchId, since],
     );
     const plural = (n: number, word: string) => (n ? `${n} ${word}${n > 1 ? 's' : ''}` : null);
     return found.map((f) => {
-      const held = [plural(f.runs, 'blade run'), plural(f.stops, 'stop'), plural(f.cut_logs, 'cut log')].filter(
-        Boolean,
-      );
+      const held = [
+        plural(f.runs, 'blade run'),
+        plural(f.stops, 'stop'),
+        plural(f.cut_logs, 'cut log'),
+        plural(f.checks, 'check'),
+      ].filter(Boolean);
       const parts = [
         held.length ? `has ${held.join(', ')} recorded since` : null,
         f.changed ? `was changed on ${at(f.changed)}` : null,
@@ -397,10 +417,195 @@ const bladeStock: KindWriter = {
   },
 };
 
-/** The kinds this installation writes. Check sheets join when the checks feature records checks. */
+const checkColumns: Column<ImportedCheck>[] = [
+  { name: 'saw_id', type: 'uuid', value: (r) => r.sawId },
+  { name: 'site_check_id', type: 'uuid', value: (r) => r.siteCheckId },
+  { name: 'checked_at', type: 'timestamptz', value: (r) => r.checkedAt },
+  { name: 'reading', type: 'double precision', value: (r) => r.reading },
+  { name: 'answers', type: 'jsonb', value: (r) => (r.answers ? JSON.stringify(r.answers) : null) },
+  { name: 'notes', type: 'text', value: (r) => r.notes },
+  // Filled in on the server once each row is judged.
+  { name: 'blade_run_id', type: 'uuid', value: () => null },
+  { name: 'target_rule', type: 'text', value: () => null },
+  { name: 'quantity', type: 'text', value: () => null },
+  { name: 'target', type: 'double precision', value: () => null },
+  { name: 'min_value', type: 'double precision', value: () => null },
+  { name: 'max_value', type: 'double precision', value: () => null },
+  { name: 'passed', type: 'boolean', value: () => null },
+  { name: 'basis', type: 'jsonb', value: () => null },
+  { name: 'explanation', type: 'text', value: () => null },
+];
+
+/**
+ * Check sheets. Natural key: the saw, the check and the moment it was done. The verdict is never taken from the
+ * file: each reading is judged here, as a check recorded in Kerfline is, against the target for that saw and the
+ * blade that was on it then (the run covering the moment, found in one query for the whole file), with the site's
+ * settings as they are now. A check that does not apply to the saw is rejected with why.
+ */
+const checks: KindWriter = {
+  async settle(transaction, target, collected) {
+    await stage(transaction, checkColumns, collected);
+    await run(
+      transaction,
+      `UPDATE import_stage s SET verdict = 'present'
+         FROM check_records x
+        WHERE x.saw_id = s.saw_id AND x.site_check_id = s.site_check_id AND x.checked_at = s.checked_at`,
+    );
+    const staged = await rows<{
+      idx: number;
+      saw_id: string;
+      site_check_id: string;
+      reading: number | null;
+      answers: CheckAnswers | null;
+      run_id: string | null;
+      thickness_mm: number | null;
+      width_mm: number | null;
+      material: BladeMaterial | null;
+    }>(
+      transaction,
+      `SELECT s.idx, s.saw_id, s.site_check_id, s.reading, s.answers, b.run_id, b.thickness_mm, b.width_mm, b.material
+         FROM import_stage s
+         LEFT JOIN LATERAL (
+           SELECT r.id AS run_id, p.thickness_mm, p.width_mm, p.material
+             FROM blade_runs r JOIN blade_specs p ON p.id = r.blade_spec_id
+            WHERE r.saw_id = s.saw_id AND r.installed_at <= s.checked_at
+              AND (r.removed_at IS NULL OR r.removed_at > s.checked_at)
+            ORDER BY r.installed_at DESC LIMIT 1) b ON true
+        WHERE s.verdict = 'add'`,
+    );
+    const [siteChecks, sawRows, settings, site] = await Promise.all([
+      SiteCheck.findAll({ where: { siteId: target.siteId }, transaction }),
+      rows<{ id: string; band_thickness_mm: number; band_width_mm: number; head_feed: HeadFeed }>(
+        transaction,
+        'SELECT id, band_thickness_mm, band_width_mm, head_feed FROM saws WHERE site_id = $1',
+        [target.siteId],
+      ),
+      effectiveSettingsAt(target.siteId, transaction),
+      Site.findByPk(target.siteId, { attributes: ['unitSystem'], transaction }),
+    ]);
+    const names = await namesOf(siteChecks.map((c) => c.updatedById));
+    const checkById = new Map(siteChecks.map((c) => [c.id, c]));
+    const sawById = new Map(sawRows.map((w) => [w.id, w]));
+    const judged = {
+      idx: [] as number[],
+      run: [] as (string | null)[],
+      rule: [] as string[],
+      quantity: [] as string[],
+    };
+    const figures = { target: [] as (number | null)[], min: [] as (number | null)[], max: [] as (number | null)[] };
+    const verdict = { passed: [] as boolean[], basis: [] as (string | null)[], explanation: [] as string[] };
+    const refused = { idx: [] as number[], reason: [] as string[] };
+    for (const row of staged) {
+      const check = checkById.get(row.site_check_id)!;
+      const saw = sawById.get(row.saw_id)!;
+      const blade =
+        row.run_id && row.thickness_mm !== null && row.width_mm !== null && row.material !== null
+          ? { thicknessMm: row.thickness_mm, widthMm: row.width_mm, material: row.material }
+          : null;
+      const outcome = judgeCheckReading(
+        check,
+        { bandThicknessMm: saw.band_thickness_mm, bandWidthMm: saw.band_width_mm, headFeed: saw.head_feed },
+        blade,
+        { reading: row.reading, answers: row.answers },
+        {
+          system: (site?.unitSystem ?? 'metric') as UnitSystem,
+          settings,
+          fixedBasis: {
+            kind: 'site_setting',
+            settingKey: `site_check.${check.id}`,
+            changedByName: check.updatedById ? (names.get(check.updatedById) ?? null) : null,
+            changedAt: check.updatedAt.toISOString(),
+            note: 'Set on your site’s list of checks',
+          },
+        },
+      );
+      if (!outcome.ok) {
+        refused.idx.push(row.idx);
+        refused.reason.push(`${check.name}: ${outcome.message}`);
+        continue;
+      }
+      const r = outcome.result;
+      judged.idx.push(row.idx);
+      judged.run.push(row.run_id);
+      judged.rule.push(check.targetRule);
+      judged.quantity.push(check.quantity);
+      figures.target.push(r.target);
+      figures.min.push(r.min);
+      figures.max.push(r.max);
+      verdict.passed.push(r.passed);
+      verdict.basis.push(r.basis ? JSON.stringify(r.basis) : null);
+      verdict.explanation.push(r.explanation);
+    }
+    if (judged.idx.length > 0)
+      await run(
+        transaction,
+        `UPDATE import_stage s SET blade_run_id = j.run, target_rule = j.rule, quantity = j.quantity, target = j.target,
+                min_value = j.min, max_value = j.max, passed = j.passed, basis = j.basis, explanation = j.explanation
+           FROM unnest($1::int[], $2::uuid[], $3::text[], $4::text[], $5::double precision[], $6::double precision[],
+                       $7::double precision[], $8::boolean[], $9::jsonb[], $10::text[])
+                AS j(idx, run, rule, quantity, target, min, max, passed, basis, explanation)
+          WHERE s.idx = j.idx`,
+        [
+          judged.idx,
+          judged.run,
+          judged.rule,
+          judged.quantity,
+          figures.target,
+          figures.min,
+          figures.max,
+          verdict.passed,
+          verdict.basis,
+          verdict.explanation,
+        ],
+      );
+    if (refused.idx.length > 0)
+      await run(
+        transaction,
+        `UPDATE import_stage s SET verdict = 'conflict', reason = j.reason
+           FROM unnest($1::int[], $2::text[]) AS j(idx, reason) WHERE s.idx = j.idx`,
+        [refused.idx, refused.reason],
+      );
+    return verdictsOf(transaction, () => 'Cannot be recorded');
+  },
+  async insert(transaction, target, batchId) {
+    return countOf(
+      transaction,
+      `INSERT INTO check_records (site_id, saw_id, site_check_id, blade_run_id, checked_at, target_rule, quantity,
+         reading, answers, target, min_value, max_value, passed, basis, explanation, notes, import_batch_id)
+       SELECT $1, saw_id, site_check_id, blade_run_id, checked_at, target_rule, quantity,
+         CASE WHEN quantity = 'condition' THEN NULL ELSE reading END,
+         CASE WHEN quantity = 'condition' THEN answers END,
+         target, min_value, max_value, passed, basis, explanation, notes, $2
+         FROM import_stage WHERE verdict = 'add' ORDER BY saw_id, checked_at`,
+      [target.siteId, batchId],
+    );
+  },
+  async dependents(transaction, batchId, _since, at) {
+    const found = await rows<{ asset_tag: string; name: string; checked_at: Date; photos: number }>(
+      transaction,
+      `SELECT s.asset_tag, c.name, x.checked_at, (SELECT count(*)::int FROM photos p WHERE p.check_record_id = x.id) AS photos
+         FROM check_records x JOIN saws s ON s.id = x.saw_id JOIN site_checks c ON c.id = x.site_check_id
+        WHERE x.import_batch_id = $1 AND EXISTS (SELECT 1 FROM photos p WHERE p.check_record_id = x.id)
+        ORDER BY x.checked_at LIMIT 51`,
+      [batchId],
+    );
+    return found.map(
+      (f) =>
+        `the ${f.name} check of ${f.asset_tag} on ${at(f.checked_at)} has ${f.photos} photo${f.photos > 1 ? 's' : ''}`,
+    );
+  },
+  async remove(transaction, batchId) {
+    return {
+      checkRecords: await countOf(transaction, 'DELETE FROM check_records WHERE import_batch_id = $1', [batchId]),
+    };
+  },
+};
+
+/** The kinds this installation writes. */
 export const KIND_WRITERS: Partial<Record<ImportKind, KindWriter>> = {
   saws,
   blade_stock: bladeStock,
   blade_runs: bladeRuns,
   stops,
+  checks,
 };

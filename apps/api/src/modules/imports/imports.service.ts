@@ -89,10 +89,20 @@ async function targetOf(site: Site): Promise<ImportTarget> {
       WHERE site_id IS NULL OR site_id = :siteId ORDER BY name`,
     { siteId: site.id },
   );
+  const checks = await select<{
+    id: string;
+    name: string;
+    quantity: 'length' | 'force' | 'stress' | 'condition';
+    retired_at: Date | null;
+  }>(`SELECT id, name, quantity, retired_at FROM site_checks WHERE site_id = :siteId ORDER BY position, name`, {
+    siteId: site.id,
+  });
   return {
     siteId: site.id,
     timeZone: site.timeZone,
     currency: site.currency.trim(),
+    unitSystem: site.unitSystem as 'metric' | 'imperial',
+    checks: checks.map((c) => ({ id: c.id, name: c.name, quantity: c.quantity, retired: c.retired_at !== null })),
     saws: saws.map((s) => ({ id: s.id, assetTag: s.asset_tag, name: s.name, retired: s.status === 'retired' })),
     specs: specs.map((s) => ({
       id: s.id,
@@ -134,6 +144,7 @@ export async function getImportContext(
     },
     saws: target.saws.map((s) => ({ ...s })),
     specs: target.specs.map((s) => ({ ...s })),
+    checks: (target.checks ?? []).map((c) => ({ ...c })),
     memory: await memoryOf(site.id, q.kind),
     limits,
     kinds: AVAILABLE_KINDS,

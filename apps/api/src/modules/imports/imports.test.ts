@@ -87,7 +87,7 @@ describe('what the wizard is given', () => {
       memory: null,
       site: { currency: 'EUR' },
     });
-    expect(res.body.kinds).toEqual(['saws', 'blade_stock', 'blade_runs', 'stops']);
+    expect(res.body.kinds).toEqual(['saws', 'blade_stock', 'blade_runs', 'stops', 'checks']);
     expect(
       (await siteAdmin.get('/api/imports/context').query({ siteId: world.sites.B.id, kind: 'stops' })).status,
     ).toBe(404);
@@ -491,5 +491,73 @@ describe('a failure part way through a commit', () => {
     expect(retry.body.batch).toMatchObject({ state: 'committed', rowsAdded: 3 });
     expect(retry.body.summary.earlier[0]).toMatchObject({ state: 'failed' });
     expect(await count('blade_runs')).toBe(before + 3);
+  });
+});
+
+describe('check sheets', () => {
+  const sheet = [
+    'Saw,Check,Date,Reading,Unit,Reaches,Worn',
+    // A-1 carries its open run from 20 days ago: the guide opening is judged against the run's spec (1.1 mm).
+    `A-1,Guide bearing clearance,${new Date(Date.now() - 5 * 86_400_000).toISOString().slice(0, 16).replace('T', ' ')},0.0472,in,,`,
+    `A-1,Chip brush,2023-02-20 16:20,,,yes,no`,
+    // A hydraulic head's down-force is set by its valve: the check does not apply to A-2.
+    `A-2,Head down-force,2023-02-20 16:25,7,lbf,,`,
+  ].join('\n');
+  const plan = (siteId: string) => ({
+    siteId,
+    kind: 'checks',
+    format: 'csv',
+    columns: [
+      { header: 'Saw', field: 'saw', unit: null },
+      { header: 'Check', field: 'check', unit: null },
+      { header: 'Date', field: 'checkedAt', unit: null },
+      { header: 'Reading', field: 'reading', unit: null },
+      { header: 'Unit', field: 'readingUnit', unit: null },
+      { header: 'Reaches', field: 'reachesGullets', unit: null },
+      { header: 'Worn', field: 'brushWorn', unit: null },
+    ],
+    decimalMark: '.',
+    dateOrder: 'ymd',
+  });
+
+  it('judges each reading on the server against the blade on the saw then, once, and undoes', async () => {
+    const siteAdmin = await as('siteadmin-a@test.example');
+    const context = await siteAdmin.get('/api/imports/context').query({ siteId: world.sites.A.id, kind: 'checks' });
+    expect(context.body.kinds).toContain('checks');
+    expect(context.body.checks.map((c: { name: string }) => c.name)).toContain('Guide bearing clearance');
+    const first = await send(siteAdmin, '/api/imports', plan(world.sites.A.id), sheet, 'checks.csv');
+    expect(first.status).toBe(201);
+    expect(first.body.batch).toMatchObject({ rowsAdded: 2, rowsRejected: 1 });
+    expect(first.body.summary.problems.map((p: { message: string }) => p.message)).toEqual([
+      expect.stringMatching(/^Head down-force: This check does not apply/),
+    ]);
+    const records = (await ctx.sequelize.query(
+      `SELECT r.reading, r.passed, r.target, r.blade_run_id, r.answers, c.name
+         FROM check_records r JOIN site_checks c ON c.id = r.site_check_id
+        WHERE r.import_batch_id = :id ORDER BY c.name`,
+      { replacements: { id: first.body.batch.id }, type: 'SELECT' },
+    )) as {
+      reading: number | null;
+      passed: boolean;
+      target: number | null;
+      blade_run_id: string | null;
+      answers: unknown;
+      name: string;
+    }[];
+    expect(records[0]).toMatchObject({
+      name: 'Chip brush',
+      reading: null,
+      passed: true,
+      answers: { reachesGullets: true, worn: false },
+    });
+    // 0.0472 in = 1.19888 mm; the target is the band's 1.1 mm plus the site's tolerance, worked out here.
+    expect(records[1]!.reading).toBeCloseTo(1.19888, 9);
+    expect(records[1]!.blade_run_id).not.toBeNull();
+    expect(records[1]!.target).toBeGreaterThan(1.1);
+    const again = await send(siteAdmin, '/api/imports', plan(world.sites.A.id), sheet, 'checks.csv');
+    expect(again.body.batch).toMatchObject({ rowsAdded: 0, rowsPresent: 2 });
+    const undone = await siteAdmin.post(`/api/imports/${first.body.batch.id}/undo`);
+    expect(undone.status).toBe(200);
+    expect(await count('check_records WHERE import_batch_id IS NOT NULL')).toBe(0);
   });
 });

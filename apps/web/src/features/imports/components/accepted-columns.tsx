@@ -41,7 +41,9 @@ export function AcceptedColumns({ kind }: { kind: ImportKind }) {
                       ? '2023-03-04, 04/03/2023, 4 Mar 2023, spreadsheet dates'
                       : field.type === 'money'
                         ? 'amount, decimal point or comma'
-                        : '—'}
+                        : field.type === 'reading'
+                          ? 'mm or in, N or lbf, MPa or psi: by the check'
+                          : '—'}
               </td>
               <td className="hidden py-2 text-ink-muted md:table-cell">{field.synonyms.slice(0, 6).join(', ')}</td>
             </tr>

@@ -74,6 +74,8 @@ export function targetOf(context: ImportContext): ImportTarget {
     currency: context.site.currency,
     saws: context.saws,
     specs: context.specs,
+    checks: context.checks,
+    unitSystem: context.site.unitSystem,
   };
 }
 

@@ -67,6 +67,8 @@ export function ValueMapping({
       return context.saws.filter((s) => !s.retired).map((s) => ({ value: s.id, label: `${s.assetTag} · ${s.name}` }));
     if (field?.type === 'spec')
       return context.specs.filter((s) => !s.archived).map((s) => ({ value: s.id, label: s.name }));
+    if (field?.type === 'check')
+      return context.checks.filter((c) => !c.retired).map((c) => ({ value: c.id, label: c.name }));
     return (field?.choice?.values ?? []).map((v) => ({ value: v, label: field!.choice!.labels[v] ?? v }));
   };
   const set = (u: Unmatched, value: string) => {
@@ -119,7 +121,9 @@ export function ValueMapping({
                       ? 'All saws of the site'
                       : field?.type === 'spec'
                         ? 'All blade specs'
-                        : 'All values'
+                        : field?.type === 'check'
+                          ? 'The site’s checks'
+                          : 'All values'
                   }
                 >
                   {all
