@@ -15,6 +15,7 @@
  * not empty.
  */
 import { performance } from 'node:perf_hooks';
+import { loadavg } from 'node:os';
 import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import pg from 'pg';
@@ -237,5 +238,10 @@ console.log(`4. plain COPY of the same rows into blade_runs:                   $
 
 console.log('');
 console.log(`whole wizard, file to committed (1 + 2 + 3):  ${seconds(wizardRead + check + commit)}   target ≤ 20 s`);
+console.log(
+  `load average while measuring: ${loadavg()
+    .map((l) => l.toFixed(1))
+    .join(' / ')} on this machine's cores (figures grow with it)`,
+);
 console.log(`commit ÷ COPY:                                 ${(commit / copy).toFixed(1)}×        target ≤ 5×`);
 await sequelize.close();

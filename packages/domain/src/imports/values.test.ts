@@ -149,3 +149,16 @@ describe('dates in the orders people write them', () => {
     );
   });
 });
+
+describe('the contributor guide', () => {
+  it('lists every accepted column of every kind', async () => {
+    const { readFileSync } = await import('node:fs');
+    const { IMPORT_FIELDS, IMPORT_KINDS } = await import('./fields.js');
+    const guide = readFileSync(new URL('../../../../DEVELOPERS.md', import.meta.url), 'utf8');
+    const section = guide.slice(guide.indexOf('### Accepted columns'));
+    for (const kind of IMPORT_KINDS) {
+      const part = section.slice(section.indexOf(`(\`${kind}\`)`));
+      for (const field of IMPORT_FIELDS[kind]) expect(part, `${kind}.${field.key}`).toContain(`| ${field.label} |`);
+    }
+  });
+});
