@@ -107,6 +107,16 @@ export function ImportWizard({
       ? buildPlan({ siteId, kind, settings, scan, columns, decimalMark, dateOrder: effectiveDateOrder, values })
       : null;
 
+  /** Another site or kind: the file must be read again for it (other saws, other columns). */
+  const forgetFile = () => {
+    abort.current?.abort();
+    setFile(null);
+    setScan(null);
+    setRows(null);
+    setReadError(null);
+    check.reset();
+  };
+
   const stopReading = () => {
     abort.current?.abort();
     abort.current = new AbortController();
@@ -209,7 +219,10 @@ export function ImportWizard({
                   id="import-site"
                   className={`${inputClass} mt-1`}
                   value={siteId}
-                  onChange={(e) => setSiteId(e.target.value)}
+                  onChange={(e) => {
+                    setSiteId(e.target.value);
+                    forgetFile();
+                  }}
                 >
                   {sites.map((s) => (
                     <option key={s.id} value={s.id}>
@@ -232,7 +245,10 @@ export function ImportWizard({
                       hint={available ? IMPORT_KIND_LABELS[k].holds : 'Comes with the maintenance checks feature'}
                       checked={kind === k}
                       disabled={!available}
-                      onChange={() => setKind(k)}
+                      onChange={() => {
+                        setKind(k);
+                        forgetFile();
+                      }}
                     />
                   );
                 })}
@@ -291,8 +307,7 @@ export function ImportWizard({
                       className="mt-2"
                       onClick={() => {
                         setKind(suggestion);
-                        setScan(null);
-                        setFile(null);
+                        forgetFile();
                       }}
                     >
                       Bring it in as a {IMPORT_KIND_LABELS[suggestion].title.toLowerCase()}
