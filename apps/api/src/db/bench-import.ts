@@ -112,6 +112,13 @@ console.log(
 
 // 1. The wizard's reading (what the Web Worker does with the dropped file).
 let t = performance.now();
+let cpu = process.cpuUsage();
+/** CPU seconds this Node process spent since `cpu` (the database's own work is not in it): load-independent. */
+const cpuSince = () => {
+  const d = process.cpuUsage(cpu);
+  cpu = process.cpuUsage();
+  return `${((d.user + d.system) / 1e6).toFixed(2)} s CPU here`;
+};
 const sample: Cell[][] = [];
 const opened = await readRows(
   bytesSource(new Uint8Array(file), 'bench.csv'),
@@ -171,7 +178,7 @@ preview.finish();
 const wizardRead = performance.now() - t;
 const previewSummary = preview.summary();
 console.log(
-  `1. wizard reading (detect, stream, build and check every row):   ${seconds(wizardRead)}  (${previewSummary.rowsValid} valid, ${previewSummary.rowsRejected} rejected)`,
+  `1. wizard reading (detect, stream, build and check every row):   ${seconds(wizardRead)}  (${cpuSince()}; ${previewSummary.rowsValid} valid, ${previewSummary.rowsRejected} rejected)`,
 );
 
 const signedIn = (await loadSignedIn(site!.user_id))!;
@@ -179,17 +186,19 @@ const limits = { maxBytes: 200 * 1024 * 1024, maxRows: 1_000_000 };
 const received = { bytes: file, fileName: 'bench.csv' };
 
 t = performance.now();
+cpu = process.cpuUsage();
 const checked = await checkImport(signedIn.ability, received, plan, limits);
 const check = performance.now() - t;
 console.log(
-  `2. server check (read again, settle against the database):        ${seconds(check)}  (${checked.rowsValid} to add)`,
+  `2. server check (read again, settle against the database):        ${seconds(check)}  (${cpuSince()}; ${checked.rowsValid} to add)`,
 );
 
 t = performance.now();
+cpu = process.cpuUsage();
 const committed = await commitImport({ ability: signedIn.ability, userId: site!.user_id }, received, plan, limits);
 const commit = performance.now() - t;
 console.log(
-  `3. server commit (read, check, settle, write in one transaction): ${seconds(commit)}  (${committed.batch.rowsAdded} added)`,
+  `3. server commit (read, check, settle, write in one transaction): ${seconds(commit)}  (${cpuSince()}; ${committed.batch.rowsAdded} added)`,
 );
 
 // 4. COPY of the same rows for the other site's saws (same numbers, same indexes and constraints).
@@ -222,6 +231,7 @@ const tsv = copyRows
 const client = new pg.Client({ connectionString: databaseUrl(env) });
 await client.connect();
 t = performance.now();
+cpu = process.cpuUsage();
 await client.query('BEGIN');
 await pipeline(
   Readable.from([tsv + '\n']),

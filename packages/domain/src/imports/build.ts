@@ -111,6 +111,28 @@ const round = (n: number) => Number(n.toPrecision(6)).toString();
 /** How a stored moment reads in the preview: `2023-01-09 12:10 UTC`. */
 const utcText = (d: Date) => `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
 
+type MappedColumn = { index: number; header: string; unit: string | null; field: ImportField };
+
+/**
+ * The plan's mapped columns with their fields, and which column each field came from, worked out once per plan:
+ * a file of 100 000 rows would otherwise redo it for every row.
+ */
+const mappedColumns = new WeakMap<ImportPlan, { mapped: MappedColumn[]; columnOf: Map<string, string> }>();
+function columnsOf(kind: ImportKind, plan: ImportPlan) {
+  let found = mappedColumns.get(plan);
+  if (!found) {
+    const fields = IMPORT_FIELDS[kind];
+    const mapped: MappedColumn[] = [];
+    plan.columns.forEach((column, index) => {
+      const field = column.field ? fields.find((x) => x.key === column.field) : undefined;
+      if (field) mapped.push({ index, header: column.header, unit: column.unit, field });
+    });
+    found = { mapped, columnOf: new Map(mapped.map((m) => [m.field.key, m.header])) };
+    mappedColumns.set(plan, found);
+  }
+  return found;
+}
+
 /** Reads each mapped cell of a row into field values, collecting issues and unmatched words. */
 function readFields(
   kind: ImportKind,
@@ -124,33 +146,39 @@ function readFields(
   const values = new Map<string, FieldValue>();
   const display: Record<string, string | null> = {};
   const issues: RowIssue[] = [];
-  const columnOf = new Map<string, string>();
-  const fields = IMPORT_FIELDS[kind];
+  const { mapped, columnOf } = columnsOf(kind, plan);
 
-  plan.columns.forEach((column, index) => {
-    if (!column.field) return;
-    const field = fields.find((x) => x.key === column.field);
-    if (!field) return;
-    columnOf.set(field.key, column.header);
+  for (const { index, header, unit, field } of mapped) {
     const cell = cells[index] ?? null;
-    const issue = (message: string, level: 'error' | 'warning' = 'error') =>
-      issues.push({ rowNumber, column: column.header, field: field.key, level, message: `${field.label}: ${message}` });
-    const r = readCell(field, cell, column.unit, plan, target, wantDisplay);
+    const r = readCell(field, cell, unit, plan, target, wantDisplay);
     if (!r.ok) {
-      issue(r.message);
+      issues.push({
+        rowNumber,
+        column: header,
+        field: field.key,
+        level: 'error',
+        message: `${field.label}: ${r.message}`,
+      });
       if (r.unmatched && unmatched) {
         const tallyKey = `${field.key}|${r.unmatched.key}`;
         const t = unmatched.get(tallyKey);
         if (t) t.rows += 1;
         else unmatched.set(tallyKey, { field: field.key, written: r.unmatched.written, key: r.unmatched.key, rows: 1 });
       }
-      display[field.key] = cellText(cell);
-      return;
+      if (wantDisplay) display[field.key] = cellText(cell);
+      continue;
     }
-    if (r.warning) issue(r.warning, 'warning');
+    if (r.warning)
+      issues.push({
+        rowNumber,
+        column: header,
+        field: field.key,
+        level: 'warning',
+        message: `${field.label}: ${r.warning}`,
+      });
     values.set(field.key, r.value);
-    display[field.key] = r.display;
-  });
+    if (wantDisplay) display[field.key] = r.display;
+  }
   return { values, display, issues, columnOf };
 }
 

@@ -517,6 +517,11 @@ export async function undoImport({ ability, userId }: Actor, id: string): Promis
       );
     if (batch.state !== 'committed')
       throw new AppError('CONFLICT', 'This import did not finish, so it wrote nothing to take out');
+    // Imports into the same site wait: what depends on this batch cannot change while it is checked and removed.
+    await ImportBatch.sequelize!.query(`SELECT pg_advisory_xact_lock(hashtext('kerfline-import:' || $1))`, {
+      bind: [batch.siteId],
+      transaction,
+    });
     const writer = KIND_WRITERS[batch.kind]!;
     const site = await Site.findByPk(batch.siteId, { attributes: ['timeZone'], transaction });
     const tz = site?.timeZone ?? 'UTC';
