@@ -163,7 +163,36 @@ export function PreviewTable({
       <p className="text-sm text-ink-muted">
         Lengths in mm, speeds in m/min, areas in mm², tension in MPa, times in UTC: how Kerfline keeps them.
       </p>
-      <div className="overflow-x-auto rounded-sheet border border-rule bg-card">
+      {/* On a phone each row is a card: field and value one under the other. */}
+      <ol className="space-y-2 md:hidden" aria-label="First rows">
+        {preview.map((row) => (
+          <li key={row.rowNumber} className="rounded-sheet border border-rule bg-card p-3 text-sm">
+            <div className="flex items-center justify-between gap-2">
+              <span className="font-bold text-ink">Row {row.rowNumber}</span>
+              <VerdictBadge verdict={row.verdict} />
+            </div>
+            {row.issues.length > 0 ? (
+              <ul className="mt-1 space-y-0.5 text-xs">
+                {row.issues.map((issue, i) => (
+                  <li key={i} className={issue.level === 'error' ? 'font-semibold text-signal-stop' : 'text-ink-muted'}>
+                    {issue.level === 'warning' ? 'Note: ' : ''}
+                    {issue.message}
+                  </li>
+                ))}
+              </ul>
+            ) : null}
+            <dl className="mt-2 grid grid-cols-[auto_minmax(0,1fr)] gap-x-3 gap-y-0.5">
+              {fields.map((f) => (
+                <div key={f.key} className="contents">
+                  <dt className="text-ink-muted">{f.label}</dt>
+                  <dd className="tabular break-words text-ink">{row.values[f.key] ?? '—'}</dd>
+                </div>
+              ))}
+            </dl>
+          </li>
+        ))}
+      </ol>
+      <div className="hidden overflow-x-auto rounded-sheet border border-rule bg-card md:block">
         <table className="w-full text-left text-sm">
           <thead className="border-b border-rule bg-paper-deep text-ink-muted">
             <tr>
