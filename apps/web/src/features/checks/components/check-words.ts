@@ -92,9 +92,15 @@ export function limitsWords(check: SiteCheck, settings: readonly SiteSetting[], 
   const named = keys.map((key) => {
     const setting = settings.find((s) => s.key === key);
     const label = settingDefinition(key)?.label ?? key;
-    return setting ? `“${label}” (${basisWords(settingFigureBasis(setting), timeZone)})` : `“${label}”`;
+    return setting ? `“${label}” (${shortBasis(settingFigureBasis(setting), timeZone)})` : `“${label}”`;
   });
   return `${keys.length > 1 ? 'Your site’s settings' : 'Your site’s setting'} ${named.join(', ')}`;
+}
+
+/** A basis in a few words, for a list that names several settings: the settings page has the citations. */
+function shortBasis(basis: ReturnType<typeof settingFigureBasis>, timeZone?: string): string {
+  if (basis.kind === 'published') return 'published';
+  return basisWords(basis, timeZone);
 }
 
 export const DUE_STATE_WORDS: Record<DueStateName, string> = { ok: 'Up to date', due: 'Due now', overdue: 'Overdue' };
