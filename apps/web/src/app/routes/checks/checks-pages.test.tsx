@@ -260,7 +260,7 @@ describe('a site’s list of checks', () => {
     const { user } = renderApp(`/sites/${SITE_ID}/checks`);
     const guide = await screen.findByRole('article', { name: 'Guide bearing clearance' });
     expect(guide).toHaveTextContent(
-      'Your site’s setting “Guide opening” (Kerfline’s starting value (no printed source gives one value))',
+      'Your site’s setting “Guide opening”: Kerfline’s starting value (no printed source gives one value)',
     );
     expect(guide).toHaveTextContent('At each blade change, within 8 h');
     const tension = screen.getByRole('article', { name: 'Band tension' });
