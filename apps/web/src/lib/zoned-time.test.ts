@@ -38,3 +38,15 @@ describe('times on the site’s clock', () => {
     expect(fromZonedInput('2026-02-30T07:00', 'UTC')).toBeNull();
   });
 });
+
+describe('a time field left as the form opened it', () => {
+  it('means the moment the form opened, seconds included; a typed time is read on the site’s clock', async () => {
+    const { readZonedTime } = await import('./zoned-time');
+    const opened = new Date('2026-03-04T13:30:42.500Z');
+    expect(readZonedTime('2026-03-04T07:30', 'America/Chicago', opened)).toBe(opened);
+    expect(readZonedTime('2026-03-04T07:31', 'America/Chicago', opened)?.toISOString()).toBe(
+      '2026-03-04T13:31:00.000Z',
+    );
+    expect(readZonedTime('soon', 'America/Chicago', opened)).toBeNull();
+  });
+});

@@ -77,3 +77,13 @@ export function fromZonedInput(value: string, timeZone: string): Date | null {
   }
   return new Date(candidates[candidates.length - 1]!);
 }
+
+/**
+ * The instant a time field means. A field still showing the minute the form opened at means that moment itself,
+ * seconds included, so a stop logged and ended within the same minute still ends after it starts; a time the
+ * person typed is read on the site's clock.
+ */
+export function readZonedTime(value: string, timeZone: string, openedAt: Date): Date | null {
+  if (value.trim() === toZonedInput(openedAt, timeZone)) return openedAt;
+  return fromZonedInput(value, timeZone);
+}

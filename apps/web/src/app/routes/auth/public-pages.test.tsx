@@ -4,7 +4,7 @@ import userEvent from '@testing-library/user-event';
 import { createMemoryRouter } from 'react-router-dom';
 import { createQueryClient } from '../../../lib/query-client';
 import { installFakeApi } from '../../../test-support/fake-api';
-import { SITE_ID, makeMe, makeSite, page } from '../../../test-support/fixtures';
+import { makeMe, makeSite, page } from '../../../test-support/fixtures';
 import { AppProviders } from '../../providers';
 import { appRoutes } from '../../router';
 

@@ -1,4 +1,4 @@
-import { useNavigation, useSearchParams } from 'react-router-dom';
+import { useLocation, useNavigation, useSearchParams } from 'react-router-dom';
 import type { OnChangeFn, SortingState } from '@tanstack/react-table';
 import { sortOf, sortingOf, withFilters } from '../../../lib/list-search';
 
@@ -10,11 +10,20 @@ import { sortOf, sortingOf, withFilters } from '../../../lib/list-search';
 export function useTableUrl(defaultSort: string) {
   const [search, setSearch] = useSearchParams();
   const navigation = useNavigation();
-  const setFilters = (changes: Record<string, string | undefined>) => setSearch(withFilters(search, changes));
+  const location = useLocation();
+  // While the last change is still loading, the page shows the old address: build the next one on the address
+  // being loaded, so a second change made meanwhile keeps the first.
+  const pending =
+    navigation.location && navigation.location.pathname === location.pathname
+      ? new URLSearchParams(navigation.location.search)
+      : null;
+  const setFilters = (changes: Record<string, string | undefined>) =>
+    setSearch(withFilters(pending ?? search, changes));
   const sortingFor = (sort: string): { sorting: SortingState; onSortingChange: OnChangeFn<SortingState> } => ({
     sorting: sortingOf(sort),
     onSortingChange: (updater) => {
-      const next = typeof updater === 'function' ? updater(sortingOf(sort)) : updater;
+      const pendingSort = pending ? (pending.get('sort') ?? defaultSort) : sort;
+      const next = typeof updater === 'function' ? updater(sortingOf(pendingSort)) : updater;
       const wanted = sortOf(next);
       setFilters({ sort: wanted === defaultSort ? undefined : wanted });
     },

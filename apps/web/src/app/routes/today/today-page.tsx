@@ -35,9 +35,19 @@ export function todayPageLoader(queryClient: QueryClient) {
   };
 }
 
+/** The start screen's actions: the two that start the day's work at this saw; the rest are on its page. */
+const TODAY_ACTIONS = ['end-stop', 'change-blade', 'blade-on', 'log-stop'];
+
 function SawCard({ saw, timeZone }: { saw: Saw; timeZone: string }) {
   const ability = useAppAbility();
-  const actions = sawActionsFor(saw, ability).slice(0, 3);
+  const actions = sawActionsFor(saw, ability)
+    .filter((action) => TODAY_ACTIONS.includes(action.key))
+    .slice(0, 2)
+    // Copper only where a saw is down: ending its stop is the work that cannot wait.
+    .map((action) => ({
+      ...action,
+      variant: action.key === 'end-stop' ? ('primary' as const) : ('secondary' as const),
+    }));
   return (
     <li>
       <SawStatePanel
@@ -54,7 +64,13 @@ function SawCard({ saw, timeZone }: { saw: Saw; timeZone: string }) {
             </Link>
           </h3>
         }
-        actions={actions.length > 0 ? <SawActionButtons actions={actions} /> : undefined}
+        actions={
+          actions.length > 0 ? (
+            <div className="grid w-full grid-cols-2 gap-2">
+              <SawActionButtons actions={actions} />
+            </div>
+          ) : undefined
+        }
       />
     </li>
   );

@@ -56,7 +56,7 @@ export function BladeEconomicsPanel({
         <p className="mt-2 text-ink-muted">No blade has come off this saw yet, so there is no blade life to show.</p>
       ) : (
         <>
-          <dl className="mt-3 grid grid-cols-2 gap-4 sm:grid-cols-4">
+          <dl className="mt-3 grid grid-cols-2 gap-4">
             <div>
               <dt className="text-sm text-ink-muted">Area per blade (median)</dt>
               <dd className="tabular text-2xl font-extrabold text-ink">

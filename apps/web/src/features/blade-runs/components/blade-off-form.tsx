@@ -35,12 +35,12 @@ function inSiteUnits(message: string, system: UnitSystem): string {
   });
 }
 
-function resolverFor(system: UnitSystem, timeZone: string) {
+function resolverFor(system: UnitSystem, timeZone: string, openedAt: Date) {
   return domainSchemaResolver(
     bladeRunRemoveSchema,
-    (values: BladeOffFormValues) => bladeOffInput(values, system, timeZone).input,
+    (values: BladeOffFormValues) => bladeOffInput(values, system, timeZone, openedAt).input,
     (path) => bladeOffFieldForPath(path),
-    (values) => bladeOffInput(values, system, timeZone).fieldErrors,
+    (values) => bladeOffInput(values, system, timeZone, openedAt).fieldErrors,
     (message) => inSiteUnits(message, system),
   ) as Resolver<BladeOffFormValues, unknown, BladeRunRemoveParsed>;
 }
@@ -69,8 +69,9 @@ export function BladeOffForm({
   submitLabel = 'Take blade off',
   cancel,
 }: BladeOffFormProps) {
-  const resolver = useMemo(() => resolverFor(system, timeZone), [system, timeZone]);
-  const defaultValues = useMemo(() => bladeOffDefaults(timeZone), [timeZone]);
+  const [openedAt] = useState(() => new Date());
+  const resolver = useMemo(() => resolverFor(system, timeZone, openedAt), [system, timeZone, openedAt]);
+  const defaultValues = useMemo(() => bladeOffDefaults(timeZone, openedAt), [timeZone, openedAt]);
   const {
     register,
     handleSubmit,

@@ -4,7 +4,7 @@ import type { RemovalReason } from '@kerfline/domain/diagnosis/schema';
 import { MAX_PHOTO_BYTES, PHOTO_TYPES } from '@kerfline/domain/photos/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { readCount, readQuantity } from '../../../lib/form-numbers';
-import { fromZonedInput, toZonedInput } from '../../../lib/zoned-time';
+import { readZonedTime, toZonedInput } from '../../../lib/zoned-time';
 
 /** The take-the-blade-off form as typed: time on the site's clock, area in the site's unit (in² or cm²). */
 export type BladeOffFormValues = {
@@ -40,9 +40,10 @@ export function bladeOffInput(
   values: BladeOffFormValues,
   system: UnitSystem,
   timeZone: string,
+  openedAt: Date = new Date(),
 ): { input: BladeRunRemove; fieldErrors: Partial<Record<BladeOffField, string>> } {
   const fieldErrors: Partial<Record<BladeOffField, string>> = {};
-  const removedAt = fromZonedInput(values.removedAt, timeZone);
+  const removedAt = readZonedTime(values.removedAt, timeZone, openedAt);
   if (!removedAt) fieldErrors.removedAt = 'Enter when the blade came off, such as 2026-03-04 15:10';
   if (values.reason === '') fieldErrors.reason = 'Choose why the blade came off';
   const area = readQuantity(values.areaCut, 'area', system, 'Area cut');

@@ -1,4 +1,4 @@
-import { useMemo, type ReactNode } from 'react';
+import { useMemo, useState, type ReactNode } from 'react';
 import { useForm, useWatch, type Resolver } from 'react-hook-form';
 import { bladeRunInstallSchema, type BladeRun, type BladeRunInstallParsed } from '@kerfline/domain/blade-runs/schema';
 import { pitchLabel, type BladeSpec } from '@kerfline/domain/blade-specs/schema';
@@ -32,12 +32,12 @@ function inSiteUnits(message: string, system: UnitSystem): string {
   });
 }
 
-function resolverFor(sawId: string, system: UnitSystem, timeZone: string) {
+function resolverFor(sawId: string, system: UnitSystem, timeZone: string, openedAt: Date) {
   return domainSchemaResolver(
     bladeRunInstallSchema,
-    (values: BladeOnFormValues) => bladeOnInput(values, sawId, system, timeZone).input,
+    (values: BladeOnFormValues) => bladeOnInput(values, sawId, system, timeZone, openedAt).input,
     (path) => bladeOnFieldForPath(path),
-    (values) => bladeOnInput(values, sawId, system, timeZone).fieldErrors,
+    (values) => bladeOnInput(values, sawId, system, timeZone, openedAt).fieldErrors,
     (message) => inSiteUnits(message, system),
   ) as Resolver<BladeOnFormValues, unknown, BladeRunInstallParsed>;
 }
@@ -80,10 +80,11 @@ export function BladeOnForm({
   onSubmit,
   cancel,
 }: BladeOnFormProps) {
-  const resolver = useMemo(() => resolverFor(saw.id, system, timeZone), [saw.id, system, timeZone]);
+  const [openedAt] = useState(() => new Date());
+  const resolver = useMemo(() => resolverFor(saw.id, system, timeZone, openedAt), [saw.id, system, timeZone, openedAt]);
   const defaultValues = useMemo(
-    () => bladeOnDefaults(saw, recentRuns, specs, system, timeZone),
-    [saw, recentRuns, specs, system, timeZone],
+    () => bladeOnDefaults(saw, recentRuns, specs, system, timeZone, openedAt),
+    [saw, recentRuns, specs, system, timeZone, openedAt],
   );
   const {
     register,

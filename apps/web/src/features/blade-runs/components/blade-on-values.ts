@@ -4,7 +4,7 @@ import type { MaterialGroup } from '@kerfline/domain/band-speed/schema';
 import type { Saw } from '@kerfline/domain/saws/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { quantityInput, readQuantity } from '../../../lib/form-numbers';
-import { fromZonedInput, toZonedInput } from '../../../lib/zoned-time';
+import { readZonedTime, toZonedInput } from '../../../lib/zoned-time';
 
 /** What the technician answers about break-in: followed, skipped, or not done yet (recorded later). */
 export type BreakInAnswer = 'yes' | 'no' | 'later';
@@ -93,9 +93,10 @@ export function bladeOnInput(
   sawId: string,
   system: UnitSystem,
   timeZone: string,
+  openedAt: Date = new Date(),
 ): { input: BladeRunInstall; fieldErrors: Partial<Record<BladeOnField, string>> } {
   const fieldErrors: Partial<Record<BladeOnField, string>> = {};
-  const installedAt = fromZonedInput(values.installedAt, timeZone);
+  const installedAt = readZonedTime(values.installedAt, timeZone, openedAt);
   if (!installedAt) fieldErrors.installedAt = 'Enter when the blade went on, such as 2026-03-04 07:30';
   const tension = readQuantity(values.tension, 'stress', system, 'Tension');
   if (!tension.ok) fieldErrors.tension = tension.message;

@@ -1,6 +1,11 @@
 import { useEffect, useId, useMemo, useState } from 'react';
 import { photoProblem } from './blade-off-values';
 
+/** A file's size as people read it: `820 KB`, `3.4 MB`. */
+export function sizeText(bytes: number): string {
+  return bytes < 1024 * 1024 ? `${Math.max(1, Math.round(bytes / 1024))} KB` : `${(bytes / 1024 / 1024).toFixed(1)} MB`;
+}
+
 /** A chosen photo and how far its upload has gone (null before it starts). */
 export type PendingPhoto = { key: string; file: File; progress: number | null; error: string | null; done: boolean };
 
@@ -97,7 +102,7 @@ export function PhotoPicker({
                     </p>
                   </>
                 ) : (
-                  <p className="text-ink-muted">{(photo.file.size / 1024 / 1024).toFixed(1)} MB</p>
+                  <p className="text-ink-muted">{sizeText(photo.file.size)}</p>
                 )}
                 {photo.error ? <p className="font-semibold text-signal-stop">{photo.error}</p> : null}
               </div>

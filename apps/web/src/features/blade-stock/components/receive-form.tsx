@@ -88,7 +88,7 @@ export function ReceiveForm({
             <option value="">Choose…</option>
             {specs.map((s) => (
               <option key={s.id} value={s.id}>
-                {s.name} ({pitchLabel(s.pitch)})
+                {s.name.includes(pitchLabel(s.pitch)) ? s.name : `${s.name} (${pitchLabel(s.pitch)})`}
               </option>
             ))}
           </select>

@@ -117,10 +117,18 @@ function Line({
       <div className="flex flex-wrap items-start justify-between gap-3">
         <div className="min-w-0">
           <h3 className="font-bold text-ink">{line.bladeSpec.name}</h3>
-          <p className="text-sm text-ink-muted">
-            {pitchLabel(line.bladeSpec.pitch)}
-            {line.bladeSpec.siteId ? ' · this site’s own spec' : ''}
-          </p>
+          {line.bladeSpec.name.includes(pitchLabel(line.bladeSpec.pitch)) && !line.bladeSpec.siteId ? null : (
+            <p className="text-sm text-ink-muted">
+              {[
+                line.bladeSpec.name.includes(pitchLabel(line.bladeSpec.pitch))
+                  ? null
+                  : pitchLabel(line.bladeSpec.pitch),
+                line.bladeSpec.siteId ? 'this site’s own spec' : null,
+              ]
+                .filter(Boolean)
+                .join(' · ')}
+            </p>
+          )}
         </div>
         <LineStatus line={line} />
       </div>

@@ -4,7 +4,7 @@ import type { StockShapeKind } from '@kerfline/domain/stock-area/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { readCount, readQuantity } from '../../../lib/form-numbers';
 import { DIMENSION_KEYS, SHAPE_DIMENSIONS, type DimensionKey } from '../../../lib/stock-shapes';
-import { fromZonedInput, toZonedInput } from '../../../lib/zoned-time';
+import { readZonedTime, toZonedInput } from '../../../lib/zoned-time';
 
 /** A cut log as typed: sizes and band speed in the site's units, the cut time in minutes. */
 export type CutLogFormValues = {
@@ -68,9 +68,10 @@ export function cutLogInput(
   sawId: string,
   system: UnitSystem,
   timeZone: string,
+  openedAt: Date = new Date(),
 ): { input: CutLogCreate; fieldErrors: Partial<Record<CutLogField, string>> } {
   const fieldErrors: Partial<Record<CutLogField, string>> = {};
-  const cutAt = fromZonedInput(values.cutAt, timeZone);
+  const cutAt = readZonedTime(values.cutAt, timeZone, openedAt);
   if (!cutAt) fieldErrors.cutAt = 'Enter when the cut was made, such as 2026-03-04 07:30';
   const shape: Record<string, unknown> = { kind: values.shape };
   for (const { key, label } of SHAPE_DIMENSIONS[values.shape]) {

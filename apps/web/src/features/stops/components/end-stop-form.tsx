@@ -1,4 +1,4 @@
-import { useMemo, type ReactNode } from 'react';
+import { useMemo, useState, type ReactNode } from 'react';
 import { useForm, type Resolver } from 'react-hook-form';
 import type { Stop } from '@kerfline/domain/stops/schema';
 import { STOP_CATEGORY_LABELS } from '@kerfline/domain/stops/schema';
@@ -7,7 +7,7 @@ import { formatDateTime } from '../../../lib/format';
 import { Button } from '../../../lib/ui/button';
 import { Field, inputClass } from '../../../lib/ui/field';
 import { Notice } from '../../../lib/ui/notice';
-import { fromZonedInput, toZonedInput } from '../../../lib/zoned-time';
+import { readZonedTime, toZonedInput } from '../../../lib/zoned-time';
 import { stopEndSchema, type StopEnd } from '@kerfline/domain/stops/schema';
 
 type EndValues = { endedAt: string };
@@ -27,7 +27,8 @@ export function EndStopForm({
   onSubmit: (endedAt: Date) => Promise<unknown>;
   cancel: ReactNode;
 }) {
-  const defaultValues = useMemo(() => ({ endedAt: toZonedInput(new Date(), timeZone) }), [timeZone]);
+  const [openedAt] = useState(() => new Date());
+  const defaultValues = useMemo(() => ({ endedAt: toZonedInput(openedAt, timeZone) }), [openedAt, timeZone]);
   const {
     register,
     handleSubmit,
@@ -37,10 +38,12 @@ export function EndStopForm({
     defaultValues,
     resolver: domainSchemaResolver(
       stopEndSchema,
-      (values: EndValues) => ({ endedAt: fromZonedInput(values.endedAt, timeZone)?.toISOString() ?? values.endedAt }),
+      (values: EndValues) => ({
+        endedAt: readZonedTime(values.endedAt, timeZone, openedAt)?.toISOString() ?? values.endedAt,
+      }),
       (path) => (path === 'endedAt' ? 'endedAt' : undefined),
       (values) => {
-        const at = fromZonedInput(values.endedAt, timeZone);
+        const at = readZonedTime(values.endedAt, timeZone, openedAt);
         if (!at) return { endedAt: 'Enter when the saw ran again' };
         if (at.getTime() <= Date.parse(stop.startedAt))
           return { endedAt: `The end must be after the start (${formatDateTime(stop.startedAt, timeZone)})` };

@@ -1,4 +1,4 @@
-import { useMemo, type ReactNode } from 'react';
+import { useMemo, useState, type ReactNode } from 'react';
 import { useForm, useWatch, type Resolver } from 'react-hook-form';
 import {
   STOP_CATEGORIES,
@@ -13,12 +13,12 @@ import { Field, inputClass } from '../../../lib/ui/field';
 import { Notice } from '../../../lib/ui/notice';
 import { plannedFor, stopDefaults, stopFieldForPath, stopInput, type StopFormValues } from './stop-values';
 
-function resolverFor(sawId: string, timeZone: string) {
+function resolverFor(sawId: string, timeZone: string, openedAt: Date) {
   return domainSchemaResolver(
     stopCreateSchema,
-    (values: StopFormValues) => stopInput(values, sawId, timeZone).input,
+    (values: StopFormValues) => stopInput(values, sawId, timeZone, openedAt).input,
     (path) => stopFieldForPath(path),
-    (values) => stopInput(values, sawId, timeZone).fieldErrors,
+    (values) => stopInput(values, sawId, timeZone, openedAt).fieldErrors,
   ) as Resolver<StopFormValues, unknown, StopCreateParsed>;
 }
 
@@ -38,8 +38,9 @@ export function StopForm({
   onSubmit: (input: StopCreateParsed) => Promise<unknown>;
   cancel: ReactNode;
 }) {
-  const resolver = useMemo(() => resolverFor(sawId, timeZone), [sawId, timeZone]);
-  const defaultValues = useMemo(() => stopDefaults(timeZone), [timeZone]);
+  const [openedAt] = useState(() => new Date());
+  const resolver = useMemo(() => resolverFor(sawId, timeZone, openedAt), [sawId, timeZone, openedAt]);
+  const defaultValues = useMemo(() => stopDefaults(timeZone, openedAt), [timeZone, openedAt]);
   const {
     register,
     handleSubmit,

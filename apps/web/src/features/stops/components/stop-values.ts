@@ -1,5 +1,5 @@
 import { STOP_CATEGORIES, type StopCategory, type StopCreate } from '@kerfline/domain/stops/schema';
-import { fromZonedInput, toZonedInput } from '../../../lib/zoned-time';
+import { fromZonedInput, readZonedTime, toZonedInput } from '../../../lib/zoned-time';
 
 /** Logging a stop as typed: times on the site's clock; "still stopped" leaves the end blank. */
 export type StopFormValues = {
@@ -44,9 +44,10 @@ export function stopInput(
   values: StopFormValues,
   sawId: string,
   timeZone: string,
+  openedAt: Date = new Date(),
 ): { input: StopCreate; fieldErrors: Partial<Record<StopField, string>> } {
   const fieldErrors: Partial<Record<StopField, string>> = {};
-  const startedAt = fromZonedInput(values.startedAt, timeZone);
+  const startedAt = readZonedTime(values.startedAt, timeZone, openedAt);
   if (!startedAt) fieldErrors.startedAt = 'Enter when the saw stopped, such as 2026-03-04 07:30';
   let endedAt: Date | null = null;
   if (!values.stillStopped) {
