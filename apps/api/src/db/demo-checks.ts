@@ -7,7 +7,7 @@ import { judgeCheckReading, type CheckBlade, type TargetedCheck } from '@kerflin
 import type { CheckScheduleName, CheckTargetRule } from '@kerfline/domain/site-checks/schema';
 import type { FigureBasis } from '@kerfline/domain/figures/basis';
 import { lbfToN, psiToPa } from '@kerfline/domain/units/units';
-import { effectiveSettingsAt } from '../modules/site-settings/effective-settings.js';
+import { siteEffectiveSettings } from '../modules/records/record-support.js';
 import { DEMO_REFERENCE_DATE, EATERS, POOR_BREAK_IN_SITE, generator } from './demo-history.js';
 
 /*
@@ -126,7 +126,7 @@ export async function loadDemoChecks(sequelize: Sequelize, transaction: Transact
   // A site's own settings apply from the day they were changed; before that, Kerfline's shipped values.
   const settingsOf = new Map<string, { settings: EffectiveSettings; from: Map<string, number> }>();
   for (const siteId of new Set(saws.map((s) => s.site_id))) {
-    const settings = await effectiveSettingsAt(siteId, transaction);
+    const settings = await siteEffectiveSettings(siteId, transaction);
     settingsOf.set(siteId, {
       settings,
       from: new Map(Object.values(settings).map((s) => [s.key, new Date(s.changedAt!).getTime()])),

@@ -4,7 +4,7 @@ import type { DueCheck, SawChecks } from '@kerfline/domain/site-checks/schema';
 import { formatDateTime } from '../../../lib/format';
 import { buttonClass } from '../../../lib/ui/button';
 import { Card } from '../../../lib/ui/card';
-import { DueStateBadge } from './check-status-badge';
+import { CheckShape, DueStateBadge } from './check-status-badge';
 
 /** Where the record form for a check on a saw lives. */
 export function recordCheckHref(sawId: string, siteCheckId?: string): string {
@@ -126,5 +126,32 @@ export function DueChecksPanel({
       )}
       {footer ? <div className="border-t border-rule px-4 py-3 text-sm sm:px-5">{footer}</div> : null}
     </Card>
+  );
+}
+
+/**
+ * One line for a saw's state card: how many checks are due and overdue, and which, with the same shapes as the
+ * badges (a triangle while any is overdue, a ring while some are due, a filled circle when none).
+ */
+export function DueChecksLine({ items }: { items: DueCheck[] }) {
+  const overdue = items.filter((i) => i.state === 'overdue');
+  const shape = overdue.length > 0 ? 'triangle' : items.length > 0 ? 'ring' : 'circle';
+  const tone = shape === 'circle' ? 'text-signal-safe' : shape === 'ring' ? 'text-signal-info' : '';
+  const title =
+    items.length === 0
+      ? 'No check due'
+      : overdue.length > 0
+        ? `${overdue.length} check${overdue.length === 1 ? '' : 's'} overdue${items.length > overdue.length ? `, ${items.length - overdue.length} due` : ''}`
+        : `${items.length} check${items.length === 1 ? '' : 's'} due now`;
+  return (
+    <div className="flex gap-3">
+      <span className={`mt-1 ${tone}`}>
+        <CheckShape shape={shape} className="size-5" />
+      </span>
+      <div className="min-w-0">
+        <p className="text-xl font-extrabold text-ink">{title}</p>
+        {items.length > 0 ? <p className="text-ink-muted">{items.map((i) => i.checkName).join(', ')}.</p> : null}
+      </div>
+    </div>
   );
 }
