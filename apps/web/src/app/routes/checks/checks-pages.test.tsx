@@ -340,3 +340,71 @@ describe('a site’s overdue checks', () => {
     expect(screen.getByRole('combobox', { name: 'Show' })).toHaveValue('pending');
   });
 });
+
+const dueItem = (sawId: string, tag: string, checkId: string, name: string, state: 'due' | 'overdue') => ({
+  siteId: SITE_ID,
+  sawId,
+  sawAssetTag: tag,
+  sawName: 'Bar line saw',
+  siteCheckId: checkId,
+  checkName: name,
+  targetRule: 'guide_clearance',
+  schedule: 'blade_change',
+  state,
+  fallsDueAt: '2026-11-30T12:00:00.000Z',
+  overdueAt: '2026-11-30T20:00:00.000Z',
+  lastCheckedAt: null,
+  lastPassed: null,
+  bladeRunId: null,
+});
+
+describe('the start screen and the sites’ tiles', () => {
+  it('lists a technician’s checks due today by saw, each saw with one Record that opens its most urgent check', async () => {
+    const OTHER_SAW = id(77);
+    api('technician', {
+      'GET /api/saws': { status: 200, body: page([makeSaw()]) },
+      [`GET /api/sites/${SITE_ID}/checks/overdue`]: {
+        status: 200,
+        body: {
+          items: [
+            dueItem(SAW_ID, 'HS-07', id(100), 'Guide bearing clearance', 'overdue'),
+            dueItem(SAW_ID, 'HS-07', id(101), 'Band tracking', 'overdue'),
+            dueItem(OTHER_SAW, 'HS-08', id(104), 'Head down-force', 'due'),
+          ],
+          total: 3,
+          limit: 20,
+          offset: 0,
+        },
+      },
+    });
+    renderApp('/today');
+    const panel = await screen.findByRole('region', { name: 'Checks due today' });
+    expect(panel).toHaveTextContent('3 to do on 2 saws, 2 overdue');
+    expect(panel).toHaveTextContent('Guide bearing clearance, Band tracking');
+    expect(within(panel).getByRole('link', { name: 'Record checks on HS-07' })).toHaveAttribute(
+      'href',
+      `/saws/${SAW_ID}/record-check?check=${id(100)}`,
+    );
+    expect(within(panel).getByRole('link', { name: 'Record checks on HS-08' })).toHaveAttribute(
+      'href',
+      `/saws/${OTHER_SAW}/record-check?check=${id(104)}`,
+    );
+  });
+
+  it('puts each site’s overdue checks on its tile, with a triangle while any is overdue', async () => {
+    api('manager', {
+      'GET /api/site-summaries': {
+        status: 200,
+        body: {
+          asOf: '2026-12-01T00:00:00.000Z',
+          items: [{ siteId: SITE_ID, sawsInUse: 2, sawsDown: 0, downSince: null, bladesOn: 2, stock: null }],
+        },
+      },
+    });
+    renderApp('/sites');
+    const figure = (await screen.findByText('Checks overdue')).closest('div')!;
+    expect(figure).toHaveTextContent('Checks overdue1');
+    expect(figure).toHaveTextContent('2 more due now');
+    expect(figure.parentElement!.querySelector('[data-shape]')).toHaveAttribute('data-shape', 'triangle');
+  });
+});

@@ -34,6 +34,42 @@ export function sawDueItems(data: SawChecks, saw: { id: string; assetTag: string
     .sort((a, b) => (a.state === b.state ? 0 : a.state === 'overdue' ? -1 : 1));
 }
 
+/** Items grouped by saw, in the order of their first (most overdue) item. */
+function bySaw(items: DueCheck[]): DueCheck[][] {
+  const groups = new Map<string, DueCheck[]>();
+  for (const item of items) groups.set(item.sawId, [...(groups.get(item.sawId) ?? []), item]);
+  return [...groups.values()];
+}
+
+/** One saw of a site's list: its pending checks in a line, and one Record that opens the most urgent. */
+function SawRow({ group, timeZone, canRecord }: { group: DueCheck[]; timeZone: string; canRecord: boolean }) {
+  const first = group[0]!;
+  const overdue = group.filter((i) => i.state === 'overdue');
+  return (
+    <li className="flex flex-wrap items-center justify-between gap-3 px-4 py-3 sm:px-5">
+      <div className="min-w-0 space-y-1">
+        <p className="flex flex-wrap items-center gap-2">
+          <DueStateBadge state={overdue.length > 0 ? 'overdue' : 'due'} />
+          <Link to={`/saws/${first.sawId}`} className="font-bold text-ink underline underline-offset-4">
+            {first.sawAssetTag} · {first.sawName}
+          </Link>
+        </p>
+        <p className="text-sm text-ink">{group.map((i) => i.checkName).join(', ')}</p>
+        <p className="text-sm text-ink-muted">{when(first, timeZone)}.</p>
+      </div>
+      {canRecord ? (
+        <Link
+          to={recordCheckHref(first.sawId, first.siteCheckId)}
+          className={buttonClass('secondary', 'max-sm:w-full')}
+          aria-label={`Record checks on ${first.sawAssetTag}`}
+        >
+          Record
+        </Link>
+      ) : null}
+    </li>
+  );
+}
+
 function when(item: DueCheck, timeZone: string): string {
   if (item.state === 'overdue' && item.overdueAt) return `Overdue since ${formatDateTime(item.overdueAt, timeZone)}`;
   if (item.overdueAt) return `Due; overdue after ${formatDateTime(item.overdueAt, timeZone)}`;
@@ -75,7 +111,9 @@ export function DueChecksPanel({
           {heading}
         </h2>
         <p className="tabular text-sm text-ink-muted">
-          {items.length === 0 ? 'None' : `${items.length} to do${overdue > 0 ? `, ${overdue} overdue` : ''}`}
+          {items.length === 0
+            ? 'None'
+            : `${items.length} to do${showSaw ? ` on ${bySaw(items).length} saws` : ''}${overdue > 0 ? `, ${overdue} overdue` : ''}`}
         </p>
       </div>
       {items.length === 0 ? (
@@ -85,6 +123,12 @@ export function DueChecksPanel({
           </span>
           {emptyText}
         </p>
+      ) : showSaw ? (
+        <ul className="divide-y divide-rule">
+          {bySaw(items).map((group) => (
+            <SawRow key={group[0]!.sawId} group={group} timeZone={timeZone} canRecord={canRecord} />
+          ))}
+        </ul>
       ) : (
         <ul className="divide-y divide-rule">
           {items.map((item) => (
@@ -95,17 +139,7 @@ export function DueChecksPanel({
               <div className="min-w-0 space-y-1">
                 <p className="flex flex-wrap items-center gap-2">
                   <DueStateBadge state={item.state} />
-                  <span className="font-bold text-ink">
-                    {showSaw ? (
-                      <>
-                        <Link to={`/saws/${item.sawId}`} className="underline underline-offset-4">
-                          {item.sawAssetTag}
-                        </Link>{' '}
-                        ·{' '}
-                      </>
-                    ) : null}
-                    {item.checkName}
-                  </span>
+                  <span className="font-bold text-ink">{item.checkName}</span>
                 </p>
                 <p className="text-sm text-ink-muted">
                   {when(item, timeZone)}. {last(item, timeZone)}.
@@ -114,8 +148,8 @@ export function DueChecksPanel({
               {canRecord ? (
                 <Link
                   to={recordCheckHref(item.sawId, item.siteCheckId)}
-                  className={buttonClass(item.state === 'overdue' ? 'primary' : 'secondary', 'max-sm:w-full')}
-                  aria-label={`Record ${item.checkName}${showSaw ? ` on ${item.sawAssetTag}` : ''}`}
+                  className={buttonClass('secondary', 'max-sm:w-full')}
+                  aria-label={`Record ${item.checkName}`}
                 >
                   Record
                 </Link>
