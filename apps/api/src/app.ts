@@ -34,6 +34,8 @@ import { stopsRouter } from './modules/stops/stops.router.js';
 import { cutLogsRouter } from './modules/cut-logs/cut-logs.router.js';
 import { photosRouter } from './modules/photos/photos.router.js';
 import { siteChecksRouter } from './modules/site-checks/site-checks.router.js';
+import { sawTimelineRouter } from './modules/saw-timeline/saw-timeline.router.js';
+import { siteSummariesRouter } from './modules/site-summaries/site-summaries.router.js';
 import { DatabasePhotoStorage, type PhotoStorage } from './modules/photos/photo-storage.js';
 import { importsRouter } from './modules/imports/imports.router.js';
 import { DEFAULT_IMPORT_LIMITS, type ImportLimits } from './modules/imports/imports.service.js';
@@ -175,6 +177,8 @@ export function createApp(deps: AppDeps): Express {
   api.use(cutLogsRouter());
   api.use(photosRouter(deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize)));
   api.use(siteChecksRouter());
+  api.use(sawTimelineRouter());
+  api.use(siteSummariesRouter());
   api.use(importsRouter(deps.importLimits ?? DEFAULT_IMPORT_LIMITS));
   api.use(notFoundHandler);
   app.use('/api', api);

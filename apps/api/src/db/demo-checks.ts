@@ -6,8 +6,8 @@ import { effectiveSetting, settingValue } from '@kerfline/domain/settings/effect
 import { judgeCheckReading, type CheckBlade, type TargetedCheck } from '@kerfline/domain/site-checks/evaluate';
 import type { CheckScheduleName, CheckTargetRule } from '@kerfline/domain/site-checks/schema';
 import type { FigureBasis } from '@kerfline/domain/figures/basis';
-import { lbfToN } from '@kerfline/domain/units/units';
-import { effectiveSettingsAt } from '../modules/site-settings/effective-settings.js';
+import { lbfToN, psiToPa } from '@kerfline/domain/units/units';
+import { siteEffectiveSettings } from '../modules/records/record-support.js';
 import { DEMO_REFERENCE_DATE, EATERS, POOR_BREAK_IN_SITE, generator } from './demo-history.js';
 
 /*
@@ -23,15 +23,20 @@ const DAY = 86_400_000;
 const HOUR = 3_600_000;
 const HISTORY_DAYS = 730;
 
-/** Hammerfield keeps one check of its own: the feed cylinder's pressure, on a fixed target (invented). */
+const psiInMPa = (psi: number) => psiToPa(psi) / 1e6;
+
+/**
+ * Hammerfield keeps one check of its own: the feed cylinder's pressure, on a fixed target its admin typed in psi
+ * (invented: 500 psi, 450–550 passes).
+ */
 const OWN_CHECK = {
   site: 'CV-HAM',
   by: 'ines.carvalho@corvane.example',
   name: 'Feed cylinder pressure',
   measures: 'Gauge on the feed valve, head lowering through air',
-  fixedTarget: 3.5,
-  fixedMin: 3.1,
-  fixedMax: 3.9,
+  fixedTarget: psiInMPa(500),
+  fixedMin: psiInMPa(450),
+  fixedMax: psiInMPa(550),
   intervalDays: 14,
 };
 
@@ -121,7 +126,7 @@ export async function loadDemoChecks(sequelize: Sequelize, transaction: Transact
   // A site's own settings apply from the day they were changed; before that, Kerfline's shipped values.
   const settingsOf = new Map<string, { settings: EffectiveSettings; from: Map<string, number> }>();
   for (const siteId of new Set(saws.map((s) => s.site_id))) {
-    const settings = await effectiveSettingsAt(siteId, transaction);
+    const settings = await siteEffectiveSettings(siteId, transaction);
     settingsOf.set(siteId, {
       settings,
       from: new Map(Object.values(settings).map((s) => [s.key, new Date(s.changedAt!).getTime()])),
@@ -220,7 +225,7 @@ export async function loadDemoChecks(sequelize: Sequelize, transaction: Transact
             : check.targetRule === 'feed_pressure'
               ? lbfToN(r.chance(0.05) ? r.between(8.5, 11) : r.between(3, 7.5))
               : // The site's own fixed check: around its target, now and then off.
-                (check.fixedTarget ?? 0) + (r.chance(0.05) ? 0.6 : r.between(-0.3, 0.3));
+                (check.fixedTarget ?? 0) + psiInMPa(r.chance(0.05) ? 70 : r.between(-40, 40));
         record(check, at, bladeAt(at), reading);
         at += interval * (poor ? r.between(1.05, 1.7) : r.between(0.85, 1.0));
       }

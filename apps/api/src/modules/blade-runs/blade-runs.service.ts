@@ -36,10 +36,10 @@ import {
   pgError,
   sawForWrite,
   select,
+  siteEffectiveSettings,
   siteTimeZone,
 } from '../records/record-support.js';
 import { breakInAdvice, diagnose, type DiagnosisCutLog } from '../records/trade.js';
-import { effectiveSettingsAt } from '../site-settings/effective-settings.js';
 import { checksEvidence } from '../site-checks/recent-checks.js';
 import { BladeRun } from './blade-run.model.js';
 
@@ -191,7 +191,7 @@ export async function getBreakInAdvice(
     materialGroup,
     await usualCuttingRate(saw.id, materialGroup),
     await unitSystemOf(saw),
-    await effectiveSettingsAt(saw.siteId),
+    await siteEffectiveSettings(saw.siteId),
   );
 }
 
@@ -317,7 +317,7 @@ export async function installBladeRun(
     input.materialGroup,
     await usualCuttingRate(saw.id, input.materialGroup),
     await unitSystemOf(saw),
-    await effectiveSettingsAt(saw.siteId),
+    await siteEffectiveSettings(saw.siteId),
   );
   return { run: await getBladeRun(ability, run.id), breakIn: advice, warnings: [...advice.warnings, ...warnings] };
 }
@@ -482,7 +482,7 @@ export async function getLikelyCauses(ability: AppAbility, id: string, q: Likely
   const [cutLogs, checks, settings] = await Promise.all([
     runCutLogs(run.id),
     checksEvidence(run.sawId, run, run.removedAt ?? new Date()),
-    effectiveSettingsAt(run.siteId),
+    siteEffectiveSettings(run.siteId),
   ]);
   const diagnosis = diagnose(mode, { cutLogs, breakInFollowed: run.breakInFollowed, checks, settings });
   return {

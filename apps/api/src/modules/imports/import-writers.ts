@@ -2,10 +2,10 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import type { ImportKind, RowVerdict } from '@kerfline/domain/imports/schema';
 import type { CollectedRow } from '@kerfline/domain/imports/pipeline';
 import { ImportBatch } from './import-batch.model.js';
-import { formatAt, namesOf } from '../records/record-support.js';
+import { formatAt, namesOf, siteEffectiveSettings } from '../records/record-support.js';
 import { SiteCheck } from '../site-checks/site-check.model.js';
 import { Site } from '../sites/site.model.js';
-import { effectiveSettingsAt } from '../site-settings/effective-settings.js';
+
 import type { CheckAnswers } from '@kerfline/domain/site-checks/schema';
 import { judgeCheckReading } from '@kerfline/domain/site-checks/evaluate';
 import type { BladeMaterial, HeadFeed } from '@kerfline/domain/checks/schema';
@@ -480,7 +480,7 @@ const checks: KindWriter = {
         'SELECT id, band_thickness_mm, band_width_mm, head_feed FROM saws WHERE site_id = $1',
         [target.siteId],
       ),
-      effectiveSettingsAt(target.siteId, transaction),
+      siteEffectiveSettings(target.siteId, transaction),
       Site.findByPk(target.siteId, { attributes: ['unitSystem'], transaction }),
     ]);
     const names = await namesOf(siteChecks.map((c) => c.updatedById));

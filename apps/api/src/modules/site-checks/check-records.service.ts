@@ -30,8 +30,7 @@ import { inTransaction } from '../../db/models.js';
 import { Saw } from '../saws/saw.model.js';
 import { Site } from '../sites/site.model.js';
 import { Photo } from '../photos/photo.model.js';
-import { effectiveSettingsAt } from '../site-settings/effective-settings.js';
-import { auditCopy, namesOf, orderOf, sawForWrite, select } from '../records/record-support.js';
+import { auditCopy, namesOf, orderOf, sawForWrite, select, siteEffectiveSettings } from '../records/record-support.js';
 import { CheckRecord } from './check-record.model.js';
 import { SiteCheck } from './site-check.model.js';
 import { countsBySite, pendingPage, statusRows, type StatusRow } from './check-status.js';
@@ -155,7 +154,7 @@ type TargetContext = { settings: EffectiveSettings; system: UnitSystem; names: M
 
 async function targetContext(siteId: string, checks: SiteCheck[], transaction?: Transaction): Promise<TargetContext> {
   const [settings, site, names] = await Promise.all([
-    effectiveSettingsAt(siteId, transaction),
+    siteEffectiveSettings(siteId, transaction),
     Site.findByPk(siteId, { attributes: ['unitSystem'], transaction }),
     namesOf(checks.map((c) => c.updatedById)),
   ]);

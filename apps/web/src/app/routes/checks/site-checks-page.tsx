@@ -2,6 +2,7 @@ import { useQuery, useSuspenseQuery, type QueryClient } from '@tanstack/react-qu
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { subject } from '@casl/ability';
 import { useAppAbility } from '../../../lib/ability';
+import { SiteRecordsNav } from '../sites/site-records-nav';
 import { LinkButton } from '../../../lib/ui/button';
 import { siteDetailQuery } from '../../../features/sites/api/queries';
 import { siteSettingsQuery } from '../../../features/site-settings/api/queries';
@@ -51,6 +52,7 @@ export function SiteChecksPage() {
           Checks
         </span>
       </nav>
+      <SiteRecordsNav siteId={site.id} />
       <header className="flex flex-wrap items-end justify-between gap-4">
         <div className="space-y-1">
           <h1 className="text-3xl font-extrabold tracking-tight text-ink">Maintenance checks</h1>

@@ -2,6 +2,7 @@ import { useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
 import { Link, useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { subject } from '@casl/ability';
 import { useAppAbility } from '../../../lib/ability';
+import { SiteRecordsNav } from '../sites/site-records-nav';
 import { siteDetailQuery } from '../../../features/sites/api/queries';
 import { siteChecksQuery, siteOverdueQuery } from '../../../features/checks/api/queries';
 import { overdueFiltersFromSearch, overdueQueryFromSearch } from '../../../features/checks/api/overdue-search';
@@ -52,6 +53,7 @@ export function SiteOverdueChecksPage() {
           Due and overdue
         </span>
       </nav>
+      <SiteRecordsNav siteId={site.id} />
       <h1 className="text-3xl font-extrabold tracking-tight text-ink">Checks due and overdue</h1>
       <OverdueChecksTable
         page={page}

@@ -13,6 +13,7 @@ import { LinkButton } from '../../../lib/ui/button';
 import { Notice } from '../../../lib/ui/notice';
 import { useAppAbility } from '../../../lib/ability';
 import { subject } from '@casl/ability';
+import { SiteRecordsNav } from './site-records-nav';
 
 export function sitePageLoader(queryClient: QueryClient) {
   return async ({ params, request }: LoaderFunctionArgs) => {
@@ -50,10 +51,11 @@ export function SitePage() {
         regionName={regions?.items.find((region) => region.id === site.regionId)?.name}
         actions={
           <>
-            <LinkButton to={`/sites/${site.id}/checks/overdue`} variant={overdue > 0 ? 'primary' : 'secondary'}>
-              {overdue > 0 ? `${overdue} checks overdue` : 'Checks due'}
-            </LinkButton>
-            <LinkButton to={`/sites/${site.id}/checks`}>Checks</LinkButton>
+            {overdue > 0 ? (
+              <LinkButton to={`/sites/${site.id}/checks/overdue`} variant="primary">
+                {overdue} {overdue === 1 ? 'check' : 'checks'} overdue
+              </LinkButton>
+            ) : null}
             <LinkButton to={`/sites/${site.id}/settings`}>Site settings</LinkButton>
             {ability.can('update', subject('Site', { id: site.id, regionId: site.regionId })) ? (
               <LinkButton to={`/sites/${site.id}/edit`}>Change site</LinkButton>
@@ -61,6 +63,7 @@ export function SitePage() {
           </>
         }
       />
+      <SiteRecordsNav siteId={site.id} />
       {site.retiredAt ? (
         <Notice tone="info" title="Retired site">
           Kept for its history: it is left out of lists and pickers.

@@ -89,12 +89,22 @@ export function limitsWords(check: SiteCheck, settings: readonly SiteSetting[], 
   }
   if (check.targetRule === 'chip_brush') return 'Passes when the brush reaches the gullets and is not worn';
   const keys = RULE_SETTING_KEYS[check.targetRule];
-  const named = keys.map((key) => {
+  const described = keys.map((key) => {
     const setting = settings.find((s) => s.key === key);
-    const label = settingDefinition(key)?.label ?? key;
-    return setting ? `“${label}” (${basisWords(settingFigureBasis(setting), timeZone)})` : `“${label}”`;
+    return { label: `“${settingDefinition(key)?.label ?? key}”`, basis: setting ? settingFigureBasis(setting) : null };
   });
-  return `${keys.length > 1 ? 'Your site’s settings' : 'Your site’s setting'} ${named.join(', ')}`;
+  if (described.length === 1) {
+    const [{ label, basis }] = described as [(typeof described)[number]];
+    return `Your site’s setting ${label}${basis ? `: ${basisWords(basis, timeZone)}` : ''}`;
+  }
+  const named = described.map(({ label, basis }) => (basis ? `${label} (${shortBasis(basis, timeZone)})` : label));
+  return `Your site’s settings ${named.join(', ')}`;
+}
+
+/** A basis in a few words, for a list that names several settings: the settings page has the citations. */
+function shortBasis(basis: ReturnType<typeof settingFigureBasis>, timeZone?: string): string {
+  if (basis.kind === 'published') return 'published';
+  return basisWords(basis, timeZone);
 }
 
 export const DUE_STATE_WORDS: Record<DueStateName, string> = { ok: 'Up to date', due: 'Due now', overdue: 'Overdue' };

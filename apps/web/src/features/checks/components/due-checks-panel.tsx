@@ -4,7 +4,7 @@ import type { DueCheck, SawChecks } from '@kerfline/domain/site-checks/schema';
 import { formatDateTime } from '../../../lib/format';
 import { buttonClass } from '../../../lib/ui/button';
 import { Card } from '../../../lib/ui/card';
-import { DueStateBadge } from './check-status-badge';
+import { CheckShape, DueStateBadge } from './check-status-badge';
 
 /** Where the record form for a check on a saw lives. */
 export function recordCheckHref(sawId: string, siteCheckId?: string): string {
@@ -32,6 +32,42 @@ export function sawDueItems(data: SawChecks, saw: { id: string; assetTag: string
       bladeRunId: data.bladeRunId,
     }))
     .sort((a, b) => (a.state === b.state ? 0 : a.state === 'overdue' ? -1 : 1));
+}
+
+/** Items grouped by saw, in the order of their first (most overdue) item. */
+function bySaw(items: DueCheck[]): DueCheck[][] {
+  const groups = new Map<string, DueCheck[]>();
+  for (const item of items) groups.set(item.sawId, [...(groups.get(item.sawId) ?? []), item]);
+  return [...groups.values()];
+}
+
+/** One saw of a site's list: its pending checks in a line, and one Record that opens the most urgent. */
+function SawRow({ group, timeZone, canRecord }: { group: DueCheck[]; timeZone: string; canRecord: boolean }) {
+  const first = group[0]!;
+  const overdue = group.filter((i) => i.state === 'overdue');
+  return (
+    <li className="flex flex-wrap items-center justify-between gap-3 px-4 py-3 sm:px-5">
+      <div className="min-w-0 space-y-1">
+        <p className="flex flex-wrap items-center gap-2">
+          <DueStateBadge state={overdue.length > 0 ? 'overdue' : 'due'} />
+          <Link to={`/saws/${first.sawId}`} className="font-bold text-ink underline underline-offset-4">
+            {first.sawAssetTag} · {first.sawName}
+          </Link>
+        </p>
+        <p className="text-sm text-ink">{group.map((i) => i.checkName).join(', ')}</p>
+        <p className="text-sm text-ink-muted">{when(first, timeZone)}.</p>
+      </div>
+      {canRecord ? (
+        <Link
+          to={recordCheckHref(first.sawId, first.siteCheckId)}
+          className={buttonClass('secondary', 'max-sm:w-full')}
+          aria-label={`Record checks on ${first.sawAssetTag}`}
+        >
+          Record
+        </Link>
+      ) : null}
+    </li>
+  );
 }
 
 function when(item: DueCheck, timeZone: string): string {
@@ -75,7 +111,9 @@ export function DueChecksPanel({
           {heading}
         </h2>
         <p className="tabular text-sm text-ink-muted">
-          {items.length === 0 ? 'None' : `${items.length} to do${overdue > 0 ? `, ${overdue} overdue` : ''}`}
+          {items.length === 0
+            ? 'None'
+            : `${items.length} to do${showSaw ? ` on ${bySaw(items).length} saws` : ''}${overdue > 0 ? `, ${overdue} overdue` : ''}`}
         </p>
       </div>
       {items.length === 0 ? (
@@ -85,6 +123,12 @@ export function DueChecksPanel({
           </span>
           {emptyText}
         </p>
+      ) : showSaw ? (
+        <ul className="divide-y divide-rule">
+          {bySaw(items).map((group) => (
+            <SawRow key={group[0]!.sawId} group={group} timeZone={timeZone} canRecord={canRecord} />
+          ))}
+        </ul>
       ) : (
         <ul className="divide-y divide-rule">
           {items.map((item) => (
@@ -95,17 +139,7 @@ export function DueChecksPanel({
               <div className="min-w-0 space-y-1">
                 <p className="flex flex-wrap items-center gap-2">
                   <DueStateBadge state={item.state} />
-                  <span className="font-bold text-ink">
-                    {showSaw ? (
-                      <>
-                        <Link to={`/saws/${item.sawId}`} className="underline underline-offset-4">
-                          {item.sawAssetTag}
-                        </Link>{' '}
-                        ·{' '}
-                      </>
-                    ) : null}
-                    {item.checkName}
-                  </span>
+                  <span className="font-bold text-ink">{item.checkName}</span>
                 </p>
                 <p className="text-sm text-ink-muted">
                   {when(item, timeZone)}. {last(item, timeZone)}.
@@ -114,8 +148,8 @@ export function DueChecksPanel({
               {canRecord ? (
                 <Link
                   to={recordCheckHref(item.sawId, item.siteCheckId)}
-                  className={buttonClass(item.state === 'overdue' ? 'primary' : 'secondary', 'max-sm:w-full')}
-                  aria-label={`Record ${item.checkName}${showSaw ? ` on ${item.sawAssetTag}` : ''}`}
+                  className={buttonClass('secondary', 'max-sm:w-full')}
+                  aria-label={`Record ${item.checkName}`}
                 >
                   Record
                 </Link>
@@ -126,5 +160,32 @@ export function DueChecksPanel({
       )}
       {footer ? <div className="border-t border-rule px-4 py-3 text-sm sm:px-5">{footer}</div> : null}
     </Card>
+  );
+}
+
+/**
+ * One line for a saw's state card: how many checks are due and overdue, and which, with the same shapes as the
+ * badges (a triangle while any is overdue, a ring while some are due, a filled circle when none).
+ */
+export function DueChecksLine({ items }: { items: DueCheck[] }) {
+  const overdue = items.filter((i) => i.state === 'overdue');
+  const shape = overdue.length > 0 ? 'triangle' : items.length > 0 ? 'ring' : 'circle';
+  const tone = shape === 'circle' ? 'text-signal-safe' : shape === 'ring' ? 'text-signal-info' : '';
+  const title =
+    items.length === 0
+      ? 'No check due'
+      : overdue.length > 0
+        ? `${overdue.length} check${overdue.length === 1 ? '' : 's'} overdue${items.length > overdue.length ? `, ${items.length - overdue.length} due` : ''}`
+        : `${items.length} check${items.length === 1 ? '' : 's'} due now`;
+  return (
+    <div className="flex gap-3">
+      <span className={`mt-1 ${tone}`}>
+        <CheckShape shape={shape} className="size-5" />
+      </span>
+      <div className="min-w-0">
+        <p className="text-xl font-extrabold text-ink">{title}</p>
+        {items.length > 0 ? <p className="text-ink-muted">{items.map((i) => i.checkName).join(', ')}.</p> : null}
+      </div>
+    </div>
   );
 }
