@@ -39,7 +39,12 @@ import { bladeRunsRouter } from './modules/blade-runs/blade-runs.router.js';
 import { stopsRouter } from './modules/stops/stops.router.js';
 import { cutLogsRouter } from './modules/cut-logs/cut-logs.router.js';
 import { photosRouter } from './modules/photos/photos.router.js';
+import { siteChecksRouter } from './modules/site-checks/site-checks.router.js';
+import { sawTimelineRouter } from './modules/saw-timeline/saw-timeline.router.js';
+import { siteSummariesRouter } from './modules/site-summaries/site-summaries.router.js';
 import { DatabasePhotoStorage, type PhotoStorage } from './modules/photos/photo-storage.js';
+import { importsRouter } from './modules/imports/imports.router.js';
+import { DEFAULT_IMPORT_LIMITS, type ImportLimits } from './modules/imports/imports.service.js';
 
 export type AppDeps = {
   sequelize: Sequelize;
@@ -64,6 +69,8 @@ export type AppDeps = {
   mailCatcherDir?: string | undefined;
   /** Where photo bytes live; PostgreSQL (shared by every process) unless another store is given. */
   photoStorage?: PhotoStorage;
+  /** The largest file and the most rows one import takes (IMPORT_MAX_BYTES, IMPORT_MAX_ROWS). */
+  importLimits?: ImportLimits;
 };
 
 export const SESSION_COOKIE = 'kerfline.sid';
@@ -72,7 +79,11 @@ export const SESSION_COOKIE = 'kerfline.sid';
  * The routes that take a multipart upload (matched on the path under the app); every other state-changing
  * route takes JSON only. A new upload route must be added here, or its requests answer 415.
  */
-export const MULTIPART_ROUTES: readonly RegExp[] = [/^\/api\/blade-runs\/[^/]+\/photos$/];
+export const MULTIPART_ROUTES: readonly RegExp[] = [
+  /^\/api\/blade-runs\/[^/]+\/photos$/,
+  /^\/api\/check-records\/[^/]+\/photos$/,
+  /^\/api\/imports(\/check)?$/,
+];
 
 /** Builds the whole HTTP application without listening, for the server and for supertest alike. */
 export function createApp(deps: AppDeps): Express {
@@ -103,7 +114,10 @@ export function createApp(deps: AppDeps): Express {
   app.use(
     helmet({
       strictTransportSecurity: behindTls,
-      contentSecurityPolicy: { directives: { upgradeInsecureRequests: behindTls ? [] : null } },
+      // The import wizard reads files in a Web Worker; papaparse and the workbook reader may start blob: workers.
+      contentSecurityPolicy: {
+        directives: { upgradeInsecureRequests: behindTls ? [] : null, workerSrc: ["'self'", 'blob:'] },
+      },
     }),
   );
   // Before anything reads the body or the session (DEVELOPERS.md, "Security and reliability"): API answers are
@@ -225,6 +239,10 @@ export function createApp(deps: AppDeps): Express {
   api.use(stopsRouter());
   api.use(cutLogsRouter());
   api.use(photosRouter(deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize)));
+  api.use(siteChecksRouter());
+  api.use(sawTimelineRouter());
+  api.use(siteSummariesRouter());
+  api.use(importsRouter(deps.importLimits ?? DEFAULT_IMPORT_LIMITS));
   api.use(notFoundHandler);
   app.use('/api', api);
 

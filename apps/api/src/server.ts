@@ -49,6 +49,7 @@ const app = createApp({
   sessionIdleMs: env.SESSION_IDLE_HOURS * 60 * 60 * 1000,
   sessionMaxMs: env.SESSION_MAX_DAYS * 24 * 60 * 60 * 1000,
   publicUrl: publicUrl(env),
+  importLimits: { maxBytes: env.IMPORT_MAX_BYTES, maxRows: env.IMPORT_MAX_ROWS },
   logLevel: env.LOG_LEVEL,
   jobs,
   mailCatcherDir: env.MAIL_CATCHER_DIR,

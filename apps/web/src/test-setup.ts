@@ -12,3 +12,7 @@ afterEach(() => {
   cleanup();
   vi.unstubAllGlobals();
 });
+
+// Pages load their code and data lazily; on a busy two-core machine the first render of a page can take longer
+// than Testing Library's default second. Three seconds keeps the tests about behaviour, not the machine's load.
+configure({ asyncUtilTimeout: 3000 });

@@ -20,6 +20,9 @@ import { BladeRun } from '../modules/blade-runs/blade-run.model.js';
 import { Stop } from '../modules/stops/stop.model.js';
 import { CutLog } from '../modules/cut-logs/cut-log.model.js';
 import { Photo } from '../modules/photos/photo.model.js';
+import { SiteCheck } from '../modules/site-checks/site-check.model.js';
+import { CheckRecord } from '../modules/site-checks/check-record.model.js';
+import { ImportBatch, ImportMapping } from '../modules/imports/import-batch.model.js';
 import { scopeWhere } from './sequelize-scope.js';
 
 let ctx: TestContext;
@@ -82,6 +85,21 @@ beforeAll(async () => {
   );
   // Records of sites A and C, a fleet-wide blade spec (site NULL) and one of site A's own.
   await buildRecords(world);
+  // Imports into two sites, and a remembered mapping at each of them.
+  for (const siteId of [world.sites.A.id, world.sites.C.id]) {
+    await ImportBatch.create({
+      siteId,
+      kind: 'stops',
+      state: 'committed',
+      fileName: 'stops.csv',
+      fileBytes: 10,
+      contentSha256: 'a'.repeat(64),
+      sheet: null,
+      plan: {},
+      createdById: world.users.admin.id,
+    });
+    await ImportMapping.create({ siteId, kind: 'stops', memory: {}, updatedById: world.users.admin.id });
+  }
 });
 afterAll(async () => ctx.close());
 
@@ -101,6 +119,10 @@ const MODELS: Record<SubjectName, ModelStatic<Model>> = {
   Stop,
   CutLog,
   Photo,
+  SiteCheck,
+  CheckRecord,
+  ImportBatch,
+  ImportMapping,
 };
 
 /** For every row: does the scoped query return it exactly when `ability.can` says yes? */

@@ -87,6 +87,14 @@ const envSchema = z.object({
   /** Cron lines (minute hour day month weekday) for the scheduled mail, read in SCHEDULE_TIME_ZONE. */
   WEEKLY_DIGEST_CRON: z.string().min(9).default('0 6 * * 1'),
   MONTHLY_SUMMARY_CRON: z.string().min(9).default('0 6 1 * *'),
+  /** The largest file one import takes, in bytes (50 MiB), and the most rows. */
+  IMPORT_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .min(1024)
+    .max(1024 * 1024 * 1024)
+    .default(50 * 1024 * 1024),
+  IMPORT_MAX_ROWS: z.coerce.number().int().min(1).max(2_000_000).default(200_000),
   SCHEDULE_TIME_ZONE: z
     .string()
     .default('UTC')

@@ -14,6 +14,9 @@ import { BladeRun } from '../modules/blade-runs/blade-run.model.js';
 import { Stop } from '../modules/stops/stop.model.js';
 import { CutLog } from '../modules/cut-logs/cut-log.model.js';
 import { Photo } from '../modules/photos/photo.model.js';
+import { SiteCheck } from '../modules/site-checks/site-check.model.js';
+import { CheckRecord } from '../modules/site-checks/check-record.model.js';
+import { ImportBatch, ImportMapping } from '../modules/imports/import-batch.model.js';
 
 /** Binds every model to this Sequelize instance. Model names equal the CASL subject names. */
 export function initModels(sequelize: Sequelize): void {
@@ -36,6 +39,10 @@ export function initModels(sequelize: Sequelize): void {
   Stop.initModel(sequelize);
   CutLog.initModel(sequelize);
   Photo.initModel(sequelize);
+  SiteCheck.initModel(sequelize);
+  CheckRecord.initModel(sequelize);
+  ImportBatch.initModel(sequelize);
+  ImportMapping.initModel(sequelize);
 }
 
 let bound: Sequelize | undefined;

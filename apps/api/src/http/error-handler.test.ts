@@ -74,6 +74,9 @@ describe('turning thrown values into one error shape', () => {
       expect(toAppError({ name: 'SequelizeDatabaseError', parent: pg(code) }).error.code, code).toBe('UNAVAILABLE');
     }
     expect(toAppError(new Error('Connection terminated unexpectedly')).error.code).toBe('UNAVAILABLE');
+    expect(toAppError(new Error('Client has encountered a connection error and is not queryable')).error.code).toBe(
+      'UNAVAILABLE',
+    );
   });
 
   it('answers 507 with a clear message when the disk is full: a file store’s ENOSPC or PostgreSQL’s 53100', () => {

@@ -112,7 +112,8 @@ function causes(err: unknown): { code?: unknown; message?: unknown }[] {
 /**
  * The database went away or is restarting: SQLSTATE class 08 (connection exception), 57P01–57P03 (shut down by
  * an administrator or a crash, or starting up), 53300 (too many connections), a refused or reset socket, or
- * the driver's "Connection terminated". The request may be tried again; the pool reconnects by itself.
+ * the driver's "Connection terminated" (or, when the cut reached the client before the next query, "Client has
+ * encountered a connection error and is not queryable"). The request may be tried again; the pool reconnects by itself.
  */
 function databaseUnavailable(err: unknown): boolean {
   return causes(err).some(({ code, message }) => {
@@ -120,7 +121,10 @@ function databaseUnavailable(err: unknown): boolean {
       if (code.startsWith('08') || ['57P01', '57P02', '57P03', '53300'].includes(code)) return true;
       if (['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE'].includes(code)) return true;
     }
-    return typeof message === 'string' && /^Connection terminated|connection timeout/i.test(message);
+    return (
+      typeof message === 'string' &&
+      /^Connection terminated|connection timeout|connection error and is not queryable/i.test(message)
+    );
   });
 }
 

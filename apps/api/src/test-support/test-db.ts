@@ -58,6 +58,7 @@ export function startTestApp(
     trustProxy?: boolean;
     webDist?: string;
     photoStorage?: PhotoStorage;
+    importLimits?: { maxBytes: number; maxRows: number };
     mail?: { smtpPort?: number; workers?: boolean; catcherDir?: string; retryLimit?: number; cron?: string };
   } = {},
 ): TestContext {
@@ -80,6 +81,7 @@ export function startTestApp(
     logLevel: 'silent',
     jobs,
     mailCatcherDir: options.mail?.catcherDir,
+    ...(options.importLimits ? { importLimits: options.importLimits } : {}),
   });
   const ready = workers ? jobs.startWorkers() : Promise.resolve();
   return {
@@ -100,7 +102,7 @@ export function startTestApp(
 /** Empties every table (keeps the schema and the migration record). */
 export async function resetData(sequelize: Sequelize): Promise<void> {
   await sequelize.query(
-    `TRUNCATE photo_blobs, photos, cut_logs, stops, blade_runs, stock_levels, stock_receipts, blade_specs,
+    `TRUNCATE import_rejects, import_mappings, import_batches, photo_blobs, photos, check_records, site_checks, cut_logs, stops, blade_runs, stock_levels, stock_receipts, blade_specs,
        site_settings, mail_preferences, mail_log, password_resets, invitations,
        audit_entries, saws, user_sites, users, sites, regions, sessions, rate_limit_hits RESTART IDENTITY CASCADE`,
   );

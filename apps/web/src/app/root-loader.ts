@@ -28,13 +28,14 @@ export function safeNextPath(next: string | null): string {
 }
 
 /**
- * The first page after sign-in: people who work at one site (technicians, site admins) go straight to it,
- * so the saws they work on are one tap away; everyone else starts from the list of sites.
+ * The first page after sign-in: a technician starts from the day's work at their site (saws down, blades on
+ * saws, with the actions one tap away); a site admin from their site; everyone else from the list of sites.
  */
 export function homeLoader(queryClient: QueryClient) {
   return async () => {
     const me = await queryClient.ensureQueryData(meQuery());
     const [only, ...others] = me.siteIds;
+    if (me.user.role === 'technician' && only) return redirect('/today');
     return redirect(only && others.length === 0 ? `/sites/${only}` : '/sites');
   };
 }

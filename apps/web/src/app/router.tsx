@@ -88,6 +88,23 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: 'sites/:siteId/checks',
+              lazy: async () => {
+                const page = await import('./routes/checks/site-checks-page');
+                return { loader: page.siteChecksPageLoader(queryClient), Component: page.SiteChecksPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/checks/overdue',
+              lazy: async () => {
+                const page = await import('./routes/checks/site-overdue-checks-page');
+                return {
+                  loader: page.siteOverdueChecksPageLoader(queryClient),
+                  Component: page.SiteOverdueChecksPage,
+                };
+              },
+            },
+            {
               path: 'sites/:siteId/edit',
               lazy: async () => {
                 const page = await import('./routes/sites/site-edit-page');
@@ -116,10 +133,136 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: 'saws/:sawId/record-check',
+              lazy: async () => {
+                const page = await import('./routes/checks/record-check-page');
+                return { loader: page.recordCheckPageLoader(queryClient), Component: page.RecordCheckPage };
+              },
+            },
+            {
               path: 'saws/:sawId/edit',
               lazy: async () => {
                 const page = await import('./routes/saws/saw-edit-page');
                 return { loader: page.sawEditPageLoader(queryClient), Component: page.SawEditPage };
+              },
+            },
+            {
+              path: 'today',
+              lazy: async () => {
+                const page = await import('./routes/today/today-page');
+                return { loader: page.todayPageLoader(queryClient), Component: page.TodayPage };
+              },
+            },
+            {
+              path: 'saws/:sawId/blade-on',
+              lazy: async () => {
+                const page = await import('./routes/saws/blade-on-page');
+                return { loader: page.bladeOnPageLoader(queryClient), Component: page.BladeOnPage };
+              },
+            },
+            {
+              path: 'saws/:sawId/blade-off',
+              lazy: async () => {
+                const page = await import('./routes/saws/blade-off-page');
+                return { loader: page.bladeOffPageLoader(queryClient), Component: page.BladeOffPage };
+              },
+            },
+            {
+              path: 'saws/:sawId/stops/new',
+              lazy: async () => {
+                const page = await import('./routes/saws/stop-new-page');
+                return { loader: page.stopNewPageLoader(queryClient), Component: page.StopNewPage };
+              },
+            },
+            {
+              path: 'saws/:sawId/stop-end',
+              lazy: async () => {
+                const page = await import('./routes/saws/stop-end-page');
+                return { loader: page.stopEndPageLoader(queryClient), Component: page.StopEndPage };
+              },
+            },
+            {
+              path: 'saws/:sawId/cut-logs/new',
+              lazy: async () => {
+                const page = await import('./routes/saws/cut-log-new-page');
+                return { loader: page.cutLogNewPageLoader(queryClient), Component: page.CutLogNewPage };
+              },
+            },
+            {
+              path: 'blade-runs/:runId',
+              lazy: async () => {
+                const page = await import('./routes/records/blade-run-page');
+                return { loader: page.bladeRunPageLoader(queryClient), Component: page.BladeRunPage };
+              },
+            },
+            {
+              path: 'stops/:stopId',
+              lazy: async () => {
+                const page = await import('./routes/records/stop-page');
+                return { loader: page.stopPageLoader(queryClient), Component: page.StopPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/blade-runs',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-blade-runs-page');
+                return { loader: page.siteBladeRunsPageLoader(queryClient), Component: page.SiteBladeRunsPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/stops',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-stops-page');
+                return { loader: page.siteStopsPageLoader(queryClient), Component: page.SiteStopsPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/stock',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-stock-page');
+                return { loader: page.siteStockPageLoader(queryClient), Component: page.SiteStockPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/stock/receive',
+              lazy: async () => {
+                const page = await import('./routes/sites/stock-receive-page');
+                return { loader: page.stockReceivePageLoader(queryClient), Component: page.StockReceivePage };
+              },
+            },
+            {
+              path: 'sites/:siteId/stock/movements',
+              lazy: async () => {
+                const page = await import('./routes/sites/stock-movements-page');
+                return { loader: page.stockMovementsPageLoader(queryClient), Component: page.StockMovementsPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/history',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-history-page');
+                return { loader: page.siteHistoryPageLoader(queryClient), Component: page.SiteHistoryPage };
+              },
+            },
+            {
+              path: 'blade-specs',
+              lazy: async () => {
+                const page = await import('./routes/blade-specs/blade-specs-page');
+                return { loader: page.bladeSpecsPageLoader(queryClient), Component: page.BladeSpecsPage };
+              },
+            },
+            {
+              path: 'blade-specs/new',
+              lazy: async () => {
+                const page = await import('./routes/blade-specs/blade-spec-form-pages');
+                return { loader: page.bladeSpecNewPageLoader(queryClient), Component: page.BladeSpecNewPage };
+              },
+            },
+            {
+              path: 'blade-specs/:specId/edit',
+              lazy: async () => {
+                const page = await import('./routes/blade-specs/blade-spec-form-pages');
+                return { loader: page.bladeSpecEditPageLoader(queryClient), Component: page.BladeSpecEditPage };
               },
             },
             {
@@ -159,6 +302,27 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               lazy: async () => {
                 const page = await import('./routes/mail/mail-page');
                 return { loader: page.mailPageLoader(queryClient), Component: page.MailPage };
+              },
+            },
+            {
+              path: 'imports',
+              lazy: async () => {
+                const page = await import('./routes/imports/imports-page');
+                return { loader: page.importsPageLoader(queryClient), Component: page.ImportsPage };
+              },
+            },
+            {
+              path: 'imports/new',
+              lazy: async () => {
+                const page = await import('./routes/imports/import-new-page');
+                return { loader: page.importNewPageLoader(queryClient), Component: page.ImportNewPage };
+              },
+            },
+            {
+              path: 'imports/:importId',
+              lazy: async () => {
+                const page = await import('./routes/imports/import-page');
+                return { loader: page.importPageLoader(queryClient), Component: page.ImportPage };
               },
             },
             {

@@ -102,7 +102,9 @@ export async function apiRequest<T>(
   const search = options.query ? toSearchParams(options.query).toString() : '';
   const url = `/api${path}${search ? `?${search}` : ''}`;
   const headers: Record<string, string> = { Accept: 'application/json' };
-  if (options.body !== undefined) headers['Content-Type'] = 'application/json';
+  // A form (a file upload) sets its own multipart type and boundary; everything else is JSON.
+  const isForm = typeof FormData !== 'undefined' && options.body instanceof FormData;
+  if (options.body !== undefined && !isForm) headers['Content-Type'] = 'application/json';
 
   let response: Response;
   try {
@@ -110,7 +112,7 @@ export async function apiRequest<T>(
       method: options.method ?? 'GET',
       headers,
       credentials: 'same-origin',
-      body: options.body === undefined ? undefined : JSON.stringify(options.body),
+      body: options.body === undefined ? undefined : isForm ? (options.body as FormData) : JSON.stringify(options.body),
       signal: options.signal,
     });
   } catch (cause) {
@@ -154,6 +156,9 @@ export const api = {
     apiRequest(path, schema, { ...options, method: 'GET' }),
   post: <T>(path: string, body: unknown, schema: z.ZodType<T> | null) =>
     apiRequest(path, schema, { method: 'POST', body }),
+  /** A multipart form, for sending a file with its fields. */
+  postForm: <T>(path: string, form: FormData, schema: z.ZodType<T> | null) =>
+    apiRequest(path, schema, { method: 'POST', body: form }),
   patch: <T>(path: string, body: unknown, schema: z.ZodType<T>) => apiRequest(path, schema, { method: 'PATCH', body }),
   put: <T>(path: string, body: unknown, schema: z.ZodType<T>) => apiRequest(path, schema, { method: 'PUT', body }),
   delete: <T>(path: string, schema: z.ZodType<T> | null) => apiRequest(path, schema, { method: 'DELETE' }),

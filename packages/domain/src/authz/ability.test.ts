@@ -34,6 +34,10 @@ const cutLog = (siteId: string) => subject('CutLog', { id: 'l', siteId });
 const photo = (siteId: string) => subject('Photo', { id: 'f', siteId });
 const receipt = (siteId: string) => subject('StockReceipt', { id: 'k', siteId });
 const levels = (siteId: string) => subject('StockLevel', { id: 'v', siteId });
+const siteCheck = (siteId: string) => subject('SiteCheck', { id: 'c', siteId });
+const checkRecord = (siteId: string) => subject('CheckRecord', { id: 'x', siteId });
+const batch = (siteId: string) => subject('ImportBatch', { id: 'i', siteId });
+const mapping = (siteId: string) => subject('ImportMapping', { id: 'm', siteId });
 
 // The permission matrix: [role, action, object, expected].
 const matrix: [
@@ -129,6 +133,25 @@ const matrix: [
   ['techA', 'read', setting(B), false],
   ['techA', 'update', setting(A), false],
   ['techA', 'delete', setting(A), false],
+  // Imports of legacy logs: a site admin brings files into their own site and takes them back out; admins anywhere.
+  ['admin', 'create', batch(C), true],
+  ['admin', 'update', batch(B), true],
+  ['siteAdminA', 'create', batch(A), true],
+  ['siteAdminA', 'read', batch(A), true],
+  ['siteAdminA', 'update', batch(A), true],
+  ['siteAdminA', 'create', batch(B), false],
+  ['siteAdminA', 'read', batch(B), false],
+  ['siteAdminA', 'update', batch(B), false],
+  ['siteAdminA', 'delete', batch(A), false],
+  ['siteAdminA', 'read', mapping(A), true],
+  ['siteAdminA', 'update', mapping(A), true],
+  ['siteAdminA', 'read', mapping(B), false],
+  ['managerAll', 'read', batch(A), false],
+  ['managerAll', 'create', batch(A), false],
+  ['leadNorth', 'create', batch(A), false],
+  ['techA', 'create', batch(A), false],
+  ['techA', 'read', batch(A), false],
+  ['techA', 'read', mapping(A), false],
   // The blade-spec catalogue: fleet-wide specs (siteId null) are the admins'; a site admin keeps their site's own.
   ['admin', 'create', spec(null), true],
   ['siteAdminA', 'read', spec(null), true],
@@ -190,6 +213,38 @@ const matrix: [
   ['leadNorth', 'read', receipt(C), false],
   ['admin', 'delete', stop(C), true],
   ['admin', 'create', receipt(C), true],
+  // A site's list of checks: read by whoever reads the site, kept by admins and that site's admin.
+  ['admin', 'update', siteCheck(C), true],
+  ['siteAdminA', 'create', siteCheck(A), true],
+  ['siteAdminA', 'update', siteCheck(A), true],
+  ['siteAdminA', 'delete', siteCheck(A), true],
+  ['siteAdminA', 'update', siteCheck(B), false],
+  ['siteAdminA', 'read', siteCheck(B), false],
+  ['techA', 'read', siteCheck(A), true],
+  ['techA', 'update', siteCheck(A), false],
+  ['techA', 'create', siteCheck(A), false],
+  ['techA', 'read', siteCheck(C), false],
+  ['managerAC', 'read', siteCheck(C), true],
+  ['managerAC', 'read', siteCheck(B), false],
+  ['managerAll', 'update', siteCheck(A), false],
+  ['leadNorth', 'read', siteCheck(B), true],
+  ['leadNorth', 'update', siteCheck(B), false],
+  // Recorded checks: technicians and site admins record at their own site; leads and managers read.
+  ['techA', 'create', checkRecord(A), true],
+  ['techA', 'read', checkRecord(A), true],
+  ['techA', 'create', checkRecord(B), false],
+  ['techA', 'update', checkRecord(A), false],
+  ['techA', 'delete', checkRecord(A), false],
+  ['siteAdminA', 'create', checkRecord(A), true],
+  ['siteAdminA', 'delete', checkRecord(A), true],
+  ['siteAdminA', 'create', checkRecord(C), false],
+  ['managerAll', 'read', checkRecord(C), true],
+  ['managerAll', 'create', checkRecord(C), false],
+  ['managerAC', 'read', checkRecord(B), false],
+  ['leadNorth', 'read', checkRecord(A), true],
+  ['leadNorth', 'create', checkRecord(A), false],
+  ['leadNorth', 'read', checkRecord(C), false],
+  ['admin', 'create', checkRecord(C), true],
 ];
 
 describe('who can do what', () => {
@@ -256,6 +311,10 @@ describe('rules stay translatable to SQL', () => {
     Stop: new Set(['id', 'siteId']),
     CutLog: new Set(['id', 'siteId']),
     Photo: new Set(['id', 'siteId']),
+    SiteCheck: new Set(['id', 'siteId']),
+    CheckRecord: new Set(['id', 'siteId']),
+    ImportBatch: new Set(['id', 'siteId']),
+    ImportMapping: new Set(['id', 'siteId']),
   };
 
   it('uses only $eq, $ne, $in and $nin on the subject’s own columns, for every role', () => {

@@ -5,6 +5,9 @@ import * as siteSettings from './20261203-0201-site-settings.js';
 import * as sawHeadFeed from './20261203-0202-saw-head-feed.js';
 import * as peopleAndMail from './20261203-0001-people-and-mail.js';
 import * as siteRecords from './20261203-0001-site-records.js';
+import * as siteChecks from './20261204-0101-site-checks.js';
+import * as imports from './20261204-0901-imports.js';
+import * as importChecks from './20261204-0902-import-checks.js';
 
 type Migration = {
   name: string;
@@ -20,4 +23,7 @@ export const migrations: Migration[] = [
   { name: '20261203-0202-saw-head-feed', ...sawHeadFeed },
   { name: '20261203-0001-people-and-mail', ...peopleAndMail },
   { name: '20261203-0001-site-records', ...siteRecords },
+  { name: '20261204-0101-site-checks', ...siteChecks },
+  { name: '20261204-0901-imports', ...imports },
+  { name: '20261204-0902-import-checks', ...importChecks },
 ];

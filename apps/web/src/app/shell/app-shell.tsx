@@ -13,9 +13,12 @@ type NavItem = { to: string; label: string; roles?: Role[] };
 
 /** What each role sees in the navigation; the pages themselves are still guarded by the server. */
 const NAV_ITEMS: NavItem[] = [
+  { to: '/today', label: 'Today', roles: ['technician', 'site_admin'] },
   { to: '/sites', label: 'Sites' },
   { to: '/saws', label: 'Saws' },
+  { to: '/blade-specs', label: 'Blade specs', roles: ['admin', 'site_admin'] },
   { to: '/people', label: 'People', roles: ['admin', 'site_admin'] },
+  { to: '/imports', label: 'Imports', roles: ['admin', 'site_admin'] },
   { to: '/calculators', label: 'Shop calculators' },
   { to: '/mail', label: 'Mail', roles: ['admin'] },
 ];
@@ -75,7 +78,7 @@ export function AppShell() {
           className={`h-0.5 bg-accent transition-opacity ${navigation.state === 'idle' ? 'opacity-0' : 'animate-pulse opacity-100'}`}
         />
         <div className="mx-auto flex max-w-7xl items-center gap-4 px-4 py-2 sm:px-6">
-          <Link to="/sites" className="flex min-h-11 items-center gap-2.5 rounded-sheet pr-2">
+          <Link to="/" className="flex min-h-11 items-center gap-2.5 rounded-sheet pr-2">
             <KerflineMark />
             <span className="text-lg font-extrabold tracking-tight text-ink">Kerfline</span>
           </Link>
