@@ -65,11 +65,14 @@ export function LikelyCausesChoice({
   reason,
   register,
   error,
+  offerUnsure = true,
 }: {
   runId: string;
   reason: FailureMode;
   register: UseFormRegisterReturn;
   error?: string | undefined;
+  /** Offer "not sure yet" (while taking the blade off; its own page asks for a cause). */
+  offerUnsure?: boolean;
 }) {
   const diagnosis = useQuery(likelyCausesQuery(runId, reason));
   if (diagnosis.isPending)
