@@ -101,15 +101,17 @@ export function LikelyCausesChoice({
             <CauseTile cause={cause} register={register} />
           </li>
         ))}
-        <li>
-          <ChoiceTile
-            type="radio"
-            value=""
-            label="Not sure yet"
-            hint="Confirm a cause later from the blade’s page."
-            {...register}
-          />
-        </li>
+        {offerUnsure ? (
+          <li>
+            <ChoiceTile
+              type="radio"
+              value=""
+              label="Not sure yet"
+              hint="Confirm a cause later from the blade’s page."
+              {...register}
+            />
+          </li>
+        ) : null}
       </ol>
     </ChoiceGroup>
   );
