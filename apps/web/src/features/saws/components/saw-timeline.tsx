@@ -30,7 +30,7 @@ function RunEntry({
   timeZone: string;
 }) {
   const life = [
-    entry.areaCutMm2 !== null ? formatArea(entry.areaCutMm2, system) : null,
+    entry.areaCutMm2 !== null ? `cut ${formatArea(entry.areaCutMm2, system)}` : null,
     entry.cuts !== null ? `${formatNumber(entry.cuts)} cuts` : null,
   ].filter(Boolean);
   return (
@@ -54,7 +54,7 @@ function RunEntry({
         <p className="text-sm text-ink">
           {REMOVAL_REASON_LABELS[entry.removalReason]}
           {entry.confirmedCause ? ` — cause: ${CAUSES[entry.confirmedCause].label.toLowerCase()}` : ''}
-          {life.length > 0 ? ` · cut ${life.join(', ')}` : ''}
+          {life.length > 0 ? ` · ${life.join(' · ')}` : ''}
           {entry.photoCount > 0 ? ` · ${entry.photoCount} photo${entry.photoCount === 1 ? '' : 's'}` : ''}
         </p>
       ) : null}
