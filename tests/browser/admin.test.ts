@@ -95,8 +95,11 @@ describe('an administrator sets up a new plant', () => {
     await page.getByLabel('E-mail').fill(techEmail);
     await page.getByLabel('Password').fill(techPassword);
     await page.getByRole('button', { name: /sign in/i }).click();
-    // One site: the new technician lands on it.
-    await page.waitForURL((url) => url.pathname === siteUrl);
+    // One site: the new technician starts from its work today (no saws yet), and their site is one tap away.
+    await page.waitForURL('**/today');
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Today');
+    expect(await page.getByText(siteName).count()).toBeGreaterThan(0);
+    await page.goto(siteUrl);
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe(siteName);
     await expect.poll(() => page.getByText('No saws are recorded at this site yet.').count()).toBe(1);
     expect(await page.getByRole('link', { name: /add saw/i }).count()).toBe(0);
@@ -117,7 +120,7 @@ describe('an administrator sets up a new plant', () => {
     await page.getByLabel('E-mail').fill(techEmail);
     await page.getByLabel('Password').fill('my-own-secret-2026');
     await page.getByRole('button', { name: /sign in/i }).click();
-    await page.waitForURL((url) => url.pathname === siteUrl);
+    await page.waitForURL('**/today');
     await context.close();
   });
 });

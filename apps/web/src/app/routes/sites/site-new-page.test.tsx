@@ -77,7 +77,8 @@ describe('adding a site', () => {
       currency: 'CAD',
       unitSystem: 'metric',
     });
-  });
+    // Many fields typed one key at a time: on a loaded machine this takes longer than vitest's 5 s default.
+  }, 15_000);
 
   it('says which code is taken when the server answers 409, and stays on the form', async () => {
     fakeApiFor('admin', {
