@@ -14,6 +14,9 @@ import { BladeRun } from '../modules/blade-runs/blade-run.model.js';
 import { Stop } from '../modules/stops/stop.model.js';
 import { CutLog } from '../modules/cut-logs/cut-log.model.js';
 import { Photo } from '../modules/photos/photo.model.js';
+import { ExchangeRate, ReportingCurrency } from '../modules/exchange-rates/exchange-rate.model.js';
+import { Budget } from '../modules/budgets/budget.model.js';
+import { FollowUp, FollowUpEntry } from '../modules/follow-ups/follow-up.model.js';
 
 /** Binds every model to this Sequelize instance. Model names equal the CASL subject names. */
 export function initModels(sequelize: Sequelize): void {
@@ -36,6 +39,11 @@ export function initModels(sequelize: Sequelize): void {
   Stop.initModel(sequelize);
   CutLog.initModel(sequelize);
   Photo.initModel(sequelize);
+  ExchangeRate.initModel(sequelize);
+  ReportingCurrency.initModel(sequelize);
+  Budget.initModel(sequelize);
+  FollowUp.initModel(sequelize);
+  FollowUpEntry.initModel(sequelize);
 }
 
 let bound: Sequelize | undefined;
