@@ -6,7 +6,7 @@ import { DOWNTIME_CATEGORIES } from '@kerfline/domain/metrics/schema';
 import type { AppAbility } from '@kerfline/domain/authz/ability';
 import { startTestApp, type TestContext } from '../../test-support/test-db.js';
 import { FLEET_AS_OF, buildFleetFixture, type FleetFixture } from '../../test-support/fleet-fixture.js';
-import { loadSignedIn } from '../auth/auth.service.js';
+import { abilityFor } from '../../test-support/abilities.js';
 import { ExchangeRate } from '../exchange-rates/exchange-rate.model.js';
 import { BladeRun } from '../blade-runs/blade-run.model.js';
 import { Stop } from '../stops/stop.model.js';
@@ -30,7 +30,7 @@ const BOUNDS = {
 beforeAll(async () => {
   ctx = startTestApp();
   fx = await buildFleetFixture(ctx.sequelize);
-  for (const [name, user] of Object.entries(fx.world.users)) abilities[name] = (await loadSignedIn(user.id))!.ability;
+  for (const [name, user] of Object.entries(fx.world.users)) abilities[name] = await abilityFor(user.id);
 });
 afterAll(async () => ctx.close());
 
