@@ -157,6 +157,7 @@ const SAME_DIMENSION: Record<DisplayQuantityKind | 'days', DisplayQuantityKind |
   smallLength: 'length',
   bandSpeed: 'bandSpeed',
   area: 'area',
+  largeArea: 'area',
   areaRate: 'areaRate',
   force: 'force',
   stress: 'stress',
