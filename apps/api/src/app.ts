@@ -34,6 +34,11 @@ import { stopsRouter } from './modules/stops/stops.router.js';
 import { cutLogsRouter } from './modules/cut-logs/cut-logs.router.js';
 import { photosRouter } from './modules/photos/photos.router.js';
 import { DatabasePhotoStorage, type PhotoStorage } from './modules/photos/photo-storage.js';
+import { fleetRouter } from './modules/fleet/fleet.router.js';
+import { exchangeRatesRouter } from './modules/exchange-rates/exchange-rates.router.js';
+import { budgetsRouter } from './modules/budgets/budgets.router.js';
+import { outliersRouter } from './modules/outliers/outliers.router.js';
+import { followUpsRouter } from './modules/follow-ups/follow-ups.router.js';
 
 export type AppDeps = {
   sequelize: Sequelize;
@@ -166,6 +171,11 @@ export function createApp(deps: AppDeps): Express {
   api.use(stopsRouter());
   api.use(cutLogsRouter());
   api.use(photosRouter(deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize)));
+  api.use(fleetRouter());
+  api.use(exchangeRatesRouter());
+  api.use(budgetsRouter());
+  api.use(outliersRouter());
+  api.use(followUpsRouter());
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -5,6 +5,7 @@ import {
   monthLabel,
   monthOf,
   monthSchema,
+  monthStartInstant,
   monthsOf,
   periodLabel,
   periodLength,
@@ -30,6 +31,14 @@ describe('months and periods', () => {
     expect(monthOf(at, 'Europe/Berlin')).toBe('2026-04');
     expect(monthOf(at, 'America/Chicago')).toBe('2026-03');
     expect(monthOf(at)).toBe('2026-03');
+  });
+  it('finds the instant a month starts in a time zone', () => {
+    // CET is UTC+1 in winter; Toronto is UTC−5 in winter and UTC−4 in summer.
+    expect(monthStartInstant('2026-03', 'Europe/Berlin').toISOString()).toBe('2026-02-28T23:00:00.000Z');
+    expect(monthStartInstant('2026-04', 'Europe/Berlin').toISOString()).toBe('2026-03-31T22:00:00.000Z');
+    expect(monthStartInstant('2026-01', 'America/Toronto').toISOString()).toBe('2026-01-01T05:00:00.000Z');
+    expect(monthStartInstant('2026-07', 'America/Toronto').toISOString()).toBe('2026-07-01T04:00:00.000Z');
+    expect(monthStartInstant('2026-07', 'UTC').toISOString()).toBe('2026-07-01T00:00:00.000Z');
   });
   it('defaults to the twelve whole months before the month in progress', () => {
     expect(defaultPeriod(new Date('2026-12-02T03:00:00Z'))).toEqual({ from: '2025-12', to: '2026-11' });

@@ -78,3 +78,31 @@ export function monthLabel(month: Month): string {
 export function periodLabel(period: MonthPeriod): string {
   return period.from === period.to ? monthLabel(period.from) : `${monthLabel(period.from)} – ${monthLabel(period.to)}`;
 }
+
+/** Offset of a time zone from UTC at an instant, in milliseconds (local − UTC). */
+function zoneOffsetMs(at: number, timeZone: string): number {
+  const parts = new Intl.DateTimeFormat('en-US', {
+    timeZone,
+    hourCycle: 'h23',
+    year: 'numeric',
+    month: '2-digit',
+    day: '2-digit',
+    hour: '2-digit',
+    minute: '2-digit',
+    second: '2-digit',
+  }).formatToParts(new Date(at));
+  const get = (type: string) => Number(parts.find((p) => p.type === type)!.value);
+  return Date.UTC(get('year'), get('month') - 1, get('day'), get('hour'), get('minute'), get('second')) - at;
+}
+
+/**
+ * The instant a month begins in a time zone (local midnight on its first day), as PostgreSQL's
+ * `'2026-03-01 00:00'::timestamp AT TIME ZONE zone` gives it: 1 March 2026 in Berlin is 2026-02-28T23:00Z.
+ */
+export function monthStartInstant(month: Month, timeZone: string): Date {
+  const wall = Date.parse(`${month}-01T00:00:00Z`);
+  let at = wall - zoneOffsetMs(wall, timeZone);
+  // Once more with the offset at the first guess, for zones whose offset changes near midnight.
+  at = wall - zoneOffsetMs(at, timeZone);
+  return new Date(at);
+}

@@ -234,3 +234,28 @@ export const practiceSchema = z.object({
   ),
 });
 export type Practice = z.infer<typeof practiceSchema>;
+
+/** The tables each fleet screen exports (every chart's numbers are one of them). */
+export const OVERVIEW_TABLES = ['sites', 'months', 'stop-hours', 'blade-life'] as const;
+export const SITE_TABLES = ['saws', 'months'] as const;
+export const SAW_TABLES = ['months', 'reasons', 'runs'] as const;
+
+const unitsField = { units: z.enum(UNIT_SYSTEMS, { message: 'Units must be metric or imperial' }).default('metric') };
+
+/** `?table=…&units=…` plus the screen's own filters: an export is scoped exactly like the screen. */
+export const overviewExportQuerySchema = z
+  .object({ ...periodFields, sites: idListSchema.optional(), table: z.enum(OVERVIEW_TABLES), ...unitsField })
+  .transform((q) => resolvePeriod(q))
+  .superRefine(refinePeriod);
+export const siteExportQuerySchema = z
+  .object({ ...periodFields, table: z.enum(SITE_TABLES), ...unitsField })
+  .transform((q) => resolvePeriod(q))
+  .superRefine(refinePeriod);
+export const sawExportQuerySchema = z
+  .object({ ...periodFields, table: z.enum(SAW_TABLES), ...unitsField })
+  .transform((q) => resolvePeriod(q))
+  .superRefine(refinePeriod);
+export const practiceExportQuerySchema = z
+  .object({ ...periodFields, sites: idListSchema.optional(), ...unitsField })
+  .transform((q) => resolvePeriod(q))
+  .superRefine(refinePeriod);

@@ -16,7 +16,8 @@ import { Stop } from '../stops/stop.model.js';
  * value as a bound parameter. The rules, written once here and in DEVELOPERS.md ("Fleet figures"):
  *
  * - Months are calendar months in the site's own time zone. A bucket is a run of whole months [t0, t1).
- * - Blades used and spend: runs by install time in the bucket; spend is the cost fixed on the run at install.
+ * - Blades used and spend: runs by install time in the bucket (up to the as-of time); spend is the cost fixed
+ *   on the run at install.
  * - Finished blades: runs by removal time in the bucket. Blade life (mean, median area; mean cuts) and cost per
  *   area use those with their area recorded (cuts: those with cuts recorded).
  * - A saw is in service from the earliest of its creation, its first blade run and its first stop, until it was
@@ -154,6 +155,7 @@ export async function rawFigures(
   if (scope.siteIds.length === 0 || buckets.length === 0) return [];
   const params = new SqlParams();
   const ctes = scopeCtes(scope, params, buckets);
+  const asOf = params.add(scope.asOf);
   const runScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'r', params);
   const stopScope = scopeSql(scope.ability, 'read', 'Stop', Stop, 'p', params);
   const g = GROUP_OF[level];
@@ -175,7 +177,7 @@ export async function rawFigures(
              mode() WITHIN GROUP (ORDER BY r.material_group) AS main_material
         FROM ${g.runs} g
         JOIN blade_runs r ON ${g.runJoin} AND r.installed_at >= g.t0 AND r.installed_at < g.t1
-       WHERE ${runScope}${sawFilter}
+       WHERE r.installed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
        GROUP BY 1, 2
     ),
     runs_out AS (
@@ -193,7 +195,7 @@ export async function rawFigures(
              ${reasonColumns}
         FROM ${g.runs} g
         JOIN blade_runs r ON ${g.runJoin} AND r.removed_at >= g.t0 AND r.removed_at < g.t1
-       WHERE ${runScope}${sawFilter}
+       WHERE r.removed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
        GROUP BY 1, 2
     ),
     scheduled AS (
@@ -288,6 +290,7 @@ export async function moneyRows(
   const runScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'r', params);
   const m0 = params.add(`${monthStart(from)} 00:00:00`);
   const m1 = params.add(`${monthStart(addMonths(to, 1))} 00:00:00`);
+  const asOf = params.add(scope.asOf);
   const sawFilter = scope.sawIds ? ` AND r.saw_id = ANY(${params.add(scope.sawIds)}::uuid[])` : '';
   const group = level === 'saw' ? 'r.saw_id::text' : level === 'site' ? 'r.site_id::text' : "'fleet'";
   const sql = `
@@ -301,14 +304,14 @@ export async function moneyRows(
            'spend' AS kind, sum(r.cost_minor) AS amount
       FROM bounds b
       JOIN blade_runs r ON r.site_id = b.site_id AND r.installed_at >= b.t0 AND r.installed_at < b.t1
-     WHERE ${runScope}${sawFilter}
+     WHERE r.installed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
      GROUP BY 1, 2, 3
     UNION ALL
     SELECT ${group}, to_char(r.removed_at AT TIME ZONE b.time_zone, 'YYYY-MM'), r.currency,
            'finished', sum(r.cost_minor)
       FROM bounds b
       JOIN blade_runs r ON r.site_id = b.site_id AND r.removed_at >= b.t0 AND r.removed_at < b.t1
-     WHERE r.area_cut_mm2 IS NOT NULL AND ${runScope}${sawFilter}
+     WHERE r.area_cut_mm2 IS NOT NULL AND r.removed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
      GROUP BY 1, 2, 3`;
   const rows = await sequelize.query<{ gid: string; month: string; currency: string; kind: string; amount: unknown }>(
     sql,
