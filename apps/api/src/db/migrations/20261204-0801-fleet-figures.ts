@@ -72,6 +72,8 @@ export async function up({ sequelize }: MigrationContext): Promise<void> {
     -- The history of a follow-up: opened, state changes, notes, new person, new day. Never edited.
     CREATE TABLE follow_up_entries (
       id uuid PRIMARY KEY DEFAULT gen_random_uuid(),
+      -- The order lines were written in, also within one change (one transaction shares its clock).
+      seq bigint GENERATED ALWAYS AS IDENTITY,
       follow_up_id uuid NOT NULL,
       site_id uuid NOT NULL,
       kind text NOT NULL CHECK (kind IN ('opened', 'state', 'note', 'assigned', 'due')),
@@ -81,7 +83,7 @@ export async function up({ sequelize }: MigrationContext): Promise<void> {
       CONSTRAINT follow_up_entries_follow_up FOREIGN KEY (follow_up_id, site_id)
         REFERENCES follow_ups(id, site_id) ON DELETE CASCADE
     );
-    CREATE INDEX follow_up_entries_follow_up_created ON follow_up_entries (follow_up_id, created_at DESC);
+    CREATE INDEX follow_up_entries_follow_up_seq ON follow_up_entries (follow_up_id, seq DESC);
 
     -- A saw's finished blades in a period (per-saw blade life and cost per area).
     CREATE INDEX blade_runs_saw_removed ON blade_runs (saw_id, removed_at) WHERE removed_at IS NOT NULL;

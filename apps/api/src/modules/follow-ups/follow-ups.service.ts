@@ -38,10 +38,7 @@ async function toDtos(rows: FollowUp[], withEntries: boolean): Promise<FollowUpD
     withEntries
       ? FollowUpEntry.findAll({
           where: { followUpId: { [Op.in]: rows.map((r) => r.id) } },
-          order: [
-            ['createdAt', 'DESC'],
-            ['id', 'DESC'],
-          ],
+          order: [[literal('seq'), 'DESC']],
         })
       : [],
   ]);
