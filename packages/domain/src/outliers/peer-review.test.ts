@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { PEER_MINIMUMS, reasonMix, reviewPeers, type SawForReview } from './peer-review.js';
+import { PEER_MINIMUMS, peerValueText, reasonMix, reviewPeers, type SawForReview } from './peer-review.js';
 
 const saw = (id: string, values: Partial<SawForReview['values']>, extra: Partial<SawForReview> = {}): SawForReview => ({
   id,
@@ -92,5 +92,16 @@ describe('reasonMix', () => {
   it('falls back to worn out when nothing else stands out, and to nothing without blades', () => {
     expect(reasonMix({ worn_out: 5, broken: 1 }, { worn_out: 5 }).standout).toBe('worn_out');
     expect(reasonMix({}, { worn_out: 5 }).standout).toBeNull();
+  });
+});
+
+describe('peerValueText', () => {
+  it('words each figure in the reader’s units', () => {
+    // 4 500 000 mm² = 48.4 ft² = 4.5 m²; 0.0019 cents/mm² = $0.012/in² (see the display policy's own checks).
+    expect(peerValueText('blade_life', 4_500_000, 'USD', 'imperial')).toBe('48.4 ft² per blade');
+    expect(peerValueText('blade_life', 4_500_000, 'EUR', 'metric')).toBe('4.5 m² per blade');
+    expect(peerValueText('cost_per_area', 0.0019, 'USD', 'imperial')).toBe('$0.012/in²');
+    expect(peerValueText('stop_hours', 12.3456, 'USD', 'metric')).toBe('12.3 h per 1,000 h');
+    expect(peerValueText('failure_rate', 0.5, 'USD', 'metric')).toBe('0.5 per 1,000 h');
   });
 });

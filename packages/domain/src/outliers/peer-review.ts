@@ -4,6 +4,8 @@ import type { SawKind } from '../saws/schema.js';
 import type { MaterialGroup } from '../band-speed/schema.js';
 import { MODIFIED_Z_FACTOR, findOutliers } from './robust-outliers.js';
 import { OUTLIER_DEFAULTS } from './schema.js';
+import type { UnitSystem } from '../sites/schema.js';
+import { largeAreaToDisplay, moneyPerAreaToDisplay } from '../units/display.js';
 
 /**
  * Saws compared with their peers: saws of the same kind (horizontal or vertical) that mostly cut the same material
@@ -209,3 +211,20 @@ export function reasonMix(
 
 export const peerMetricSchema = z.enum(PEER_METRICS, { message: `must be one of ${PEER_METRICS.join(', ')}` });
 export const OUTLIER_THRESHOLD = OUTLIER_DEFAULTS.threshold;
+
+/**
+ * A peer figure in words in a unit system: blade life in ft² or m² per blade, cost per area in the reporting
+ * currency per in² or cm², stop hours and failures per 1,000 scheduled hours.
+ */
+export function peerValueText(metric: PeerMetric, value: number, currency: string, system: UnitSystem): string {
+  switch (metric) {
+    case 'blade_life':
+      return `${largeAreaToDisplay(value, system).text} per blade`;
+    case 'cost_per_area':
+      return moneyPerAreaToDisplay(value, currency, system).text;
+    case 'stop_hours':
+      return `${Number(value.toPrecision(3))} h per 1,000 h`;
+    case 'failure_rate':
+      return `${Number(value.toPrecision(3))} per 1,000 h`;
+  }
+}
