@@ -42,6 +42,8 @@ export default defineConfig({
           environment: 'jsdom',
           include: ['apps/web/src/**/*.test.{ts,tsx}'],
           setupFiles: ['apps/web/src/test-setup.ts'],
+          // A journey through several lazily loaded pages can take a few seconds on a busy two-core machine.
+          testTimeout: 15000,
         },
       },
       {

@@ -28,12 +28,15 @@ export function safeNextPath(next: string | null): string {
 }
 
 /**
- * The first page after sign-in: people who work at one site (technicians, site admins) go straight to it,
- * so the saws they work on are one tap away; everyone else starts from the list of sites.
+ * The first page after sign-in: operations managers start from the fleet overview and regional leads from the
+ * saws that need a look; people who work at one site (technicians, site admins) go straight to it, so the saws
+ * they work on are one tap away; everyone else starts from the list of sites.
  */
 export function homeLoader(queryClient: QueryClient) {
   return async () => {
     const me = await queryClient.ensureQueryData(meQuery());
+    if (me.user.role === 'manager') return redirect('/fleet');
+    if (me.user.role === 'regional_lead') return redirect('/outliers');
     const [only, ...others] = me.siteIds;
     return redirect(only && others.length === 0 ? `/sites/${only}` : '/sites');
   };

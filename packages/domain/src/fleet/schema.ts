@@ -143,6 +143,8 @@ export const fleetOverviewSchema = z.object({
   asOf: z.string(),
   reportingCurrency: z.string(),
   sites: z.array(z.object({ site: fleetSiteSchema, current: figuresSchema, previous: figuresSchema })),
+  /** Every site the caller may pick in the filter (the shown ones are `sites`). */
+  choices: z.array(fleetSiteSchema),
   fleet: z.object({ current: figuresSchema, previous: figuresSchema }),
   months: z.array(z.object({ siteId: idSchema, month: z.string(), figures: figuresSchema })),
   /** Missing exchange rates the figures needed, in words. */

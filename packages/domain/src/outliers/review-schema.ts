@@ -3,6 +3,7 @@ import { idSchema } from '../common/schema.js';
 import { fleetSawSchema } from '../fleet/schema.js';
 import { MATERIAL_GROUPS } from '../band-speed/schema.js';
 import { SAW_KINDS } from '../saws/schema.js';
+import { UNIT_SYSTEMS } from '../sites/schema.js';
 import { REMOVAL_REASONS } from '../diagnosis/schema.js';
 import { FOLLOW_UP_STATES } from '../follow-ups/schema.js';
 import { PEER_METRICS } from './peer-review.js';
@@ -37,7 +38,13 @@ export const peerGroupSchema = z.object({
 
 const reviewedSawSchema = z.object({
   saw: fleetSawSchema,
-  site: z.object({ id: idSchema, code: z.string(), name: z.string(), colourIndex: z.number().int() }),
+  site: z.object({
+    id: idSchema,
+    code: z.string(),
+    name: z.string(),
+    colourIndex: z.number().int(),
+    unitSystem: z.enum(UNIT_SYSTEMS),
+  }),
   values: metricValues,
   bladesWithArea: z.number().int(),
   scheduledHours: z.number(),

@@ -50,7 +50,8 @@ const monthBuckets = (p: MonthPeriod): Bucket[] => periodMonths(p).map((m) => ({
 export async function getOverview(ability: AppAbility, q: FleetQuery, asOf = new Date()): Promise<FleetOverview> {
   const period = { from: q.from, to: q.to };
   const previous = previousPeriod(period);
-  const sites = await fleetSites(ability, { only: q.sites, activeFrom: periodStartsBy(previous) });
+  const choices = await fleetSites(ability, { activeFrom: periodStartsBy(previous) });
+  const sites = q.sites ? choices.filter((s) => q.sites!.includes(s.id)) : choices;
   const scope = { ability, siteIds: sites.map((s) => s.id), asOf };
   const buckets: Bucket[] = [...monthBuckets(period), { key: 'current', ...period }, { key: 'previous', ...previous }];
   const [siteRows, fleetRows, money, ctx] = await Promise.all([
@@ -76,6 +77,7 @@ export async function getOverview(ability: AppAbility, q: FleetQuery, asOf = new
       current: assembleFigures(raw(site.id, 'current'), money, site.id, months, ctx, missing),
       previous: assembleFigures(raw(site.id, 'previous'), money, site.id, previousMonths, ctx),
     })),
+    choices,
     fleet: {
       current: assembleFigures(raw('fleet', 'current'), money, null, months, ctx),
       previous: assembleFigures(raw('fleet', 'previous'), money, null, previousMonths, ctx),

@@ -33,7 +33,13 @@ async function activeFollowUps(ability: AppAbility, sawIds: string[]): Promise<M
 function reviewedDto(s: ReviewedSaw, active: Map<string, Active>) {
   return {
     saw: s.saw,
-    site: { id: s.site.id, code: s.site.code, name: s.site.name, colourIndex: s.site.colourIndex },
+    site: {
+      id: s.site.id,
+      code: s.site.code,
+      name: s.site.name,
+      colourIndex: s.site.colourIndex,
+      unitSystem: s.site.unitSystem,
+    },
     values: s.values,
     bladesWithArea: s.figures.bladesWithArea,
     scheduledHours: s.figures.scheduledHours,
