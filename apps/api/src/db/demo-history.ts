@@ -425,9 +425,7 @@ export async function loadDemoHistory(sequelize: Sequelize, transaction: Transac
       // The coarse-pitch eater keeps its usual 3/4 band on thin-wall tube; other saws take the second pitch now and then.
       const spec = eater !== 'too_coarse' && r.chance(0.2) ? specs.alt : specs.main;
       const breakIn = r.chance(0.05) ? null : r.chance(saw.site_code === POOR_BREAK_IN_SITE ? 0.35 : 0.93);
-      // A longer band has more teeth to share the wear: life grows with its length (4 115 mm is the mid saws' band).
-      const teethShare = saw.band_length_mm / 4115;
-      let lifeMm2 = r.logNormal(LIFE_MM2[job.material] * (cls === 'vertical' ? 0.15 : teethShare), 0.35);
+      let lifeMm2 = r.logNormal(LIFE_MM2[job.material] * (cls === 'vertical' ? 0.15 : 1), 0.35);
       if (eater) lifeMm2 *= 0.6;
       if (breakIn === false) lifeMm2 *= 0.7;
       const reason = r.pick(eater ? EATER_REASONS[eater] : NORMAL_REASONS);

@@ -57,7 +57,7 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
     return (
       <div style={{ height }}>
         <ResponsiveLine
-          data={spec.series.map((s) => ({ id: s.id, data: s.points }))}
+          data={spec.series.map((s) => ({ id: s.id, data: s.points.map((p) => ({ ...p, slot: s.slot })) }))}
           margin={margin}
           theme={THEME}
           colors={(serie) => siteColour(slotOf.get(String(serie.id)) ?? 0)}
@@ -65,20 +65,18 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
           xScale={{ type: 'point' }}
           yScale={{ type: 'linear', min: 0, max: 'auto' }}
           axisBottom={{ format: (v) => shortMonth(String(v)), tickRotation: -35 }}
+          gridYValues={5}
           axisLeft={{
             format: (v) => spec.formatY(Number(v)),
+            tickValues: 5,
             legend: spec.yLegend,
             legendOffset: -74,
             legendPosition: 'middle',
           }}
           pointSize={8}
           pointSymbol={({ size, datum }) => (
-            <PointShape
-              x={0}
-              y={0}
-              size={size}
-              slot={slotOf.get(String((datum as { seriesId?: string }).seriesId)) ?? 0}
-            />
+            // nivo hands the point's own data to the symbol: each point carries its series' slot for its shape.
+            <PointShape x={0} y={0} size={size} slot={(datum as { slot?: number }).slot ?? 0} />
           )}
           useMesh
           enableSlices="x"
@@ -113,8 +111,10 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
           borderColor="#FFFDF9"
           borderWidth={1}
           enableLabel={false}
+          gridYValues={5}
           axisLeft={{
             format: (v) => spec.formatY(Number(v)),
+            tickValues: 5,
             legend: spec.yLegend,
             legendOffset: -74,
             legendPosition: 'middle',
@@ -146,8 +146,10 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
         padding={0.35}
         colors={(bar) => siteColour(slotOf.get(String(bar.indexValue)) ?? 0)}
         enableLabel={false}
+        gridYValues={5}
         axisLeft={{
           format: (v) => spec.formatY(Number(v)),
+          tickValues: 5,
           legend: spec.yLegend,
           legendOffset: -74,
           legendPosition: 'middle',

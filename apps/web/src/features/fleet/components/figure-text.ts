@@ -33,6 +33,19 @@ export function hoursText(hours: number | null): string {
 
 export type Change = { text: string; direction: 'up' | 'down' | 'same'; verdict: 'better' | 'worse' | 'neutral' };
 
+/** The change of a share (availability) in percentage points: 98.1 % → 98.3 % is "up 0.2 points". */
+export function pointsChangeOf(current: number | null, previous: number | null, better: 'up' | 'down'): Change | null {
+  if (current === null || previous === null) return null;
+  const points = (current - previous) * 100;
+  if (Math.abs(points) < 0.05) return { text: 'no change', direction: 'same', verdict: 'neutral' };
+  const direction = points > 0 ? 'up' : 'down';
+  return {
+    text: `${direction} ${formatNumber(Math.abs(points), 1)} points`,
+    direction,
+    verdict: direction === better ? 'better' : 'worse',
+  };
+}
+
 /**
  * The change of a figure against the previous period, in words and with a direction; `better` says which way is
  * good for this figure (null: neither, as with spend, which follows production).

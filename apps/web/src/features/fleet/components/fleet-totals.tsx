@@ -3,7 +3,7 @@ import type { Figures } from '@kerfline/domain/fleet/schema';
 import { formatNumber } from '../../../lib/format';
 import { Card } from '../../../lib/ui/card';
 import { ChangeNote } from './change-note';
-import { changeOf, costPerAreaText, hoursText, lifeText, percentText, spendText } from './figure-text';
+import { changeOf, pointsChangeOf, costPerAreaText, hoursText, lifeText, percentText, spendText } from './figure-text';
 
 /** The headline row for all the shown sites together, each figure with its change against the previous period. */
 export function FleetTotals({
@@ -50,7 +50,7 @@ export function FleetTotals({
     {
       label: 'Availability',
       value: percentText(current.availability),
-      change: p && changeOf(current.availability, p.availability, 'up'),
+      change: p && pointsChangeOf(current.availability, p.availability, 'up'),
     },
     { label: 'MTBF', value: hoursText(current.mtbfHours), change: p && changeOf(current.mtbfHours, p.mtbfHours, 'up') },
     {

@@ -71,7 +71,7 @@ export function OverviewCharts({ data, status, errorMessage, onRetry, units, que
     data
       ? {
           columns: ['Site', ...months.map(monthLabel)],
-          rows: sites.map((s) => ({ key: s.id, cells: [`${s.code} ${s.name}`, ...months.map((m) => cell(s.id, m))] })),
+          rows: sites.map((s) => ({ key: s.id, cells: [s.code, ...months.map((m) => cell(s.id, m))] })),
         }
       : null;
 

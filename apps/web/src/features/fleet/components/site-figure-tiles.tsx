@@ -3,7 +3,7 @@ import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import type { Figures, FleetSite } from '@kerfline/domain/fleet/schema';
 import { formatNumber } from '../../../lib/format';
 import { ChangeNote } from './change-note';
-import { changeOf, costPerAreaText, hoursText, lifeText, percentText, spendText } from './figure-text';
+import { changeOf, pointsChangeOf, costPerAreaText, hoursText, lifeText, percentText, spendText } from './figure-text';
 import { SiteMark } from './site-mark';
 import { siteColour } from '../../../lib/palette';
 
@@ -90,7 +90,7 @@ export function SiteFigureTiles({
               <Figure
                 label="Availability"
                 value={percentText(current.availability)}
-                change={changeOf(current.availability, previous.availability, 'up')}
+                change={pointsChangeOf(current.availability, previous.availability, 'up')}
                 against={previousLabel}
               />
               <Figure
