@@ -23,11 +23,69 @@ const signedInRoutes = (role: 'site_admin' | 'technician') => ({
   'GET /api/regions': { status: 200, body: page([{ id: REGION_ID, name: 'Great Lakes' }]) },
   [`GET /api/sites/${SITE_ID}`]: { status: 200, body: makeSite() },
   'GET /api/saws': { status: 200, body: page([makeSaw()]) },
+  'GET /api/site-summaries': {
+    status: 200,
+    body: {
+      asOf: '2026-03-04T12:00:00.000Z',
+      items: [
+        {
+          siteId: SITE_ID,
+          sawsInUse: 2,
+          sawsDown: 1,
+          downSince: '2026-03-04T08:00:00.000Z',
+          bladesOn: 2,
+          stock: {
+            specs: 3,
+            toReorder: 1,
+            fewestDaysLeft: 6.4,
+            fewestDaysSpecId: SITE_ID,
+            fewestDaysSpecName: '1.25 in bi-metal 4/6',
+            windowDays: 90,
+          },
+        },
+      ],
+    },
+  },
 });
 
 describe('the web app', () => {
-  it('opens straight on the site of someone who works at one site', async () => {
-    installFakeApi(signedInRoutes('technician'));
+  it('opens a technician’s day on their site’s work: saws down first, then the running saws with their blades', async () => {
+    installFakeApi({
+      ...signedInRoutes('technician'),
+      'GET /api/saws': {
+        status: 200,
+        body: page([
+          makeSaw(),
+          makeSaw({
+            id: 'aa8a1b2c-7d3f-4e9a-b6c5-0f1d2e3a4b56',
+            assetTag: 'HS-09',
+            status: 'down',
+            down: {
+              stopId: 'bb8a1b2c-7d3f-4e9a-b6c5-0f1d2e3a4b57',
+              category: 'hydraulic',
+              planned: false,
+              since: '2026-03-04T08:00:00.000Z',
+            },
+          }),
+        ]),
+      },
+    });
+    const { router } = renderApp('/');
+    expect(await screen.findByRole('heading', { level: 1, name: 'Today' })).toBeInTheDocument();
+    expect(router.state.location.pathname).toBe('/today');
+    const down = screen.getByRole('region', { name: 'Down now' });
+    expect(within(down).getByText('Down: hydraulic')).toBeInTheDocument();
+    // A down saw's first action is to end its stop, one tap away; a running one's is to put a blade on.
+    expect(within(down).getByRole('link', { name: 'End the stop' })).toHaveAttribute(
+      'href',
+      '/saws/aa8a1b2c-7d3f-4e9a-b6c5-0f1d2e3a4b56/stop-end',
+    );
+    const running = screen.getByRole('region', { name: 'Running, with the blade on each' });
+    expect(within(running).getByRole('link', { name: 'Put a blade on' })).toBeInTheDocument();
+  });
+
+  it('opens straight on the site of a site admin', async () => {
+    installFakeApi(signedInRoutes('site_admin'));
     const { router } = renderApp('/');
     expect(await screen.findByRole('heading', { level: 1, name: 'Holt Bar Works' })).toBeInTheDocument();
     expect(router.state.location.pathname).toBe(`/sites/${SITE_ID}`);
@@ -105,7 +163,11 @@ describe('the web app', () => {
     renderApp('/sites');
     const tile = await screen.findByRole('link', { name: /Holt Bar Works/ });
     expect(tile).toHaveTextContent('Great Lakes');
-    expect(tile).toHaveTextContent('America/Chicago');
+    // What people act on, not the time zone: saws down now, the stock that runs out first.
+    await waitFor(() => expect(tile).toHaveTextContent('Saws down now, of 2'));
+    expect(tile).toHaveTextContent('6 days');
+    expect(tile).toHaveTextContent('1.25 in bi-metal 4/6 runs out first · 1 spec to reorder');
+    expect(tile).not.toHaveTextContent('America/Chicago');
     const nav = screen.getByRole('navigation', { name: 'Main' });
     expect(within(nav).queryByRole('link', { name: 'People' })).not.toBeInTheDocument();
     expect(within(nav).getByRole('link', { name: 'Shop calculators' })).toHaveAttribute('href', '/calculators');

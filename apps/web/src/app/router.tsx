@@ -123,6 +123,125 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: 'today',
+              lazy: async () => {
+                const page = await import('./routes/today/today-page');
+                return { loader: page.todayPageLoader(queryClient), Component: page.TodayPage };
+              },
+            },
+            {
+              path: 'saws/:sawId/blade-on',
+              lazy: async () => {
+                const page = await import('./routes/saws/blade-on-page');
+                return { loader: page.bladeOnPageLoader(queryClient), Component: page.BladeOnPage };
+              },
+            },
+            {
+              path: 'saws/:sawId/blade-off',
+              lazy: async () => {
+                const page = await import('./routes/saws/blade-off-page');
+                return { loader: page.bladeOffPageLoader(queryClient), Component: page.BladeOffPage };
+              },
+            },
+            {
+              path: 'saws/:sawId/stops/new',
+              lazy: async () => {
+                const page = await import('./routes/saws/stop-new-page');
+                return { loader: page.stopNewPageLoader(queryClient), Component: page.StopNewPage };
+              },
+            },
+            {
+              path: 'saws/:sawId/stop-end',
+              lazy: async () => {
+                const page = await import('./routes/saws/stop-end-page');
+                return { loader: page.stopEndPageLoader(queryClient), Component: page.StopEndPage };
+              },
+            },
+            {
+              path: 'saws/:sawId/cut-logs/new',
+              lazy: async () => {
+                const page = await import('./routes/saws/cut-log-new-page');
+                return { loader: page.cutLogNewPageLoader(queryClient), Component: page.CutLogNewPage };
+              },
+            },
+            {
+              path: 'blade-runs/:runId',
+              lazy: async () => {
+                const page = await import('./routes/records/blade-run-page');
+                return { loader: page.bladeRunPageLoader(queryClient), Component: page.BladeRunPage };
+              },
+            },
+            {
+              path: 'stops/:stopId',
+              lazy: async () => {
+                const page = await import('./routes/records/stop-page');
+                return { loader: page.stopPageLoader(queryClient), Component: page.StopPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/blade-runs',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-blade-runs-page');
+                return { loader: page.siteBladeRunsPageLoader(queryClient), Component: page.SiteBladeRunsPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/stops',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-stops-page');
+                return { loader: page.siteStopsPageLoader(queryClient), Component: page.SiteStopsPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/stock',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-stock-page');
+                return { loader: page.siteStockPageLoader(queryClient), Component: page.SiteStockPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/stock/receive',
+              lazy: async () => {
+                const page = await import('./routes/sites/stock-receive-page');
+                return { loader: page.stockReceivePageLoader(queryClient), Component: page.StockReceivePage };
+              },
+            },
+            {
+              path: 'sites/:siteId/stock/movements',
+              lazy: async () => {
+                const page = await import('./routes/sites/stock-movements-page');
+                return { loader: page.stockMovementsPageLoader(queryClient), Component: page.StockMovementsPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/history',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-history-page');
+                return { loader: page.siteHistoryPageLoader(queryClient), Component: page.SiteHistoryPage };
+              },
+            },
+            {
+              path: 'blade-specs',
+              lazy: async () => {
+                const page = await import('./routes/blade-specs/blade-specs-page');
+                return { loader: page.bladeSpecsPageLoader(queryClient), Component: page.BladeSpecsPage };
+              },
+            },
+            {
+              path: 'blade-specs/new',
+              lazy: async () => {
+                const page = await import('./routes/blade-specs/blade-spec-form-pages');
+                return { loader: page.bladeSpecNewPageLoader(queryClient), Component: page.BladeSpecNewPage };
+              },
+            },
+            {
+              path: 'blade-specs/:specId/edit',
+              lazy: async () => {
+                const page = await import('./routes/blade-specs/blade-spec-form-pages');
+                return { loader: page.bladeSpecEditPageLoader(queryClient), Component: page.BladeSpecEditPage };
+              },
+            },
+            {
               path: 'account',
               lazy: async () => ({ Component: (await import('./routes/auth/account-page')).AccountPage }),
             },

@@ -21,6 +21,17 @@ export function messagesByPath(errors: FieldErrors, prefix = ''): PathMessage[] 
   return found;
 }
 
+const NAMED_BY_ID =
+  /\b(stop|blade run|run|receipt|photo) [0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}\b/gi;
+
+/**
+ * A server message for a person: a record the API names by its id ("overlaps stop 5d0c…") is named by what the
+ * message already says of it ("overlaps the stop (hydraulic, open since …)"), since an id means nothing on a phone.
+ */
+export function forPeople(message: string): string {
+  return message.replace(NAMED_BY_ID, (_whole, noun: string) => `the ${noun.toLowerCase()}`);
+}
+
 /**
  * Shows a failed save on a react-hook-form form. A 400's details and a 409's clashing fields go beside the
  * fields they name; the server's message goes above the form (`root.server`) with any detail the form has
@@ -39,10 +50,10 @@ export function showServerError<T extends FieldValues>(
       if (field) setError(field, { type: 'server', message: detail.message });
       else unplaced.push(detail.path ? `${detail.path}: ${detail.message}` : detail.message);
     }
-    setError('root.server', { type: 'server', message: [error.message, ...unplaced].join(' ') });
+    setError('root.server', { type: 'server', message: forPeople([error.message, ...unplaced].join(' ')) });
     return;
   }
-  setError('root.server', { type: 'server', message: error instanceof Error ? error.message : fallback });
+  setError('root.server', { type: 'server', message: error instanceof Error ? forPeople(error.message) : fallback });
 }
 
 /**

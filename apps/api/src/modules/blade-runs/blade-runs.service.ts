@@ -36,6 +36,7 @@ import {
   pgError,
   sawForWrite,
   select,
+  siteEffectiveSettings,
   siteTimeZone,
 } from '../records/record-support.js';
 import { breakInAdvice, diagnose, type DiagnosisCutLog } from '../records/trade.js';
@@ -189,6 +190,7 @@ export async function getBreakInAdvice(
     materialGroup,
     await usualCuttingRate(saw.id, materialGroup),
     await unitSystemOf(saw),
+    await siteEffectiveSettings(saw.siteId),
   );
 }
 
@@ -314,6 +316,7 @@ export async function installBladeRun(
     input.materialGroup,
     await usualCuttingRate(saw.id, input.materialGroup),
     await unitSystemOf(saw),
+    await siteEffectiveSettings(saw.siteId),
   );
   return { run: await getBladeRun(ability, run.id), breakIn: advice, warnings: [...advice.warnings, ...warnings] };
 }

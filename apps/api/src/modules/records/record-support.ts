@@ -6,6 +6,10 @@ import { AppError } from '../../errors.js';
 import { Saw } from '../saws/saw.model.js';
 import { Site } from '../sites/site.model.js';
 import { User } from '../users/user.model.js';
+import { SiteSetting } from '../site-settings/site-setting.model.js';
+import { settingDefinition } from '@kerfline/domain/settings/registry';
+import { storedValueInForce } from '@kerfline/domain/settings/schema';
+import type { EffectiveSettings } from '@kerfline/domain/settings/effective';
 
 /**
  * Helpers shared by the services of the records a site keeps (blade runs, stops, cut logs, photos, stock).
@@ -88,4 +92,28 @@ export function auditCopy(row: { get: (options: { plain: true }) => unknown }, o
   const values = { ...(row.get({ plain: true }) as Record<string, unknown>) };
   for (const key of omit) delete values[key];
   return values;
+}
+
+/**
+ * A site's own settings as the trade's computations take them (who changed each and when), so a figure the
+ * records' screens show (the band speed of a break-in plan, say) uses the site's value and says whose it is.
+ * A stored value that no longer fits its setting is left out: the computation then uses the shipped value.
+ * Not scoped: the caller has already decided the site is theirs to read.
+ */
+export async function siteEffectiveSettings(siteId: string, transaction?: Transaction): Promise<EffectiveSettings> {
+  const rows = await SiteSetting.findAll({ where: { siteId }, transaction });
+  const names = await namesOf(rows.map((r) => r.changedBy));
+  const settings: Record<string, EffectiveSettings[string]> = {};
+  for (const row of rows) {
+    const def = settingDefinition(row.key);
+    const values = def ? storedValueInForce(def, row.value) : null;
+    if (!values) continue;
+    settings[row.key] = {
+      key: row.key,
+      values,
+      changedByName: names.get(row.changedBy) ?? null,
+      changedAt: row.changedAt.toISOString(),
+    };
+  }
+  return settings;
 }

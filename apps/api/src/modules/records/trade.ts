@@ -20,6 +20,7 @@ import { checkBandSpeed } from '@kerfline/domain/band-speed/check-band-speed';
 import { recommendedBandSpeed } from '@kerfline/domain/band-speed/speed-ranges';
 import type { MaterialGroup } from '@kerfline/domain/band-speed/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
+import type { EffectiveSettings } from '@kerfline/domain/settings/effective';
 import type { BreakInAdvice } from '@kerfline/domain/blade-runs/schema';
 import type { RecordWarning } from '@kerfline/domain/records/schema';
 
@@ -85,13 +86,14 @@ export function breakInAdvice(
   materialGroup: MaterialGroup | null,
   normalCuttingRateMm2PerMin: number | null,
   system: UnitSystem = 'metric',
+  settings?: EffectiveSettings,
 ): BreakInAdvice {
   const rate =
     normalCuttingRateMm2PerMin !== null && normalCuttingRateMm2PerMin > 0 ? normalCuttingRateMm2PerMin : null;
   const bladeMaterial = speedBlade(spec.material);
   let bandSpeed: BreakInAdvice['bandSpeed'] = null;
   if (materialGroup) {
-    const recommended = recommendedBandSpeed(materialGroup, { bladeMaterial });
+    const recommended = recommendedBandSpeed(materialGroup, { bladeMaterial, settings });
     const low = Math.max(recommended.minMPerMin, saw.bandSpeedMinMPerMin);
     const high = Math.min(recommended.maxMPerMin, saw.bandSpeedMaxMPerMin);
     bandSpeed = { recommended, reachableMPerMin: low <= high ? { minMPerMin: low, maxMPerMin: high } : null };
@@ -100,7 +102,11 @@ export function breakInAdvice(
     sawId: saw.id,
     bladeSpecId: spec.id,
     materialGroup,
-    plan: planBreakIn({ mode: 'time' }, rate, materialGroup ? { materialGroup, bladeMaterial, system } : { system }),
+    plan: planBreakIn(
+      { mode: 'time' },
+      rate,
+      materialGroup ? { materialGroup, bladeMaterial, system, settings } : { system },
+    ),
     normalCuttingRateMm2PerMin: rate,
     cuttingRateBasis:
       rate === null

@@ -17,8 +17,10 @@ const NAV_ITEMS: NavItem[] = [
   { to: '/outliers', label: 'Outliers', roles: ['admin', 'manager', 'regional_lead'] },
   { to: '/follow-ups', label: 'Follow-ups', roles: ['admin', 'manager', 'regional_lead', 'site_admin'] },
   { to: '/budgets', label: 'Budgets', roles: ['admin', 'manager'] },
+  { to: '/today', label: 'Today', roles: ['technician', 'site_admin'] },
   { to: '/sites', label: 'Sites' },
   { to: '/saws', label: 'Saws' },
+  { to: '/blade-specs', label: 'Blade specs', roles: ['admin', 'site_admin'] },
   { to: '/people', label: 'People', roles: ['admin', 'site_admin'] },
   { to: '/calculators', label: 'Shop calculators' },
   { to: '/mail', label: 'Mail', roles: ['admin'] },
@@ -80,7 +82,7 @@ export function AppShell() {
           className={`h-0.5 bg-accent transition-opacity ${navigation.state === 'idle' ? 'opacity-0' : 'animate-pulse opacity-100'}`}
         />
         <div className="mx-auto flex max-w-7xl items-center gap-4 px-4 py-2 sm:px-6">
-          <Link to="/sites" className="flex min-h-11 items-center gap-2.5 rounded-sheet pr-2">
+          <Link to="/" className="flex min-h-11 items-center gap-2.5 rounded-sheet pr-2">
             <KerflineMark />
             <span className="text-lg font-extrabold tracking-tight text-ink">Kerfline</span>
           </Link>

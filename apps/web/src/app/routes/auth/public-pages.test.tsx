@@ -4,7 +4,7 @@ import userEvent from '@testing-library/user-event';
 import { createMemoryRouter } from 'react-router-dom';
 import { createQueryClient } from '../../../lib/query-client';
 import { installFakeApi } from '../../../test-support/fake-api';
-import { SITE_ID, makeMe, makeSite, page } from '../../../test-support/fixtures';
+import { makeMe, makeSite, page } from '../../../test-support/fixtures';
 import { AppProviders } from '../../providers';
 import { appRoutes } from '../../router';
 
@@ -96,8 +96,9 @@ describe('accepting an invitation', () => {
     await user.type(name, 'Noel Varga');
     await user.type(screen.getByLabelText('Choose a password'), 'first-shift-band-2026');
     await user.click(screen.getByRole('button', { name: 'Set up my account' }));
-    await screen.findByRole('heading', { level: 1, name: 'Holt Bar Works' });
-    expect(router.state.location.pathname).toBe(`/sites/${SITE_ID}`);
+    // A new technician starts from the day's work at their site.
+    await screen.findByRole('heading', { level: 1, name: 'Today' });
+    expect(router.state.location.pathname).toBe('/today');
     expect(requests.find((r) => r.path === '/api/invitations/accept')?.body).toEqual({
       token: TOKEN,
       name: 'Noel Varga',

@@ -61,7 +61,7 @@ export function RunPage() {
     ['Why it came off', r.removalReason ? REMOVAL_REASON_LABELS[r.removalReason] : '—'],
     ['Area cut', r.areaCutMm2 === null ? 'Not recorded' : formatLargeArea(r.areaCutMm2, units)],
     ['Cuts', r.cuts === null ? 'Not recorded' : formatNumber(r.cuts)],
-    ['Cost (fixed when put on)', formatMoney(r.costMinor, r.currency, { cents: true })],
+    ['Cost (fixed when put on)', formatMoney(r.costMinor, r.currency)],
     ['Cost per area cut', r.areaCutMm2 ? formatMoneyPerArea(r.costMinor / r.areaCutMm2, r.currency, units) : '—'],
     ['Break-in', r.breakInFollowed === null ? 'Not recorded' : r.breakInFollowed ? 'Followed' : 'Skipped'],
     ['Material', r.materialGroup ? MATERIAL_GROUP_LABELS[r.materialGroup] : 'Not recorded'],

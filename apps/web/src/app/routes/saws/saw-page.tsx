@@ -1,5 +1,5 @@
 import { useRef, useState } from 'react';
-import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Link, useLocation, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { useQuery, useQueryClient, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
 import { effectiveSettingsOf } from '@kerfline/domain/settings/schema';
 import { subject } from '@casl/ability';
@@ -18,6 +18,23 @@ import { siteDetailQuery } from '../../../features/sites/api/queries';
 import { siteKeys } from '../../../features/sites/api/keys';
 import { calculatorHrefForSaw } from '../../../features/calculators/components/saw-links';
 import { calculatorSaw } from '../calculators/calculator-site';
+import { SawStatePanel } from '../../../features/saws/components/saw-state-panel';
+import { SawTimeline } from '../../../features/saws/components/saw-timeline';
+import { stopListQuery } from '../../../features/stops/api/queries';
+import { bladeRunDetailQuery, bladeRunListQuery } from '../../../features/blade-runs/api/queries';
+import { BladeEconomicsPanel } from '../../../features/blade-runs/components/blade-economics';
+import { BreakInAnswer } from '../../../features/blade-runs/components/break-in-answer';
+import { parseListQuery } from '../../../lib/list-search';
+import { bladeRunListQuerySchema } from '@kerfline/domain/blade-runs/schema';
+import { stopListQuerySchema } from '@kerfline/domain/stops/schema';
+import { refreshAfterSawRecord, returnNoticeOf } from '../records/refresh';
+import { SawActionButtons, sawActionsFor } from './saw-actions';
+
+/** The saw's latest stop: when it ended says since when the saw has been running. */
+export const latestStopOf = (sawId: string) => stopListQuery(parseListQuery(stopListQuerySchema, { sawId, limit: 1 }));
+/** The saw's latest blades taken off, for blade life and cost per area. */
+export const recentRemovedRunsOf = (sawId: string) =>
+  bladeRunListQuery(parseListQuery(bladeRunListQuerySchema, { sawId, open: 'false', sort: '-removedAt', limit: 20 }));
 
 export function sawPageLoader(queryClient: QueryClient) {
   return async ({ params }: LoaderFunctionArgs) => {
@@ -45,6 +62,18 @@ export function SawPage() {
 
   const canChange =
     saw.status !== 'retired' && ability.can('update', subject('Saw', { id: saw.id, siteId: saw.siteId }));
+  const location = useLocation();
+  const notice = returnNoticeOf(location.state);
+  const latestStop = useQuery(latestStopOf(saw.id));
+  const recentRuns = useQuery(recentRemovedRunsOf(saw.id));
+  const bladeRun = useQuery({ ...bladeRunDetailQuery(saw.bladeOn?.runId ?? ''), enabled: saw.bladeOn !== null });
+  const lastStopEndedAt = latestStop.isSuccess
+    ? (latestStop.data.items[0]?.endedAt ?? (latestStop.data.items.length === 0 ? null : undefined))
+    : undefined;
+  const actions = sawActionsFor(saw, ability);
+  const canAnswerBreakIn =
+    bladeRun.data !== undefined &&
+    ability.can('update', subject('BladeRun', { id: bladeRun.data.id, siteId: saw.siteId }));
 
   const askToRetire = () => {
     setConfirming(true);
@@ -105,9 +134,7 @@ export function SawPage() {
         </div>
         {canChange ? (
           <div className="flex flex-wrap gap-2">
-            <LinkButton to={`/saws/${saw.id}/edit`} variant="primary">
-              Edit saw
-            </LinkButton>
+            <LinkButton to={`/saws/${saw.id}/edit`}>Edit saw</LinkButton>
             <Button variant="danger" onClick={askToRetire} aria-expanded={confirming} aria-controls="retire-confirm">
               Retire…
             </Button>
@@ -137,20 +164,61 @@ export function SawPage() {
         </Card>
       ) : null}
       {retire.isSuccess ? <Notice tone="info">{saw.assetTag} is retired.</Notice> : null}
-
-      {saw.status !== 'retired' ? (
-        <nav aria-label="Figures for the band on this saw" className="flex flex-wrap gap-2">
-          <LinkButton to={calculatorHrefForSaw('check-targets', calculatorSaw(saw), site.unitSystem)}>
-            Check targets for this band
-          </LinkButton>
-          <LinkButton to={calculatorHrefForSaw('break-in', calculatorSaw(saw), site.unitSystem)}>
-            Break-in plan
-          </LinkButton>
-          <LinkButton to={calculatorHrefForSaw('band-speed', calculatorSaw(saw), site.unitSystem)}>
-            Band speed
-          </LinkButton>
-        </nav>
+      {notice ? (
+        <Notice tone={notice.tone} title={notice.title}>
+          {notice.lines && notice.lines.length > 0 ? (
+            <ul className="list-disc pl-5">
+              {notice.lines.map((line) => (
+                <li key={line}>{line}</li>
+              ))}
+            </ul>
+          ) : null}
+        </Notice>
       ) : null}
+
+      <SawStatePanel
+        saw={saw}
+        timeZone={site.timeZone}
+        lastStopEndedAt={lastStopEndedAt}
+        slot={
+          <>
+            {/* Checks due at this saw go here (the checks feature composes its panel into this slot). */}
+            {canAnswerBreakIn && bladeRun.data ? (
+              <BreakInAnswer run={bladeRun.data} onSaved={() => void refreshAfterSawRecord(queryClient, saw)} />
+            ) : null}
+          </>
+        }
+        actions={actions.length > 0 ? <SawActionButtons actions={actions} /> : undefined}
+      />
+
+      <div className="grid gap-6 lg:grid-cols-[3fr_2fr]">
+        <SawTimeline sawId={saw.id} system={site.unitSystem} timeZone={site.timeZone} />
+        <div className="space-y-6">
+          {recentRuns.isSuccess ? (
+            <BladeEconomicsPanel runs={recentRuns.data.items} system={site.unitSystem} currency={site.currency} />
+          ) : recentRuns.isError ? (
+            <Notice title="Blade life could not be loaded">{recentRuns.error.message}</Notice>
+          ) : (
+            <p role="status" className="text-ink-muted">
+              Loading its recent blades…
+            </p>
+          )}
+
+          {saw.status !== 'retired' ? (
+            <nav aria-label="Figures for the band on this saw" className="grid gap-2 sm:flex sm:flex-wrap">
+              <LinkButton to={calculatorHrefForSaw('check-targets', calculatorSaw(saw), site.unitSystem)}>
+                Check targets for this band
+              </LinkButton>
+              <LinkButton to={calculatorHrefForSaw('break-in', calculatorSaw(saw), site.unitSystem)}>
+                Break-in plan
+              </LinkButton>
+              <LinkButton to={calculatorHrefForSaw('band-speed', calculatorSaw(saw), site.unitSystem)}>
+                Band speed
+              </LinkButton>
+            </nav>
+          ) : null}
+        </div>
+      </div>
 
       <SawDetailPanel saw={saw} unitSystem={site.unitSystem} timeZone={site.timeZone} />
       <SawFiguresPanel

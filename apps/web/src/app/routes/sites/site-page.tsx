@@ -12,6 +12,7 @@ import { LinkButton } from '../../../lib/ui/button';
 import { Notice } from '../../../lib/ui/notice';
 import { useAppAbility } from '../../../lib/ability';
 import { subject } from '@casl/ability';
+import { SiteRecordsNav } from './site-records-nav';
 
 export function sitePageLoader(queryClient: QueryClient) {
   return async ({ params, request }: LoaderFunctionArgs) => {
@@ -53,6 +54,7 @@ export function SitePage() {
           </>
         }
       />
+      <SiteRecordsNav siteId={site.id} />
       {site.retiredAt ? (
         <Notice tone="info" title="Retired site">
           Kept for its history: it is left out of lists and pickers.

@@ -3,12 +3,17 @@ import { useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { parseSiteListQuery, siteListQuery } from '../../../features/sites/api/queries';
 import { SiteTiles } from '../../../features/sites/components/site-tiles';
 import { regionListQuery } from '../../../features/regions/api/queries';
+import { parseSiteSummaryQuery, siteSummaryListQuery } from '../../../features/site-summaries/api/queries';
+import { SiteSummaryFigures } from '../../../features/site-summaries/components/site-summary-figures';
 import { useAppAbility } from '../../../lib/ability';
 import { LinkButton } from '../../../lib/ui/button';
 
 /** `?retired=shown` lists retired sites too (they keep their history). */
 const listOf = (search: URLSearchParams) =>
   siteListQuery(parseSiteListQuery({ includeRetired: search.get('retired') === 'shown' }));
+/** What each tile shows people to act on, for the same sites. */
+const summariesOf = (search: URLSearchParams) =>
+  siteSummaryListQuery(parseSiteSummaryQuery({ includeRetired: search.get('retired') === 'shown' ? 'true' : 'false' }));
 
 export function sitesLoader(queryClient: QueryClient) {
   return async ({ request }: LoaderFunctionArgs) => {
@@ -16,6 +21,8 @@ export function sitesLoader(queryClient: QueryClient) {
     await Promise.all([
       queryClient.ensureQueryData(listOf(new URL(request.url).searchParams)),
       queryClient.ensureQueryData(regionListQuery()).catch(() => undefined),
+      // The tiles' figures come with the page; without them the tiles still lead to each site.
+      queryClient.ensureQueryData(summariesOf(new URL(request.url).searchParams)).catch(() => undefined),
     ]);
     return null;
   };
@@ -26,6 +33,7 @@ export function SitesPage() {
   const showRetired = search.get('retired') === 'shown';
   const { data: sites } = useSuspenseQuery(listOf(search));
   const { data: regions } = useQuery(regionListQuery());
+  const summaries = useQuery(summariesOf(search));
   const ability = useAppAbility();
   const regionNameOf = (regionId: string) => regions?.items.find((region) => region.id === regionId)?.name;
 
@@ -47,7 +55,25 @@ export function SitesPage() {
           </LinkButton>
         ) : null}
       </div>
-      <SiteTiles sites={sites.items} regionNameOf={regionNameOf} />
+      {summaries.isError ? (
+        <p role="alert" className="text-sm font-semibold text-signal-stop">
+          The figures on the tiles could not be loaded: {summaries.error.message}
+        </p>
+      ) : null}
+      <SiteTiles
+        sites={sites.items}
+        regionNameOf={regionNameOf}
+        figuresOf={(site) =>
+          summaries.isPending ? (
+            <p className="text-sm text-ink-muted">Loading figures…</p>
+          ) : (
+            <SiteSummaryFigures
+              summary={summaries.data?.items.find((summary) => summary.siteId === site.id)}
+              timeZone={site.timeZone}
+            />
+          )
+        }
+      />
       {ability.can('create', 'Site') ? (
         <label className="flex min-h-11 w-fit cursor-pointer items-center gap-3 text-sm text-ink">
           <input

@@ -33,7 +33,7 @@ function BudgetCell({
     return (
       <>
         {month.budget ? (
-          formatMoney(month.budget.amountMinor, currency)
+          formatMoney(month.budget.amountMinor, currency, { cents: 'auto' })
         ) : (
           <span className="text-ink-muted">Not set</span>
         )}
@@ -123,7 +123,7 @@ export function BudgetTable({ status, asOfLabel }: { status: SiteStatus; asOfLab
                 />
               </td>
               <td className="tabular px-2 py-1 whitespace-nowrap">
-                {formatMoney(m.spentMinor, currency)}
+                {formatMoney(m.spentMinor, currency, { cents: 'auto' })}
                 {m.spendComplete ? '' : ' *'}
               </td>
               <td className="tabular px-2 py-1 whitespace-nowrap">
@@ -132,10 +132,10 @@ export function BudgetTable({ status, asOfLabel }: { status: SiteStatus; asOfLab
                 ) : m.varianceMinor < 0 ? (
                   <span className="font-semibold text-signal-stop">
                     <span aria-hidden="true">▲ </span>
-                    {formatMoney(-m.varianceMinor, currency)} over
+                    {formatMoney(-m.varianceMinor, currency, { cents: 'auto' })} over
                   </span>
                 ) : (
-                  <span>{formatMoney(m.varianceMinor, currency)} under</span>
+                  <span>{formatMoney(m.varianceMinor, currency, { cents: 'auto' })} under</span>
                 )}
               </td>
               <td className="tabular px-2 py-1">{m.percentUsed === null ? '—' : `${formatNumber(m.percentUsed)} %`}</td>
@@ -145,7 +145,7 @@ export function BudgetTable({ status, asOfLabel }: { status: SiteStatus; asOfLab
                 ) : (
                   <span className={m.projectedOverBudget ? 'font-semibold text-signal-stop' : ''}>
                     {m.projectedOverBudget ? <span aria-hidden="true">▲ </span> : null}
-                    {formatMoney(m.projectedMinor, currency)}
+                    {formatMoney(m.projectedMinor, currency, { cents: 'auto' })}
                     {m.projectedOverBudget ? ' (over budget)' : ''}
                   </span>
                 )}
@@ -159,19 +159,19 @@ export function BudgetTable({ status, asOfLabel }: { status: SiteStatus; asOfLab
               Period
             </th>
             <td className="tabular px-2 py-2 font-semibold">
-              {formatMoney(status.budgetMinor, currency)}{' '}
+              {formatMoney(status.budgetMinor, currency, { cents: 'auto' })}{' '}
               <span className="font-normal text-ink-muted">({status.budgetedMonths} months set)</span>
             </td>
             <td className="tabular px-2 py-2 font-semibold">
-              {formatMoney(status.spentMinor, currency)}
+              {formatMoney(status.spentMinor, currency, { cents: 'auto' })}
               {status.spendComplete ? '' : ' *'}
             </td>
             <td className="tabular px-2 py-2 font-semibold" colSpan={3}>
               {status.varianceMinor === null
                 ? 'No budget set'
                 : status.varianceMinor < 0
-                  ? `${formatMoney(-status.varianceMinor, currency)} over in the months with a budget`
-                  : `${formatMoney(status.varianceMinor, currency)} under in the months with a budget`}
+                  ? `${formatMoney(-status.varianceMinor, currency, { cents: 'auto' })} over in the months with a budget`
+                  : `${formatMoney(status.varianceMinor, currency, { cents: 'auto' })} under in the months with a budget`}
             </td>
           </tr>
         </tfoot>

@@ -20,7 +20,7 @@ describe('BreakInCalculator', () => {
     expect(caution).toHaveTextContent('Isolate and lock out the power before reaching into the saw.');
     expect(caution).toHaveTextContent('Wear gloves and eye protection');
     expect(caution).toHaveTextContent(
-      'A coiled band stores energy. Uncoil it with care, pointing it away from people.',
+      'A coiled or broken band stores energy and can spring. Uncoil it with care, pointing it away from people.',
     );
     expect(caution).toHaveTextContent('Put the guards back before running the saw.');
     expect(caution).toHaveTextContent(

@@ -1,16 +1,14 @@
-import { useId } from 'react';
+import { SafetyCaution as Caution, WarningTriangle } from '../../../lib/ui/safety-caution';
 
-/**
- * The warning triangle of a caution sign: yellow, black edge, black exclamation mark. Drawn here so it prints
- * the same everywhere; its meaning is always repeated in words beside it.
- */
-export function WarningTriangle({ className = 'size-12' }: { className?: string }) {
+export { WarningTriangle };
+
+/** The shop's cautions (one list, `lib/ui/safety-caution`), said of a calculator's figures. */
+export function SafetyCaution({ id }: { id?: string }) {
   return (
-    <svg viewBox="0 0 48 44" aria-hidden="true" focusable="false" className={`shrink-0 ${className}`}>
-      <path d="M24 3 45.5 40.5H2.5Z" fill="#F6C64A" stroke="#1E2226" strokeWidth="4" strokeLinejoin="round" />
-      <rect x="21.5" y="14" width="5" height="15" rx="1.5" fill="#1E2226" />
-      <circle cx="24" cy="34" r="2.9" fill="#1E2226" />
-    </svg>
+    <Caution
+      id={id}
+      deference="These figures do not replace your employer’s procedures, local regulations (such as lockout/tagout rules) or the saw maker’s manual."
+    />
   );
 }
 
@@ -29,37 +27,5 @@ export function SafetyCautionBrief({ fullId }: { fullId: string }) {
         </a>
       </span>
     </p>
-  );
-}
-
-/**
- * The usual cautions for adjusting a saw or changing a blade, shown on every calculator used for those jobs.
- * They point to the employer's procedures, local rules and the maker's manual, which always come first.
- */
-export function SafetyCaution({ id }: { id?: string }) {
-  const headingId = useId();
-  return (
-    <section
-      id={id}
-      aria-labelledby={headingId}
-      className="flex gap-4 rounded-sheet border-2 border-ink bg-signal-caution-soft p-4 sm:p-5"
-    >
-      <WarningTriangle className="size-10 sm:size-12" />
-      <div className="min-w-0 space-y-2 text-ink">
-        <h2 id={headingId} className="text-lg leading-tight font-extrabold">
-          Caution: work on the saw safely
-        </h2>
-        <ul className="list-disc space-y-1 pl-5 text-base">
-          <li>Isolate and lock out the power before reaching into the saw.</li>
-          <li>Wear gloves and eye protection: the teeth cut.</li>
-          <li>A coiled band stores energy. Uncoil it with care, pointing it away from people.</li>
-          <li>Put the guards back before running the saw.</li>
-        </ul>
-        <p className="text-sm text-ink-muted">
-          These figures do not replace your employer’s procedures, local regulations (such as lockout/tagout rules) or
-          the saw maker’s manual.
-        </p>
-      </div>
-    </section>
   );
 }

@@ -5,7 +5,7 @@ import { formatMoney } from '../../../lib/money';
 
 /** Money in the reporting currency, marked when a month's rate was missing (the total is then too low). */
 export function spendText(money: ConvertedMoney): string {
-  return `${formatMoney(money.amountMinor, money.currency)}${money.complete ? '' : ' *'}`;
+  return `${formatMoney(money.amountMinor, money.currency, { cents: 'auto' })}${money.complete ? '' : ' *'}`;
 }
 
 export function costPerAreaText(

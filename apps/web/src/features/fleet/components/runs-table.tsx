@@ -50,9 +50,7 @@ export function RunsTable({
                 {r.areaCutMm2 === null ? 'Not recorded' : formatLargeArea(r.areaCutMm2, units)}
               </td>
               <td className="tabular px-2 py-1">{r.cuts === null ? '—' : formatNumber(r.cuts)}</td>
-              <td className="tabular px-2 py-1 whitespace-nowrap">
-                {formatMoney(r.costMinor, r.currency, { cents: true })}
-              </td>
+              <td className="tabular px-2 py-1 whitespace-nowrap">{formatMoney(r.costMinor, r.currency)}</td>
               <td className="px-2 py-1">
                 {r.breakInFollowed === null ? 'Not recorded' : r.breakInFollowed ? 'Followed' : 'Skipped'}
               </td>

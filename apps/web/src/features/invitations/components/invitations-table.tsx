@@ -31,10 +31,10 @@ export function InvitationsTable({
   if (invitations.length === 0)
     return <p className="px-5 py-8 text-center text-ink-muted">No invitations in this state.</p>;
   return (
-    <div className="overflow-x-auto">
-      <table className="w-full min-w-[44rem] border-collapse text-left text-sm">
+    <div>
+      <table className="w-full border-collapse text-left text-sm max-md:block">
         <caption className="sr-only">Invitations</caption>
-        <thead>
+        <thead className="max-md:hidden">
           <tr className="border-b border-rule text-ink-muted">
             <th scope="col" className="py-3 pr-3 pl-5 font-semibold">
               E-mail
@@ -56,35 +56,61 @@ export function InvitationsTable({
             </th>
           </tr>
         </thead>
-        <tbody>
+        <tbody className="max-md:block">
           {invitations.map((invitation) => {
             const open = invitation.state === 'pending' || invitation.state === 'expired';
             return (
-              <tr key={invitation.id} className="border-b border-rule last:border-b-0">
-                <th scope="row" className="py-3 pr-3 pl-5 font-semibold whitespace-nowrap text-ink">
+              <tr
+                key={invitation.id}
+                className="border-b border-rule last:border-b-0 max-md:block max-md:px-4 max-md:py-3"
+              >
+                <th
+                  scope="row"
+                  className="py-3 pr-3 pl-5 font-semibold break-all text-ink md:whitespace-nowrap max-md:block max-md:p-0"
+                >
                   {invitation.email}
                   {invitation.name ? <span className="block font-normal text-ink-muted">{invitation.name}</span> : null}
                 </th>
-                <td className="px-3 py-3 text-ink">{ROLE_LABELS[invitation.role]}</td>
-                <td className="px-3 py-3 text-ink">{whereOf(invitation)}</td>
-                <td className="px-3 py-3 whitespace-nowrap text-ink">
-                  <span aria-hidden="true" className="mr-1.5 inline-block w-3 font-bold">
-                    {STATE_MARKS[invitation.state]}
-                  </span>
-                  {INVITATION_STATE_LABELS[invitation.state]}
-                  {invitation.state === 'pending' ? (
-                    <span className="block text-ink-muted">
-                      until {dateFormat.format(new Date(invitation.expiresAt))}
+                <td
+                  data-label="Role"
+                  className="px-3 py-3 text-ink max-md:grid max-md:grid-cols-[6.5rem_1fr] max-md:gap-3 max-md:px-0 max-md:py-1 max-md:before:font-semibold max-md:before:text-ink-muted max-md:before:content-[attr(data-label)]"
+                >
+                  {ROLE_LABELS[invitation.role]}
+                </td>
+                <td
+                  data-label="Works at"
+                  className="px-3 py-3 text-ink max-md:grid max-md:grid-cols-[6.5rem_1fr] max-md:gap-3 max-md:px-0 max-md:py-1 max-md:before:font-semibold max-md:before:text-ink-muted max-md:before:content-[attr(data-label)]"
+                >
+                  {whereOf(invitation)}
+                </td>
+                <td
+                  data-label="State"
+                  className="px-3 py-3 text-ink md:whitespace-nowrap max-md:grid max-md:grid-cols-[6.5rem_1fr] max-md:gap-3 max-md:px-0 max-md:py-1 max-md:before:font-semibold max-md:before:text-ink-muted max-md:before:content-[attr(data-label)]"
+                >
+                  <div>
+                    <span aria-hidden="true" className="mr-1.5 inline-block w-3 font-bold">
+                      {STATE_MARKS[invitation.state]}
                     </span>
-                  ) : null}
+                    {INVITATION_STATE_LABELS[invitation.state]}
+                    {invitation.state === 'pending' ? (
+                      <span className="block text-ink-muted">
+                        until {dateFormat.format(new Date(invitation.expiresAt))}
+                      </span>
+                    ) : null}
+                  </div>
                 </td>
-                <td className="tabular px-3 py-3 whitespace-nowrap text-ink">
-                  {dateFormat.format(new Date(invitation.lastSentAt))}
-                  <span className="block text-ink-muted">by {invitation.invitedByName}</span>
+                <td
+                  data-label="Last sent"
+                  className="tabular px-3 py-3 text-ink md:whitespace-nowrap max-md:grid max-md:grid-cols-[6.5rem_1fr] max-md:gap-3 max-md:px-0 max-md:py-1 max-md:before:font-semibold max-md:before:text-ink-muted max-md:before:content-[attr(data-label)]"
+                >
+                  <div>
+                    {dateFormat.format(new Date(invitation.lastSentAt))}
+                    <span className="block text-ink-muted">by {invitation.invitedByName}</span>
+                  </div>
                 </td>
-                <td className="py-3 pr-5 pl-3">
+                <td className="py-3 pr-5 pl-3 max-md:block max-md:px-0 max-md:pt-2">
                   {open && onAction ? (
-                    <div className="flex justify-end gap-2">
+                    <div className="flex gap-2 md:justify-end">
                       <Button
                         disabled={busyId === invitation.id}
                         onClick={() => onAction(invitation, 'resend')}

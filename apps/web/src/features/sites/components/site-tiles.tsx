@@ -1,16 +1,20 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { Site } from '@kerfline/domain/sites/schema';
 import { formatNumber } from '../../../lib/format';
 
 export const UNIT_SYSTEM_LABELS = { metric: 'Metric (mm, m/min)', imperial: 'Imperial (in, ft/min)' } as const;
 
-/** One tile per site: the figures a manager compares at a glance, the whole tile a link to the site. */
+/** One tile per site: what its people act on, at a glance; the whole tile a link to the site. */
 export function SiteTiles({
   sites,
   regionNameOf,
+  figuresOf,
 }: {
   sites: Site[];
   regionNameOf: (regionId: string) => string | undefined;
+  /** What the site's people act on (saws down, stock left…), composed by the page; in their place, the basics. */
+  figuresOf?: (site: Site) => ReactNode;
 }) {
   if (sites.length === 0) {
     return (
@@ -40,16 +44,16 @@ export function SiteTiles({
                 <span aria-hidden="true">■ </span>Retired
               </p>
             ) : null}
-            <p className="mt-4 flex items-baseline gap-2">
-              <span className="tabular text-4xl font-extrabold text-ink">{formatNumber(site.activeSawCount)}</span>
-              <span className="text-sm text-ink-muted">{site.activeSawCount === 1 ? 'saw in use' : 'saws in use'}</span>
-            </p>
-            <dl className="mt-4 grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 border-t border-rule pt-3 text-sm">
-              <dt className="text-ink-muted">Time zone</dt>
-              <dd className="truncate text-ink">{site.timeZone}</dd>
-              <dt className="text-ink-muted">Units</dt>
-              <dd className="text-ink">{UNIT_SYSTEM_LABELS[site.unitSystem]}</dd>
-            </dl>
+            {figuresOf ? (
+              <div className="mt-4 border-t border-rule pt-3">{figuresOf(site)}</div>
+            ) : (
+              <p className="mt-4 flex items-baseline gap-2">
+                <span className="tabular text-4xl font-extrabold text-ink">{formatNumber(site.activeSawCount)}</span>
+                <span className="text-sm text-ink-muted">
+                  {site.activeSawCount === 1 ? 'saw in use' : 'saws in use'}
+                </span>
+              </p>
+            )}
           </Link>
         </li>
       ))}

@@ -2,8 +2,8 @@ import { Link } from 'react-router-dom';
 import { ROLE_LABELS, type User } from '@kerfline/domain/users/schema';
 
 /**
- * People in the caller's scope. A plain table: it scrolls sideways inside its card on a phone rather than
- * squeezing e-mail addresses.
+ * People in the caller's scope. On a wide screen a table; below the md breakpoint each person becomes a card with
+ * the column names beside the values, so a phone never scrolls sideways (long e-mail addresses wrap).
  */
 export function UsersTable({
   users,
@@ -19,10 +19,10 @@ export function UsersTable({
 }) {
   if (users.length === 0) return <p className="px-5 py-8 text-center text-ink-muted">Nobody matches this filter.</p>;
   return (
-    <div className="overflow-x-auto">
-      <table className="w-full min-w-[40rem] border-collapse text-left text-sm">
+    <div>
+      <table className="w-full border-collapse text-left text-sm max-md:block">
         <caption className="sr-only">People</caption>
-        <thead>
+        <thead className="max-md:hidden">
           <tr className="border-b border-rule text-ink-muted">
             <th scope="col" className="py-3 pr-3 pl-5 font-semibold">
               Name
@@ -41,10 +41,13 @@ export function UsersTable({
             </th>
           </tr>
         </thead>
-        <tbody>
+        <tbody className="max-md:block">
           {users.map((user) => (
-            <tr key={user.id} className="border-b border-rule last:border-b-0">
-              <th scope="row" className="py-3 pr-3 pl-5 font-semibold text-ink">
+            <tr key={user.id} className="border-b border-rule last:border-b-0 max-md:block max-md:px-4 max-md:py-3">
+              <th
+                scope="row"
+                className="py-3 pr-3 pl-5 font-semibold text-ink max-md:block max-md:p-0 max-md:text-base"
+              >
                 {linkTo?.(user) ? (
                   <Link
                     to={linkTo(user)!}
@@ -56,12 +59,28 @@ export function UsersTable({
                   user.name
                 )}
               </th>
-              <td className="px-3 py-3 whitespace-nowrap text-ink">{user.email}</td>
-              <td className="px-3 py-3 text-ink">{ROLE_LABELS[user.role]}</td>
-              <td className="px-3 py-3 text-ink">
+              <td
+                data-label="E-mail"
+                className="px-3 py-3 text-ink md:whitespace-nowrap max-md:break-all max-md:grid max-md:grid-cols-[6.5rem_1fr] max-md:gap-3 max-md:px-0 max-md:py-1 max-md:before:font-semibold max-md:before:text-ink-muted max-md:before:content-[attr(data-label)]"
+              >
+                {user.email}
+              </td>
+              <td
+                data-label="Role"
+                className="px-3 py-3 text-ink max-md:grid max-md:grid-cols-[6.5rem_1fr] max-md:gap-3 max-md:px-0 max-md:py-1 max-md:before:font-semibold max-md:before:text-ink-muted max-md:before:content-[attr(data-label)]"
+              >
+                {ROLE_LABELS[user.role]}
+              </td>
+              <td
+                data-label="Works at"
+                className="px-3 py-3 text-ink max-md:grid max-md:grid-cols-[6.5rem_1fr] max-md:gap-3 max-md:px-0 max-md:py-1 max-md:before:font-semibold max-md:before:text-ink-muted max-md:before:content-[attr(data-label)]"
+              >
                 <WorksAt user={user} siteNameOf={siteNameOf} regionNameOf={regionNameOf} />
               </td>
-              <td className="py-3 pr-5 pl-3">
+              <td
+                data-label="Account"
+                className="py-3 pr-5 pl-3 max-md:grid max-md:grid-cols-[6.5rem_1fr] max-md:gap-3 max-md:px-0 max-md:py-1 max-md:before:font-semibold max-md:before:text-ink-muted max-md:before:content-[attr(data-label)]"
+              >
                 {user.active ? (
                   <span className="font-semibold text-ink">
                     <span aria-hidden="true" className="mr-1.5 inline-block size-2.5 rounded-full bg-signal-safe" />

@@ -1,0 +1,32 @@
+import { useQuery } from '@tanstack/react-query';
+import { Notice } from '../../../lib/ui/notice';
+import { runPhotosQuery } from '../api/queries';
+
+/** A run's photos as thumbnails, each opening the full picture (served only to people who may read the saw). */
+export function RunPhotos({ runId }: { runId: string }) {
+  const photos = useQuery(runPhotosQuery(runId));
+  if (photos.isPending)
+    return (
+      <p role="status" className="text-ink-muted">
+        Loading photos…
+      </p>
+    );
+  if (photos.isError) return <Notice title="The photos could not be loaded">{photos.error.message}</Notice>;
+  if (photos.data.length === 0) return <p className="text-ink-muted">No photos yet.</p>;
+  return (
+    <ul className="grid grid-cols-3 gap-2 sm:grid-cols-5">
+      {photos.data.map((photo) => (
+        <li key={photo.id}>
+          <a href={photo.imageUrl} target="_blank" rel="noreferrer" className="block">
+            <img
+              src={photo.thumbnailUrl}
+              alt={photo.caption ?? 'Photo of the blade'}
+              className="aspect-square w-full rounded-sheet border border-rule object-cover"
+              loading="lazy"
+            />
+          </a>
+        </li>
+      ))}
+    </ul>
+  );
+}
