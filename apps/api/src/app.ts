@@ -33,6 +33,7 @@ import { bladeRunsRouter } from './modules/blade-runs/blade-runs.router.js';
 import { stopsRouter } from './modules/stops/stops.router.js';
 import { cutLogsRouter } from './modules/cut-logs/cut-logs.router.js';
 import { photosRouter } from './modules/photos/photos.router.js';
+import { siteChecksRouter } from './modules/site-checks/site-checks.router.js';
 import { sawTimelineRouter } from './modules/saw-timeline/saw-timeline.router.js';
 import { siteSummariesRouter } from './modules/site-summaries/site-summaries.router.js';
 import { DatabasePhotoStorage, type PhotoStorage } from './modules/photos/photo-storage.js';
@@ -173,6 +174,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(stopsRouter());
   api.use(cutLogsRouter());
   api.use(photosRouter(deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize)));
+  api.use(siteChecksRouter());
   api.use(sawTimelineRouter());
   api.use(siteSummariesRouter());
   api.use(fleetRouter());

@@ -24,6 +24,8 @@ import { Budget } from '../modules/budgets/budget.model.js';
 import { FollowUp } from '../modules/follow-ups/follow-up.model.js';
 import { ExchangeRate } from '../modules/exchange-rates/exchange-rate.model.js';
 import { QueryTypes } from 'sequelize';
+import { SiteCheck } from '../modules/site-checks/site-check.model.js';
+import { CheckRecord } from '../modules/site-checks/check-record.model.js';
 import { SqlParams, scopeSql, scopeWhere } from './sequelize-scope.js';
 
 let ctx: TestContext;
@@ -137,6 +139,8 @@ const MODELS: Record<SubjectName, ModelStatic<Model>> = {
   Budget,
   FollowUp,
   ExchangeRate,
+  SiteCheck,
+  CheckRecord,
 };
 
 /** For every row: does the scoped query return it exactly when `ability.can` says yes? */

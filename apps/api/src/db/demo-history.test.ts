@@ -15,7 +15,9 @@ const FINGERPRINT = `SELECT md5(string_agg(x, ',' ORDER BY x)) AS f FROM (
     FROM blade_runs r JOIN saws s ON s.id = r.saw_id
   UNION ALL SELECT concat_ws('|', s.asset_tag, st.started_at, st.ended_at, st.category) FROM stops st JOIN saws s ON s.id = st.saw_id
   UNION ALL SELECT concat_ws('|', c.cut_at, c.area_cut_mm2, c.teeth_in_work_min) FROM cut_logs c
-  UNION ALL SELECT concat_ws('|', r.received_on, r.quantity, r.unit_cost_minor) FROM stock_receipts r) all_rows`;
+  UNION ALL SELECT concat_ws('|', r.received_on, r.quantity, r.unit_cost_minor) FROM stock_receipts r
+  UNION ALL SELECT concat_ws('|', s.asset_tag, k.checked_at, k.reading, k.passed) FROM check_records k
+    JOIN saws s ON s.id = k.saw_id) all_rows`;
 
 beforeAll(async () => {
   ctx = startTestApp();

@@ -23,7 +23,7 @@ const HOUR = 3_600_000;
 const MINUTE = 60_000;
 
 /** Saws that eat blades, and why: too fast a band, too coarse a pitch for thin walls, a band over-tensioned. */
-const EATERS: Record<string, 'too_fast' | 'too_coarse' | 'over_tensioned'> = {
+export const EATERS: Record<string, 'too_fast' | 'too_coarse' | 'over_tensioned'> = {
   'RTM-S02': 'too_fast',
   'MTY-S01': 'too_coarse',
   'HOU-S04': 'over_tensioned',
@@ -34,13 +34,13 @@ const DOWN_AT_REFERENCE: Record<string, { category: StopCategory; hoursBefore: n
   'RTM-S04': { category: 'mechanical', hoursBefore: 7, notes: 'Drive wheel bearing noisy; taken out of use.' },
 };
 /** The site that skips break-in, and the site whose breakdowns last long. */
-const POOR_BREAK_IN_SITE = 'CV-DBN';
+export const POOR_BREAK_IN_SITE = 'CV-DBN';
 const LONG_STOPS_SITE = 'CV-HOU';
 /** Sites that keep the optional cut logs. */
 const CUT_LOG_SITES = new Set(['CV-RTM', 'CV-MTY']);
 
 /** mulberry32: a small, well-known seeded generator; one per saw so each saw's history is stable. */
-function generator(seedText: string) {
+export function generator(seedText: string) {
   let seed = 2166136261;
   for (const ch of seedText) seed = Math.imul(seed ^ ch.charCodeAt(0), 16777619);
   let a = seed >>> 0;
@@ -442,10 +442,12 @@ export async function loadDemoHistory(sequelize: Sequelize, transaction: Transac
         stock_receipt_id: null,
         installed_at: new Date(t),
         installed_by_id: installedBy,
+        // Within the printed range for the band's material (bi-metal 25,000–30,000 psi ≈ 172–207 MPa, carbon
+        // 15,000–20,000 psi ≈ 103–138 MPa), except on the saw whose bands are over-tensioned.
         tension_mpa:
           cls === 'vertical'
             ? Math.round(r.between(110, 130))
-            : Math.round(eater === 'over_tensioned' ? r.between(265, 290) : r.between(205, 235)),
+            : Math.round(eater === 'over_tensioned' ? r.between(265, 290) : r.between(180, 204)),
         material_group: job.material,
         break_in_followed: breakIn,
         cost_minor: 0,

@@ -12,6 +12,8 @@ import { SiteSetting } from '../modules/site-settings/site-setting.model.js';
 import { AuditEntry } from '../modules/audit/audit-entry.model.js';
 import { loadDemoFleet } from './demo-fleet.js';
 import { loadDemoHistory } from './demo-history.js';
+import { loadDemoChecks } from './demo-checks.js';
+import { seedSiteChecks } from '../modules/site-checks/seed-site-checks.js';
 
 /*
  * The demo scenario: Corvane Metals, an invented bar, tube and structural distributor with five cutting
@@ -329,6 +331,8 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
         { transaction },
       );
       siteIds.set(s.code, site.id);
+      // Every site starts with the shipped list of checks, as a site made in the app does.
+      await seedSiteChecks(site.id, transaction);
     }
 
     for (const [code, saws] of Object.entries(FLEET)) {
@@ -417,6 +421,7 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
     }
 
     await loadDemoHistory(sequelize, transaction);
+    await loadDemoChecks(sequelize, transaction);
     await loadDemoFleet(sequelize, transaction);
   });
   return true;

@@ -17,6 +17,8 @@ import { Photo } from '../modules/photos/photo.model.js';
 import { ExchangeRate, ReportingCurrency } from '../modules/exchange-rates/exchange-rate.model.js';
 import { Budget } from '../modules/budgets/budget.model.js';
 import { FollowUp, FollowUpEntry } from '../modules/follow-ups/follow-up.model.js';
+import { SiteCheck } from '../modules/site-checks/site-check.model.js';
+import { CheckRecord } from '../modules/site-checks/check-record.model.js';
 
 /** Binds every model to this Sequelize instance. Model names equal the CASL subject names. */
 export function initModels(sequelize: Sequelize): void {
@@ -44,6 +46,8 @@ export function initModels(sequelize: Sequelize): void {
   Budget.initModel(sequelize);
   FollowUp.initModel(sequelize);
   FollowUpEntry.initModel(sequelize);
+  SiteCheck.initModel(sequelize);
+  CheckRecord.initModel(sequelize);
 }
 
 let bound: Sequelize | undefined;

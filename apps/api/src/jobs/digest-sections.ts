@@ -5,6 +5,8 @@ import { scopedWhere } from '../authz/sequelize-scope.js';
 import { Site } from '../modules/sites/site.model.js';
 import { HAS_OPEN_STOP_SQL, OPEN_STOP_SQL, Saw } from '../modules/saws/saw.model.js';
 import { appLink, type MailSection } from '../mail/templates.js';
+import { subject } from '@casl/ability';
+import { countsBySite, pendingPage } from '../modules/site-checks/check-status.js';
 import {
   lowStockSection,
   newOutlierFlagsSection,
@@ -122,14 +124,64 @@ export const sawsDownSection: SectionBuilder = {
   },
 };
 
+const OVERDUE_CHECKS_SHOWN = 25;
+
 /**
- * The weekly digest to each regional lead, section by section: the region's sites and saws down, the saws newly
- * flagged against their peers, open follow-ups and the week's top failure reasons (`fleet-sections.ts`). Each is
- * scoped through `ctx.signedIn.ability`, as above.
+ * The maintenance checks overdue now at the mail's sites (those whose checks the recipient may read), the
+ * longest overdue first, from the same SQL as each site's overdue list.
+ */
+export const overdueChecksSection: SectionBuilder = {
+  key: 'overdue-checks',
+  async build(ctx) {
+    const sites = ctx.sites.filter((s) =>
+      ctx.signedIn.ability.can('read', subject('SiteCheck', { id: '', siteId: s.id })),
+    );
+    if (sites.length === 0) return null;
+    const filter = { siteIds: sites.map((s) => s.id) };
+    const [{ rows, total }, counts] = await Promise.all([
+      pendingPage(filter, 'overdue', { limit: OVERDUE_CHECKS_SHOWN, offset: 0 }),
+      countsBySite(filter),
+    ]);
+    const siteName = new Map(sites.map((s) => [s.id, s.name]));
+    const bySite = sites
+      .map((s) => ({ site: s, overdue: counts.get(s.id)?.overdue ?? 0 }))
+      .filter((c) => c.overdue > 0)
+      .map((c) => `${c.site.name} ${c.overdue}`);
+    const only = sites.length === 1 ? sites[0]! : null;
+    return {
+      title: 'Checks overdue',
+      intro:
+        total === 0
+          ? undefined
+          : `${total} check${total === 1 ? ' is' : 's are'} overdue (${bySite.join(', ')})${total > OVERDUE_CHECKS_SHOWN ? `; the ${OVERDUE_CHECKS_SHOWN} overdue longest are listed` : ''}.`,
+      columns: ['Saw', 'Check', 'Site', 'Overdue since'],
+      rows: rows.map((r) => [
+        r.asset_tag,
+        r.check_name,
+        siteName.get(r.site_id) ?? '',
+        r.overdue_at ? r.overdue_at.toISOString().slice(0, 10) : '',
+      ]),
+      empty: 'No check is overdue.',
+      link:
+        total > 0
+          ? {
+              label: only ? `See ${only.name}’s overdue checks` : 'Open the sites in Kerfline',
+              url: appLink(ctx.publicUrl, only ? `/sites/${only.id}/checks/overdue` : '/sites'),
+            }
+          : undefined,
+    };
+  },
+};
+
+/**
+ * The weekly digest to each regional lead, section by section: the region's sites and saws down, overdue checks,
+ * the saws newly flagged against their peers, open follow-ups and the week's top failure reasons
+ * (`fleet-sections.ts`). Each is scoped through `ctx.signedIn.ability`, as above.
  */
 export const weeklyDigestSections: SectionBuilder[] = [
   sitesSection,
   sawsDownSection,
+  overdueChecksSection,
   newOutlierFlagsSection,
   openFollowUpsSection,
   topFailureReasonsSection,

@@ -12,6 +12,9 @@ import { BladeRun } from '../modules/blade-runs/blade-run.model.js';
 import { Stop } from '../modules/stops/stop.model.js';
 import { CutLog } from '../modules/cut-logs/cut-log.model.js';
 import { Photo } from '../modules/photos/photo.model.js';
+import { SiteCheck } from '../modules/site-checks/site-check.model.js';
+import { CheckRecord } from '../modules/site-checks/check-record.model.js';
+import { seedSiteChecks } from '../modules/site-checks/seed-site-checks.js';
 import { resetData } from './test-db.js';
 
 export const PASSWORD = 'fixture-password-123';
@@ -65,6 +68,8 @@ export async function buildWorld(sequelize: Sequelize) {
   const siteA = await site('A', north.id);
   const siteB = await site('B', north.id);
   const siteC = await site('C', south.id);
+  // Each site starts with the shipped list of checks, as the sites service gives a new site.
+  for (const s of [siteA, siteB, siteC]) await seedSiteChecks(s.id);
 
   const saws: Record<string, Saw[]> = {};
   for (const s of [siteA, siteB, siteC]) {
@@ -118,7 +123,7 @@ export async function buildWorld(sequelize: Sequelize) {
 /**
  * Records at sites A and C for scope tests, written straight to the tables: a fleet-wide spec (site NULL) and
  * one of site A's own, stock, a removed run and an open run, stops (one open), a cut log and a photo at each
- * site, and stock levels. Nullable columns are left NULL where they may be.
+ * site, stock levels, a recorded check with a photo of it, and a retired check on each site's list. Nullable columns are left NULL where they may be.
  */
 export async function buildRecords(world: World) {
   const fleetSpec = await BladeSpec.create({
@@ -153,8 +158,10 @@ export async function buildRecords(world: World) {
   });
   const day = 86_400_000;
   const now = Date.now();
-  const records: Record<'A' | 'C', { receipt: StockReceipt; run: BladeRun; openRun: BladeRun; stop: Stop }> =
-    {} as never;
+  const records: Record<
+    'A' | 'C',
+    { receipt: StockReceipt; run: BladeRun; openRun: BladeRun; stop: Stop; checkRecord: CheckRecord }
+  > = {} as never;
   for (const code of ['A', 'C'] as const) {
     const site = world.sites[code];
     const [saw1, saw2] = world.saws[code]!;
@@ -259,7 +266,55 @@ export async function buildRecords(world: World) {
       safetyStock: 1,
       updatedById: null,
     });
-    records[code] = { receipt, run, openRun, stop };
+    // A check recorded on the open run, with a photo of it; and a retired fixed check with no records.
+    const guide = await SiteCheck.findOne({ where: { siteId: site.id, targetRule: 'guide_clearance' } });
+    const checkRecord = await CheckRecord.create({
+      siteId: site.id,
+      sawId: saw1!.id,
+      siteCheckId: guide!.id,
+      bladeRunId: openRun.id,
+      checkedAt: new Date(now - 19 * day),
+      checkedById: null,
+      targetRule: 'guide_clearance',
+      quantity: 'length',
+      reading: 1.13,
+      answers: null,
+      target: 1.1254,
+      minValue: 1.1254,
+      maxValue: 1.1508,
+      passed: true,
+      basis: null,
+      explanation: 'Fixture',
+      notes: null,
+    });
+    await Photo.create({
+      siteId: site.id,
+      bladeRunId: null,
+      checkRecordId: checkRecord.id,
+      contentType: 'image/png',
+      byteSize: 10,
+      widthPx: 1,
+      heightPx: 1,
+      caption: null,
+      uploadedById: null,
+    });
+    await SiteCheck.create({
+      siteId: site.id,
+      name: 'Old coolant check',
+      measures: null,
+      quantity: 'stress',
+      targetRule: 'fixed',
+      fixedTarget: 0.3,
+      fixedMin: 0.2,
+      fixedMax: null,
+      schedule: 'periodic',
+      intervalDays: 7,
+      graceHours: 24,
+      position: 10,
+      retiredAt: new Date(),
+      updatedById: null,
+    });
+    records[code] = { receipt, run, openRun, stop, checkRecord };
   }
   return { fleetSpec, siteSpec, ...records };
 }

@@ -88,6 +88,23 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: 'sites/:siteId/checks',
+              lazy: async () => {
+                const page = await import('./routes/checks/site-checks-page');
+                return { loader: page.siteChecksPageLoader(queryClient), Component: page.SiteChecksPage };
+              },
+            },
+            {
+              path: 'sites/:siteId/checks/overdue',
+              lazy: async () => {
+                const page = await import('./routes/checks/site-overdue-checks-page');
+                return {
+                  loader: page.siteOverdueChecksPageLoader(queryClient),
+                  Component: page.SiteOverdueChecksPage,
+                };
+              },
+            },
+            {
               path: 'sites/:siteId/edit',
               lazy: async () => {
                 const page = await import('./routes/sites/site-edit-page');
@@ -113,6 +130,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               lazy: async () => {
                 const page = await import('./routes/saws/saw-page');
                 return { loader: page.sawPageLoader(queryClient), Component: page.SawPage };
+              },
+            },
+            {
+              path: 'saws/:sawId/record-check',
+              lazy: async () => {
+                const page = await import('./routes/checks/record-check-page');
+                return { loader: page.recordCheckPageLoader(queryClient), Component: page.RecordCheckPage };
               },
             },
             {

@@ -37,6 +37,8 @@ const levels = (siteId: string) => subject('StockLevel', { id: 'v', siteId });
 const budget = (siteId: string) => subject('Budget', { id: 'g', siteId });
 const followUp = (siteId: string) => subject('FollowUp', { id: 'u', siteId });
 const rate = subject('ExchangeRate', { id: 'x', currency: 'CAD' });
+const siteCheck = (siteId: string) => subject('SiteCheck', { id: 'c', siteId });
+const checkRecord = (siteId: string) => subject('CheckRecord', { id: 'x', siteId });
 
 // The permission matrix: [role, action, object, expected].
 const matrix: [
@@ -237,6 +239,38 @@ const matrix: [
   ['siteAdminA', 'export', site(B, NORTH), false],
   ['techA', 'export', site(A, NORTH), false],
   ['managerAC', 'export', site(B, NORTH), false],
+  // A site's list of checks: read by whoever reads the site, kept by admins and that site's admin.
+  ['admin', 'update', siteCheck(C), true],
+  ['siteAdminA', 'create', siteCheck(A), true],
+  ['siteAdminA', 'update', siteCheck(A), true],
+  ['siteAdminA', 'delete', siteCheck(A), true],
+  ['siteAdminA', 'update', siteCheck(B), false],
+  ['siteAdminA', 'read', siteCheck(B), false],
+  ['techA', 'read', siteCheck(A), true],
+  ['techA', 'update', siteCheck(A), false],
+  ['techA', 'create', siteCheck(A), false],
+  ['techA', 'read', siteCheck(C), false],
+  ['managerAC', 'read', siteCheck(C), true],
+  ['managerAC', 'read', siteCheck(B), false],
+  ['managerAll', 'update', siteCheck(A), false],
+  ['leadNorth', 'read', siteCheck(B), true],
+  ['leadNorth', 'update', siteCheck(B), false],
+  // Recorded checks: technicians and site admins record at their own site; leads and managers read.
+  ['techA', 'create', checkRecord(A), true],
+  ['techA', 'read', checkRecord(A), true],
+  ['techA', 'create', checkRecord(B), false],
+  ['techA', 'update', checkRecord(A), false],
+  ['techA', 'delete', checkRecord(A), false],
+  ['siteAdminA', 'create', checkRecord(A), true],
+  ['siteAdminA', 'delete', checkRecord(A), true],
+  ['siteAdminA', 'create', checkRecord(C), false],
+  ['managerAll', 'read', checkRecord(C), true],
+  ['managerAll', 'create', checkRecord(C), false],
+  ['managerAC', 'read', checkRecord(B), false],
+  ['leadNorth', 'read', checkRecord(A), true],
+  ['leadNorth', 'create', checkRecord(A), false],
+  ['leadNorth', 'read', checkRecord(C), false],
+  ['admin', 'create', checkRecord(C), true],
 ];
 
 describe('who can do what', () => {
@@ -318,6 +352,8 @@ describe('rules stay translatable to SQL', () => {
     Budget: new Set(['id', 'siteId']),
     FollowUp: new Set(['id', 'siteId']),
     ExchangeRate: new Set(['id', 'currency']),
+    SiteCheck: new Set(['id', 'siteId']),
+    CheckRecord: new Set(['id', 'siteId']),
   };
 
   it('uses only $eq, $ne, $in and $nin on the subject’s own columns, for every role', () => {

@@ -31,6 +31,8 @@ export const SUBJECTS = [
   'Budget',
   'FollowUp',
   'ExchangeRate',
+  'SiteCheck',
+  'CheckRecord',
 ] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
@@ -70,13 +72,24 @@ type Subjects =
   | (SiteRecordFields & ForcedSubject<'Photo'>)
   | (SiteRecordFields & ForcedSubject<'Budget'>)
   | (SiteRecordFields & ForcedSubject<'FollowUp'>)
-  | (ExchangeRateFields & ForcedSubject<'ExchangeRate'>);
+  | (ExchangeRateFields & ForcedSubject<'ExchangeRate'>)
+  | (SiteRecordFields & ForcedSubject<'SiteCheck'>)
+  | (SiteRecordFields & ForcedSubject<'CheckRecord'>);
 
 export type AppAbility = MongoAbility<[Action, Subjects]>;
 export type AppRawRule = RawRuleOf<AppAbility>;
 
 /** Subjects that belong to exactly one site and carry it in their own `siteId` column. */
-export const SITE_RECORDS = ['StockReceipt', 'StockLevel', 'BladeRun', 'Stop', 'CutLog', 'Photo'] as const;
+export const SITE_RECORDS = [
+  'StockReceipt',
+  'StockLevel',
+  'BladeRun',
+  'Stop',
+  'CutLog',
+  'Photo',
+  'SiteCheck',
+  'CheckRecord',
+] as const;
 
 /**
  * Who is asking, with their scope already resolved from the database: the sites and regions they may see.
@@ -171,8 +184,8 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can('read', 'AuditEntry', { siteId: p.siteId });
         // Their site's figures with no single printed value (band speeds, tension ranges, check limits).
         can(['read', 'create', 'update', 'delete'], 'SiteSetting', { siteId: p.siteId });
-        // Their site's stock, blade runs, stops, cut logs and photos, and the site's own blade specs; the
-        // fleet-wide catalogue (siteId NULL) is read-only to them.
+        // Their site's stock, blade runs, stops, cut logs, photos, list of checks and checks recorded, and the
+        // site's own blade specs; the fleet-wide catalogue (siteId NULL) is read-only to them.
         can(['create', 'read', 'update', 'delete'], [...SITE_RECORDS], { siteId: p.siteId });
         can('read', 'BladeSpec', { siteId: { $in: [null, p.siteId] } });
         can(['create', 'update', 'delete'], 'BladeSpec', { siteId: p.siteId });
@@ -186,11 +199,12 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can('read', 'Region', { id: inRegions ?? { $in: [] } });
         can('read', 'Site', { id: p.siteId });
         can('read', ['Saw', 'SiteSetting'], { siteId: p.siteId });
-        // Technicians log work at their own site; corrections beyond that (deletes, stock) are the site admin's.
+        // Technicians log work at their own site; corrections beyond that (deletes, stock, the list of checks)
+        // are the site admin's.
         can('read', [...SITE_RECORDS], { siteId: p.siteId });
         can('read', 'BladeSpec', { siteId: { $in: [null, p.siteId] } });
         can(['create', 'update'], ['BladeRun', 'Stop', 'CutLog'], { siteId: p.siteId });
-        can('create', 'Photo', { siteId: p.siteId });
+        can('create', ['Photo', 'CheckRecord'], { siteId: p.siteId });
         // Follow-ups at their site: they move them along and add notes; the person and the day are the site admin's.
         can('read', 'FollowUp', { siteId: p.siteId });
         can('update', 'FollowUp', ['state', 'note'], { siteId: p.siteId });

@@ -50,7 +50,7 @@ export const breakInPlanSchema = z.object({
       breakInMaxMPerMin: z.number(),
     })
     .nullable(),
-  basis: z.string(),
+  basis: figureBasisSchema,
 });
 
 export const breakInAdviceSchema = z.object({

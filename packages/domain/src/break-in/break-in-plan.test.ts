@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { ZodError } from 'zod';
 import { in2ToMm2, mm2ToIn2 } from '../units/units.js';
-import { planBreakIn } from './break-in-plan.js';
+import { breakInSettingsForSite, planBreakIn, planBreakInForSite } from './break-in-plan.js';
 import { BREAK_IN_DEFAULTS, breakInPlanRequestSchema } from './schema.js';
 
 describe('planBreakIn, time mode (common practice, no source)', () => {
@@ -18,7 +18,7 @@ describe('planBreakIn, time mode (common practice, no source)', () => {
     expect(plan.totalDurationMin).toBe(20);
     expect(plan.totalAreaMm2).toBeNull();
     expect(plan.steps.every((s) => s.areaMm2 === null)).toBe(true);
-    expect(plan.basis).toContain("Kerfline's starting steps");
+    expect(plan.basis).toMatchObject({ kind: 'site_setting', settingKey: 'break_in', changedAt: null });
     expect(plan.bandSpeed).toBeNull();
     expect(plan.steps[0]?.note).toContain('33 % of normal for 10 min');
     expect(plan.steps[0]?.note).toContain('full normal band speed');
@@ -226,5 +226,53 @@ describe('break-in with the material to be cut', () => {
     const plan = planBreakIn({ mode: 'time' }, null, { materialGroup: 'stainless_steel', system: 'imperial' });
     // Shipped stainless 20–40 m/min = 66–131 ft/min (1 ft = 0.3048 m, NIST SP 811 B.8).
     expect(plan.steps[0]?.note).toContain('full normal band speed (66–131 ft/min)');
+  });
+});
+
+describe('the break-in plan from a site’s setting', () => {
+  it('the shipped setting gives the same plan as the shipped steps, and says it is Kerfline’s starting value', () => {
+    const shipped = planBreakInForSite('time', 6000);
+    const steps = planBreakIn({ mode: 'time' }, 6000);
+    expect(shipped.steps).toEqual(steps.steps);
+    expect(shipped.basis).toEqual({
+      kind: 'site_setting',
+      settingKey: 'break_in',
+      changedByName: null,
+      changedAt: null,
+      note: expect.stringContaining('blade maker'),
+    });
+    expect(breakInSettingsForSite(undefined, 'area')).toEqual({ mode: 'area' });
+  });
+
+  it('a site’s own steps drive the plan, and the basis names who changed them', () => {
+    const settings = {
+      break_in: {
+        key: 'break_in',
+        values: {
+          startFeedPercent: 25,
+          secondFeedPercent: 50,
+          thirdFeedPercent: 80,
+          bandSpeedPercent: 80,
+          startMinutes: 15,
+          stepMinutes: 10,
+          startAreaMm2: 40000,
+          stepAreaMm2: 20000,
+        },
+        changedByName: 'Ines Carvalho',
+        changedAt: '2026-10-01T08:00:00.000Z',
+      },
+    };
+    // By hand: 15 + 10 + 10 = 35 min; with 8 000 mm²/min, 0.25 × 8 000 × 15 + 0.5 × 8 000 × 10 + 0.8 × 8 000 × 10
+    // = 30 000 + 40 000 + 64 000 = 134 000 mm².
+    const plan = planBreakInForSite('time', 8000, { settings });
+    expect(plan.steps.map((s) => [s.feedFraction, s.durationMin, s.bandSpeedFraction])).toEqual([
+      [0.25, 15, 0.8],
+      [0.5, 10, 0.8],
+      [0.8, 10, 0.8],
+      [1, null, 1],
+    ]);
+    expect(plan.totalDurationMin).toBe(35);
+    expect(plan.totalAreaMm2).toBeCloseTo(134000, 6);
+    expect(plan.basis).toMatchObject({ kind: 'site_setting', changedByName: 'Ines Carvalho' });
   });
 });

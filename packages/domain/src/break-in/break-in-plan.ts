@@ -1,20 +1,14 @@
 import { recommendedBandSpeed, type BandSpeedOptions, type RecommendedBandSpeed } from '../band-speed/speed-ranges.js';
 import type { MaterialGroup } from '../band-speed/schema.js';
 import { bandSpeedToDisplay, type UnitSystem } from '../units/display.js';
+import type { FigureBasis } from '../figures/basis.js';
+import { effectiveSetting, settingBasis, settingValue, type EffectiveSettings } from '../settings/effective.js';
 import {
   breakInSettingsSchema,
   normalCuttingRateSchema,
   type BreakInMode,
   type BreakInSettingsInput,
 } from './schema.js';
-
-/**
- * Where the break-in numbers come from: no printed plan applies to every blade, so the steps are Kerfline's
- * starting values, changed in the form (common practice, no source; the blade maker's own break-in takes
- * precedence). Shown to users in these words.
- */
-export const BREAK_IN_BASIS =
-  "Kerfline's starting steps, which you can change: no printed break-in plan applies to every blade, and the blade maker's own break-in takes precedence";
 
 export type BreakInStepKind = 'reduced' | 'ramp' | 'normal';
 
@@ -53,7 +47,11 @@ export interface BreakInPlan {
     breakInMinMPerMin: number;
     breakInMaxMPerMin: number;
   } | null;
-  basis: string;
+  /**
+   * Where the steps come from: the site's `break_in` setting (Kerfline's starting plan, or the site's own, with
+   * who changed it and when), or the steps a caller gave for this plan.
+   */
+  basis: FigureBasis;
 }
 
 export interface BreakInMaterialOptions extends BandSpeedOptions {
@@ -61,6 +59,8 @@ export interface BreakInMaterialOptions extends BandSpeedOptions {
   materialGroup?: MaterialGroup;
   /** Wording of the speeds in the step notes; metric unless given. */
   system?: UnitSystem;
+  /** Where the steps come from; the site's `break_in` setting unless given (see `planBreakInForSite`). */
+  basis?: FigureBasis;
 }
 
 const percent = (f: number): string => `${Math.round(f * 100)} %`;
@@ -83,8 +83,9 @@ function sumOrNull(values: (number | null)[]): number | null {
  * - Area mode: a reduced feed for the first `initialAreaMm2`, then `rampStepAreaMm2` at each ramp feed.
  *   With R the minutes of a step are area ÷ (feedFraction × R).
  *
- * A last open-ended step returns to normal feed and full band speed. Numbers are common practice, no
- * source. Bad settings throw a ZodError whose messages say which field to fix.
+ * A last open-ended step returns to normal feed and full band speed. The shipped steps are common practice, no
+ * source: a site keeps its own as the `break_in` setting (`planBreakInForSite`). Bad settings throw a ZodError
+ * whose messages say which field to fix.
  *
  * @param settings break-in settings (defaults: time mode, 1/3 feed for 10 min, then 50 % and 75 % for 5 min each)
  * @param normalCuttingRateMm2PerMin cutting rate at normal feed, mm²/min, if known
@@ -159,6 +160,44 @@ export function planBreakIn(
             breakInMinMPerMin: normal.minMPerMin * s.bandSpeedFraction,
             breakInMaxMPerMin: normal.maxMPerMin * s.bandSpeedFraction,
           },
-    basis: BREAK_IN_BASIS,
+    basis: material.basis ?? settingBasis(effectiveSetting(material.settings, 'break_in')),
   };
+}
+
+/**
+ * The plan steps a site's `break_in` setting gives, measured in minutes or in area cut: its starting feed, two
+ * steps up and band speed (stored in percent of normal), and the minutes or area of each step.
+ */
+export function breakInSettingsForSite(
+  settings: EffectiveSettings | undefined,
+  mode: BreakInMode,
+): BreakInSettingsInput {
+  // A site on the shipped plan gets the shipped steps as they are (1/3 exactly, not 33.33… % ÷ 100).
+  if (settings?.break_in === undefined) return { mode };
+  const setting = effectiveSetting(settings, 'break_in');
+  const v = (field: string) => settingValue(setting, field);
+  const common = {
+    bandSpeedFraction: v('bandSpeedPercent') / 100,
+    initialFeedFraction: v('startFeedPercent') / 100,
+    rampFeedFractions: [v('secondFeedPercent') / 100, v('thirdFeedPercent') / 100],
+  };
+  return mode === 'time'
+    ? { mode, ...common, initialDurationMin: v('startMinutes'), rampStepDurationMin: v('stepMinutes') }
+    : { mode, ...common, initialAreaMm2: v('startAreaMm2'), rampStepAreaMm2: v('stepAreaMm2') };
+}
+
+/**
+ * The break-in plan a site gives a new blade: the steps of its `break_in` setting (shipped or its own), with the
+ * material's band speeds when one is given. The plan's basis says whose steps they are.
+ */
+export function planBreakInForSite(
+  mode: BreakInMode,
+  normalCuttingRateMm2PerMin: number | null = null,
+  options: BreakInMaterialOptions = {},
+): BreakInPlan {
+  const setting = effectiveSetting(options.settings, 'break_in');
+  return planBreakIn(breakInSettingsForSite(options.settings, mode), normalCuttingRateMm2PerMin, {
+    ...options,
+    basis: settingBasis(setting),
+  });
 }

@@ -1,75 +1,74 @@
-import { CHECK_KINDS, checkDueInputSchema, type CheckDueInput, type CheckKindId } from './schema.js';
+import type { CheckSchedule } from './schema.js';
 
 const MS_PER_HOUR = 3_600_000;
 const MS_PER_DAY = 24 * MS_PER_HOUR;
 
 /** Default hours after a blade change within which its checks should be done: one shift (our choice). */
 export const DEFAULT_BLADE_CHANGE_GRACE_HOURS = 8;
+/** Default hours a periodic check may run past its date before it counts as overdue: one day (our choice). */
+export const DEFAULT_PERIODIC_GRACE_HOURS = 24;
 
-export interface CheckDueState {
-  kind: CheckKindId;
-  /** When the next check is (or was) due; null when nothing is due yet or it was never done (periodic). */
-  dueAt: Date | null;
-  overdue: boolean;
-  reason: string;
+/** ok: nothing to do now; due: it should be done now; overdue: its grace has run out. */
+export const DUE_STATES = ['ok', 'due', 'overdue'] as const;
+export type DueStateName = (typeof DUE_STATES)[number];
+
+export interface CheckDueRuleInput {
+  schedule: CheckSchedule;
+  /** Days between periodic checks; ignored for blade-change checks. */
+  intervalDays: number | null;
+  /** Hours allowed after the check falls due before it is overdue. */
+  graceHours: number;
+  /** When the blade now on the saw went on; null when no blade is on it. */
+  bladeOnSince: Date | null;
+  /** The last time this check was recorded on this saw; null if never. */
+  lastCheckedAt: Date | null;
+  /**
+   * Since when the check applies to the saw: the later of the saw's and the check's creation, so a check added
+   * to a site's list (or a saw added to a site) today falls due from today, not from years ago.
+   */
+  appliesSince: Date;
+  asOf: Date;
 }
 
+export interface CheckDueState {
+  state: DueStateName;
+  /** When the check falls (or fell) due; null when nothing is pending (a blade-change check already done). */
+  fallsDueAt: Date | null;
+  /** `fallsDueAt` + grace: after this moment the check is overdue. */
+  overdueAt: Date | null;
+}
+
+const later = (a: Date, b: Date) => (a.getTime() >= b.getTime() ? a : b);
+
 /**
- * Whether one check kind is overdue on one saw.
+ * Whether a check of a site's list is due on a saw: the rule the API's SQL (`check-status.sql.ts`) mirrors, and
+ * is tested against.
  *
- * - Checks due at every blade change are overdue when no check of that kind was recorded since the last
- *   blade change and more than `graceHours` (default 8 h) have passed since it.
- * - Periodic checks fall due `intervalDays` after the last one (the kind's default interval when omitted) and
- *   are overdue from then on; a periodic check never done is overdue.
+ * - At each blade change: while a blade is on the saw and the check has not been recorded since it went on, the
+ *   check falls due when it went on (or when the check started to apply, if later) and is overdue once
+ *   `graceHours` have passed. With no blade on the saw, or the check done since, nothing is due.
+ * - Every N days: it falls due `intervalDays` after the last record (never recorded: as soon as it applies) and
+ *   is overdue once `graceHours` have passed since then.
+ *
+ * Due from the moment it falls due (inclusive); overdue strictly after `overdueAt`.
  */
-export function checkDueState(input: CheckDueInput): CheckDueState {
-  const v = checkDueInputSchema.parse(input);
-  const info = CHECK_KINDS.find((k) => k.kind === v.kind)!;
-  const asOfMs = v.asOf.getTime();
-
-  if (info.due === 'blade_change') {
-    if (v.lastBladeChangeAt === null) {
-      return { kind: v.kind, dueAt: null, overdue: false, reason: 'No blade change recorded: nothing is due yet.' };
-    }
-    const changeMs = v.lastBladeChangeAt.getTime();
-    if (v.lastCheckedAt !== null && v.lastCheckedAt.getTime() >= changeMs) {
-      return {
-        kind: v.kind,
-        dueAt: null,
-        overdue: false,
-        reason: `${info.label} was checked after the last blade change.`,
-      };
-    }
-    const graceHours = v.graceHours ?? DEFAULT_BLADE_CHANGE_GRACE_HOURS;
-    const dueAt = new Date(changeMs + graceHours * MS_PER_HOUR);
-    const overdue = asOfMs > dueAt.getTime();
-    return {
-      kind: v.kind,
-      dueAt,
-      overdue,
-      reason: overdue
-        ? `${info.label} has not been checked since the blade change of ${v.lastBladeChangeAt.toISOString()}.`
-        : `${info.label} is due with the new blade, within ${graceHours} h of the change.`,
-    };
+export function checkDueState(input: CheckDueRuleInput): CheckDueState {
+  const asOf = input.asOf.getTime();
+  let fallsDueAt: Date;
+  if (input.schedule === 'blade_change') {
+    const since = input.bladeOnSince;
+    if (since === null || (input.lastCheckedAt !== null && input.lastCheckedAt.getTime() >= since.getTime()))
+      return { state: 'ok', fallsDueAt: null, overdueAt: null };
+    fallsDueAt = later(since, input.appliesSince);
+  } else {
+    if (input.intervalDays === null || !(input.intervalDays > 0))
+      throw new RangeError('A periodic check needs an interval of at least 1 day');
+    fallsDueAt =
+      input.lastCheckedAt === null
+        ? input.appliesSince
+        : new Date(input.lastCheckedAt.getTime() + input.intervalDays * MS_PER_DAY);
   }
-
-  const intervalDays = v.intervalDays ?? info.defaultIntervalDays!;
-  if (v.lastCheckedAt === null) {
-    return {
-      kind: v.kind,
-      dueAt: null,
-      overdue: true,
-      reason: `${info.label} has never been checked (due every ${intervalDays} days).`,
-    };
-  }
-  const dueAt = new Date(v.lastCheckedAt.getTime() + intervalDays * MS_PER_DAY);
-  const overdue = asOfMs > dueAt.getTime();
-  return {
-    kind: v.kind,
-    dueAt,
-    overdue,
-    reason: overdue
-      ? `${info.label} was due on ${dueAt.toISOString()} (every ${intervalDays} days).`
-      : `${info.label} is next due on ${dueAt.toISOString()}.`,
-  };
+  const overdueAt = new Date(fallsDueAt.getTime() + input.graceHours * MS_PER_HOUR);
+  const state: DueStateName = asOf > overdueAt.getTime() ? 'overdue' : asOf >= fallsDueAt.getTime() ? 'due' : 'ok';
+  return { state, fallsDueAt, overdueAt };
 }

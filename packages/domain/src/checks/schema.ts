@@ -21,36 +21,77 @@ export type CheckUnit = 'mm' | 'N' | 'MPa' | 'condition';
 export interface CheckKind {
   kind: CheckKindId;
   label: string;
+  /** What is measured or looked at, and with what: the shipped wording of a site's check list. */
+  measures: string;
   unit: CheckUnit;
   due: CheckSchedule;
   /** Default days between periodic checks; null for checks due at every blade change. */
   defaultIntervalDays: number | null;
+  /** Default hours allowed after the check falls due before it counts as overdue. */
+  defaultGraceHours: number;
 }
 
 /**
- * Which checks are due when. Common practice, no source: the checks a new band changes (its thickness, width,
- * tension and how it runs on the wheels, and the brush that clears its gullets) are done at every blade change;
- * the saw's own wear (head pressure, bearing faces) is checked on a calendar. Intervals are defaults a site may
- * change.
+ * Which checks are due when: the shipped default set every site's list of checks starts from. Common practice,
+ * no source: the checks a new band changes (its thickness, width, tension and how it runs on the wheels, and the
+ * brush that clears its gullets) are done at every blade change, within one shift (8 h, our choice); the saw's
+ * own wear (head pressure, bearing faces) is checked on a calendar, with a day's grace (our choice). Intervals
+ * and grace are defaults a site may change.
  */
 export const CHECK_KINDS: readonly CheckKind[] = [
   {
     kind: 'guide_clearance',
     label: 'Guide bearing clearance',
+    measures: 'Opening of the guides across the band, with feeler gauges',
     unit: 'mm',
     due: 'blade_change',
     defaultIntervalDays: null,
+    defaultGraceHours: 8,
   },
-  { kind: 'tracking', label: 'Band tracking', unit: 'mm', due: 'blade_change', defaultIntervalDays: null },
-  { kind: 'band_tension', label: 'Band tension', unit: 'MPa', due: 'blade_change', defaultIntervalDays: null },
-  { kind: 'chip_brush', label: 'Chip brush', unit: 'condition', due: 'blade_change', defaultIntervalDays: null },
-  { kind: 'feed_pressure', label: 'Head down-force', unit: 'N', due: 'periodic', defaultIntervalDays: 30 },
+  {
+    kind: 'tracking',
+    label: 'Band tracking',
+    measures: 'How far the tooth edge stands off the front of the wheel face',
+    unit: 'mm',
+    due: 'blade_change',
+    defaultIntervalDays: null,
+    defaultGraceHours: 8,
+  },
+  {
+    kind: 'band_tension',
+    label: 'Band tension',
+    measures: 'Stress in the band, read on a band tension meter',
+    unit: 'MPa',
+    due: 'blade_change',
+    defaultIntervalDays: null,
+    defaultGraceHours: 8,
+  },
+  {
+    kind: 'chip_brush',
+    label: 'Chip brush',
+    measures: 'Whether the brush reaches into the gullets, and whether it is worn',
+    unit: 'condition',
+    due: 'blade_change',
+    defaultIntervalDays: null,
+    defaultGraceHours: 8,
+  },
+  {
+    kind: 'feed_pressure',
+    label: 'Head down-force',
+    measures: 'Spring-balance reading over the last inch of head travel (gravity- or spring-fed heads)',
+    unit: 'N',
+    due: 'periodic',
+    defaultIntervalDays: 30,
+    defaultGraceHours: 24,
+  },
   {
     kind: 'bearing_wear',
     label: 'Guide and pressure bearing wear',
+    measures: 'Largest gap under a straightedge laid across each bearing face',
     unit: 'mm',
     due: 'periodic',
     defaultIntervalDays: 30,
+    defaultGraceHours: 24,
   },
 ];
 
@@ -217,23 +258,3 @@ export const checkInputSchema = z.discriminatedUnion(
   { message: `Check kind must be one of ${CHECK_KIND_IDS.join(', ')}` },
 );
 export type CheckInput = z.input<typeof checkInputSchema>;
-
-const dateInput = (label: string) => z.coerce.date({ message: `${label} must be a date` });
-
-/** What the overdue calculation needs for one check kind on one saw. */
-export const checkDueInputSchema = z.object({
-  kind: z.enum(CHECK_KIND_IDS, { message: `Check kind must be one of ${CHECK_KIND_IDS.join(', ')}` }),
-  lastCheckedAt: dateInput('Last check').nullable(),
-  lastBladeChangeAt: dateInput('Last blade change').nullable(),
-  asOf: dateInput('As-of date'),
-  /** Days between periodic checks; the kind's default when omitted. */
-  intervalDays: z
-    .number()
-    .int({ message: 'Interval must be a whole number of days' })
-    .min(1, { message: 'Interval must be at least 1 day' })
-    .max(3650)
-    .optional(),
-  /** Hours allowed after a blade change to do its checks; default 8 (one shift). */
-  graceHours: z.number().min(0, { message: 'Grace time must not be negative' }).max(720).optional(),
-});
-export type CheckDueInput = z.input<typeof checkDueInputSchema>;

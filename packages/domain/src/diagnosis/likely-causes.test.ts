@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { CHECK_KIND_IDS } from '../checks/schema.js';
 import { BASE_WEIGHTS, CAUSE_IDS, rankLikelyCauses, type CauseId } from './likely-causes.js';
+import { DIAGNOSIS_BASIS } from './likely-causes.js';
 import { FAILURE_MODES, REMOVAL_REASONS, REMOVAL_REASON_LABELS, type DiagnosisEvidenceInput } from './schema.js';
 
 // The weights are trade knowledge (common practice, no source); these tests check the ranking mechanics and
@@ -36,7 +37,8 @@ describe('rankLikelyCauses without evidence', () => {
     ]);
     expect(d.causes.map((c) => c.score)).toEqual([0.55, 0.45, 0.45, 0.4, 0.4]);
     expect(d.causes.every((c) => c.evidence.length === 0 && c.score === c.baseWeight)).toBe(true);
-    expect(d.basis).toBe('common practice, no source');
+    expect(d.basis).toBe(DIAGNOSIS_BASIS);
+    expect(d.basis).not.toMatch(/common practice|from memory/i);
     expect(d.modeLabel).toBe('Fatigue crack');
     expect(rankLikelyCauses('twist').modeLabel).toBe('Band twisted');
   });

@@ -148,7 +148,12 @@ export const BASE_WEIGHTS: Record<FailureMode, Partial<Record<CauseId, number>>>
   other: { tension_off: 0.2, feed_high: 0.2, guides_worn: 0.2, band_speed_high: 0.2, teeth_in_work_low: 0.2 },
 };
 
-export const DIAGNOSIS_BASIS = 'common practice, no source';
+/**
+ * Where the ranking comes from, in words a screen may show: the cause weights are common practice, no source (a
+ * marking for tests and the contributor guide, never the screen), weighed with the saw's own records.
+ */
+export const DIAGNOSIS_BASIS =
+  'Kerfline’s own weighing of the usual causes (no printed source ranks them), adjusted by this saw’s checks, cut logs and break-in record';
 
 /** Effect of strong evidence (a failed check, a reported fact, every cut log out of range). */
 export const STRONG_EVIDENCE = 0.5;

@@ -62,6 +62,12 @@ export const FIGURE_CATALOGUE: readonly CatalogueFigure[] = [
     bases: [printed(MH31_BAND_SAW_NOTES, 'pitch by length of cut'), input('stock dimensions')],
   },
   {
+    id: 'teeth_in_work_guards',
+    label: 'Fewest and most teeth in the work, and the preferred range',
+    shownOn: ['calculator:teeth-in-work'],
+    bases: [setting('teeth_in_work', 'fewest, most and preferred teeth in the work')],
+  },
+  {
     id: 'metal_under_band',
     label: 'Metal under the band (mean over the cut, at the centre line)',
     shownOn: ['calculator:teeth-in-work'],
@@ -128,7 +134,10 @@ export const FIGURE_CATALOGUE: readonly CatalogueFigure[] = [
     id: 'break_in_steps',
     label: 'Break-in feed steps',
     shownOn: ['calculator:break-in'],
-    bases: [input('feed fractions and minutes or area, starting from Kerfline’s values, changed in the form')],
+    bases: [
+      setting('break_in', 'starting feed, two steps up, band speed, minutes or area of each step'),
+      input('the normal cutting rate, when known'),
+    ],
   },
   {
     id: 'guide_opening',
@@ -174,20 +183,11 @@ export const FIGURE_CATALOGUE: readonly CatalogueFigure[] = [
 ];
 
 /**
- * Rules of thumb kept as guards and preferences (common practice, no source), not shown as figures of their own.
- * Each says where it acts. The issue that set them named them so; they are listed for the contributor guide.
+ * Rules of thumb kept inside a computation (common practice, no source), not shown as figures of their own.
+ * Each says where it acts. The teeth-in-work guards and preference were one until they became the site setting
+ * `teeth_in_work`; they are listed for the contributor guide.
  */
 export const RULES_OF_THUMB: readonly { id: string; rule: string; actsOn: string }[] = [
-  {
-    id: 'teeth_guards',
-    rule: 'Fewer than 3 teeth in the work strip teeth; more than 24 overload the gullets.',
-    actsOn: 'warnings, and the pitch choice beyond the printed table and for tubes and shapes',
-  },
-  {
-    id: 'teeth_preference',
-    rule: '6 to 12 teeth in the work cut best.',
-    actsOn: 'a preference mark; never ranked above the printed table',
-  },
   {
     id: 'tracking_ratio',
     rule: 'The tooth edge overhangs the wheel face by 1/8 of the band width.',

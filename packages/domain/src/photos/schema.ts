@@ -2,8 +2,8 @@ import { z } from 'zod';
 import { idSchema, text } from '../common/schema.js';
 
 /**
- * Photos of a failed blade or a worn guide, attached to a blade run (and, later, a check). The type is
- * recognised from the file's content, never its name; a thumbnail is made on upload.
+ * Photos of a failed blade or a worn guide, attached to one parent: a blade run or a recorded check. The type
+ * is recognised from the file's content, never its name; a thumbnail is made on upload.
  */
 
 export const PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp'] as const;
@@ -18,6 +18,7 @@ export const photoSchema = z.object({
   id: idSchema,
   siteId: idSchema,
   bladeRunId: idSchema.nullable(),
+  checkRecordId: idSchema.nullable(),
   contentType: z.enum(PHOTO_TYPES),
   byteSize: z.number().int(),
   widthPx: z.number().int(),

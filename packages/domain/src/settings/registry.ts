@@ -13,13 +13,21 @@ import type { FigureBasis } from '../figures/basis.js';
 import { CHECK_DEFAULTS, DEFAULT_TENSION_RANGE_MPA, TENSION_RANGE_SOURCES } from '../checks/schema.js';
 import { SHIPPED_BAND_SPEEDS } from '../band-speed/defaults.js';
 import { MATERIAL_GROUPS, MATERIAL_GROUP_LABELS } from '../band-speed/schema.js';
+import { BREAK_IN_DEFAULTS } from '../break-in/schema.js';
+
+/**
+ * Numbers that are plain counts in any unit system: days, minutes, a percentage of a normal value, teeth. Their
+ * field names end in the unit (`intervalDays`, `startMinutes`, `startFeedPercent`, `fewestTeeth`).
+ */
+export const PLAIN_QUANTITIES = ['days', 'minutes', 'percent', 'teeth'] as const;
+export type PlainQuantity = (typeof PLAIN_QUANTITIES)[number];
 
 export interface SettingField {
   /** The key of the value in the setting's record, with its SI unit in the name (`toleranceMm`). */
   name: string;
   label: string;
-  /** How the value is shown and typed: a display quantity, or a plain count of days. */
-  quantity: DisplayQuantityKind | 'days';
+  /** How the value is shown and typed: a display quantity, or a plain count. */
+  quantity: DisplayQuantityKind | PlainQuantity;
   /** Decimals to show beyond the quantity's default (thousandths of an inch for guide clearances). */
   decimals?: { metric: number; imperial: number };
   /** Accepted range in SI, so a typo in the units is refused with a message that says the range. */
@@ -33,7 +41,7 @@ export type ShippedBasis = Extract<FigureBasis, { kind: 'published' }> | { kind:
 export interface SiteSettingDefinition {
   key: string;
   /** Groups settings on the settings page. */
-  group: 'band_speed' | 'band_tension' | 'checks';
+  group: 'band_speed' | 'band_tension' | 'checks' | 'blades';
   label: string;
   /** One or two sentences: what the figure is for and what changing it does. */
   help: string;
@@ -52,6 +60,14 @@ const NO_PRINTED_SOURCE =
 
 const BAND_SPEED_NOTE =
   "No printed table gives one band speed range for a whole material group: Machinery's Handbook (31st ed., p. 1245) lists speeds grade by grade for 4 in material. Kerfline ships a range for the group as your site's starting point; the Handbook's corrections for the length of cut, carbon-steel blades and cutting dry are applied to it.";
+
+const increasing = (fields: string[], what: string) => (v: Record<string, number>) => {
+  const issues: { path: string; message: string }[] = [];
+  for (let i = 1; i < fields.length; i++)
+    if ((v[fields[i]!] ?? 0) <= (v[fields[i - 1]!] ?? 0))
+      issues.push({ path: fields[i]!, message: `Each ${what} must be above the one before it` });
+  return issues;
+};
 
 const bladeMaterialLabel = (material: string) => (material === 'bimetal' ? 'bi-metal' : material.replace('_', '-'));
 
@@ -158,6 +174,65 @@ export const SITE_SETTINGS: readonly SiteSettingDefinition[] = [
     defaults: { minN: CHECK_DEFAULTS.minHeadForceN, maxN: CHECK_DEFAULTS.maxHeadForceN },
     basis: { kind: 'shipped_default', note: NO_PRINTED_SOURCE },
     issues: atMost('minN', 'maxN', 'force'),
+  },
+  {
+    key: 'break_in',
+    group: 'blades',
+    label: 'Break-in of a new blade',
+    help: 'How a new blade is brought up to normal cutting: the feed it starts at and the two steps up, the band speed meanwhile, and how long each step lasts, in minutes or in area cut. The blade maker’s own break-in takes precedence.',
+    fields: [
+      { name: 'startFeedPercent', label: 'Starting feed, of normal', quantity: 'percent', min: 5, max: 95 },
+      { name: 'secondFeedPercent', label: 'Second step feed, of normal', quantity: 'percent', min: 5, max: 99 },
+      { name: 'thirdFeedPercent', label: 'Third step feed, of normal', quantity: 'percent', min: 5, max: 99 },
+      {
+        name: 'bandSpeedPercent',
+        label: 'Band speed during break-in, of normal',
+        quantity: 'percent',
+        min: 10,
+        max: 100,
+      },
+      { name: 'startMinutes', label: 'Minutes at the starting feed', quantity: 'minutes', min: 1, max: 240 },
+      { name: 'stepMinutes', label: 'Minutes at each step', quantity: 'minutes', min: 1, max: 240 },
+      { name: 'startAreaMm2', label: 'Area cut at the starting feed', quantity: 'area', min: 100, max: 1e7 },
+      { name: 'stepAreaMm2', label: 'Area cut at each step', quantity: 'area', min: 100, max: 1e7 },
+    ],
+    defaults: {
+      startFeedPercent: BREAK_IN_DEFAULTS.initialFeedFraction * 100,
+      secondFeedPercent: BREAK_IN_DEFAULTS.rampFeedFractions[0]! * 100,
+      thirdFeedPercent: BREAK_IN_DEFAULTS.rampFeedFractions[1]! * 100,
+      bandSpeedPercent: BREAK_IN_DEFAULTS.bandSpeedFraction * 100,
+      startMinutes: BREAK_IN_DEFAULTS.initialDurationMin,
+      stepMinutes: BREAK_IN_DEFAULTS.rampStepDurationMin,
+      startAreaMm2: BREAK_IN_DEFAULTS.initialAreaMm2,
+      stepAreaMm2: BREAK_IN_DEFAULTS.rampStepAreaMm2,
+    },
+    basis: {
+      kind: 'shipped_default',
+      note: 'No printed break-in plan applies to every blade; Kerfline ships a common shop plan as your site’s starting point, and the blade maker’s own break-in takes precedence.',
+    },
+    issues: increasing(['startFeedPercent', 'secondFeedPercent', 'thirdFeedPercent'], 'feed step'),
+  },
+  {
+    key: 'teeth_in_work',
+    group: 'blades',
+    label: 'Teeth in the work',
+    help: 'The fewest and most teeth that should be cutting at once, and the range the pitch advice prefers. Below the fewest teeth may strip; above the most the gullets pack with chips. The printed pitch table for solid bars comes first; these guard it and choose for tubes and shapes.',
+    fields: [
+      { name: 'fewestTeeth', label: 'Fewest teeth (below it teeth may strip)', quantity: 'teeth', min: 1, max: 20 },
+      { name: 'preferredFewestTeeth', label: 'Preferred, from', quantity: 'teeth', min: 1, max: 60 },
+      { name: 'preferredMostTeeth', label: 'Preferred, up to', quantity: 'teeth', min: 1, max: 60 },
+      { name: 'mostTeeth', label: 'Most teeth (above it gullets pack)', quantity: 'teeth', min: 2, max: 100 },
+    ],
+    defaults: { fewestTeeth: 3, preferredFewestTeeth: 6, preferredMostTeeth: 12, mostTeeth: 24 },
+    basis: { kind: 'shipped_default', note: NO_PRINTED_SOURCE },
+    issues: (v) => {
+      const order = ['fewestTeeth', 'preferredFewestTeeth', 'preferredMostTeeth', 'mostTeeth'];
+      const issues: { path: string; message: string }[] = [];
+      for (let i = 1; i < order.length; i++)
+        if ((v[order[i]!] ?? 0) < (v[order[i - 1]!] ?? 0))
+          issues.push({ path: order[i]!, message: 'Keep fewest ≤ preferred from ≤ preferred up to ≤ most' });
+      return issues;
+    },
   },
   ...(['carbon', 'bimetal', 'carbide_tipped'] as const).map((material): SiteSettingDefinition => {
     const source = TENSION_RANGE_SOURCES[material];

@@ -12,6 +12,7 @@ import {
   SITE_SETTINGS,
   settingDefinition,
   settingValueSchema,
+  type PlainQuantity,
   type SettingField,
   type SiteSettingDefinition,
 } from './registry.js';
@@ -141,7 +142,7 @@ export function settingValue(settings: readonly SiteSetting[], key: string): Set
  * (`toleranceMm`, `minMPerMin`, `minMPa`, `maxN`, `intervalDays`), with the factor that turns it into the SI
  * unit of its display quantity (mm, m/min, mm², mm²/min, N, Pa). Longest suffix first: `MPa` before `Pa`.
  */
-const STORED_UNITS: { suffix: string; quantity: DisplayQuantityKind | 'days'; toSi: number }[] = [
+const STORED_UNITS: { suffix: string; quantity: DisplayQuantityKind | PlainQuantity; toSi: number }[] = [
   { suffix: 'Mm2PerMin', quantity: 'areaRate', toSi: 1 },
   { suffix: 'MPerMin', quantity: 'bandSpeed', toSi: 1 },
   { suffix: 'Mm2', quantity: 'area', toSi: 1 },
@@ -149,10 +150,13 @@ const STORED_UNITS: { suffix: string; quantity: DisplayQuantityKind | 'days'; to
   { suffix: 'Mm', quantity: 'length', toSi: 1 },
   { suffix: 'Pa', quantity: 'stress', toSi: 1 },
   { suffix: 'Days', quantity: 'days', toSi: 1 },
+  { suffix: 'Minutes', quantity: 'minutes', toSi: 1 },
+  { suffix: 'Percent', quantity: 'percent', toSi: 1 },
+  { suffix: 'Teeth', quantity: 'teeth', toSi: 1 },
   { suffix: 'N', quantity: 'force', toSi: 1 },
 ];
 
-const SAME_DIMENSION: Record<DisplayQuantityKind | 'days', DisplayQuantityKind | 'days'> = {
+const SAME_DIMENSION: Record<DisplayQuantityKind | PlainQuantity, DisplayQuantityKind | PlainQuantity> = {
   length: 'length',
   smallLength: 'length',
   bandSpeed: 'bandSpeed',
@@ -162,6 +166,9 @@ const SAME_DIMENSION: Record<DisplayQuantityKind | 'days', DisplayQuantityKind |
   force: 'force',
   stress: 'stress',
   days: 'days',
+  minutes: 'minutes',
+  percent: 'percent',
+  teeth: 'teeth',
 };
 
 /**

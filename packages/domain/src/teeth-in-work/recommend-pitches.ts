@@ -1,8 +1,8 @@
 /**
  * Pitch advice for a stock shape. Solid sections (round, square and flat bar) take the pitch Machinery's
- * Handbook prints for their length of cut (see `pitch-table.ts`), with the teeth-in-work guards (3 and 24) as
- * checks. Tubes and structural shapes are not covered by that table: they keep a choice by teeth in the work,
- * ranked by how close their teeth come to the trade's 6–12 preference, and the advice says so.
+ * Handbook prints for their length of cut (see `pitch-table.ts`), with the site's teeth-in-work guards (shipped 3
+ * and 24) as checks. Tubes and structural shapes are not covered by that table: they keep a choice by teeth in the
+ * work, ranked by how close their teeth come to the site's preferred range (shipped 6–12), and the advice says so.
  */
 import type { StockShape } from '../stock-area/schema.js';
 import { published, type FigureBasis } from '../figures/basis.js';
@@ -10,7 +10,9 @@ import { engagedLengthMm } from './engaged-length.js';
 import { meanTpi, pitchLabel, STANDARD_PITCHES } from './pitch.js';
 import { PITCH_TABLE_SOURCE, tablePitchForLengthOfCut, type TablePitch } from './pitch-table.js';
 import type { Pitch } from './schema.js';
-import { judgeTeethInWork, TEETH_IN_WORK_RULE, teethInWorkForStock } from './teeth-in-work.js';
+import { judgeTeethInWork, teethInWorkForStock, teethInWorkRule, teethInWorkRuleBasis } from './teeth-in-work.js';
+import type { TeethInWorkRule } from './teeth-in-work.js';
+import type { EffectiveSettings } from '../settings/effective.js';
 import type { TeethFit, TeethWarning } from './teeth-in-work.js';
 
 /**
@@ -31,7 +33,7 @@ export interface PitchCandidate {
   teethMax: number;
   /** Teeth on the length the too-few-teeth warning reads (a round bar's centre line; else the least). */
   teethFewest: number;
-  /** The trade's 6–12 preference met: shown as a preference, never ranked above the printed table. */
+  /** The site's preferred range met (shipped 6–12): shown as a preference, never ranked above the printed table. */
   inPreferredRange: boolean;
   fit: TeethFit;
   warnings: TeethWarning[];
@@ -46,6 +48,8 @@ export interface RecommendPitchesOptions {
   pitches?: readonly Pitch[];
   /** Return at most this many candidates. */
   limit?: number;
+  /** The site's effective settings: its `teeth_in_work` guards and preference; the shipped ones when left out. */
+  settings?: EffectiveSettings;
 }
 
 export interface PitchAdvice {
@@ -55,8 +59,11 @@ export interface PitchAdvice {
   source: PitchSource;
   /** The printed table's pitch for this solid's length of cut; null for tubes and shapes. */
   table: (TablePitch & { lengthOfCutMm: number }) | null;
-  /** Printed source of the recommendation; null when it rests on the teeth-in-work rule alone. */
-  basis: FigureBasis | null;
+  /** Printed source of the recommendation, or the site's teeth-in-work setting when it rests on that alone. */
+  basis: FigureBasis;
+  /** The guards and preference used (the site's `teeth_in_work` setting), and where they come from. */
+  rule: TeethInWorkRule;
+  ruleBasis: FigureBasis;
   /** One sentence for the user: where the recommendation comes from. */
   note: string;
 }
@@ -68,8 +75,8 @@ const SOLIDS: ReadonlySet<StockShape['kind']> = new Set(['round_bar', 'square_ba
  * 24 adds a step so that any pitch within the guards ranks above any pitch outside them; too few teeth adds more
  * than too many, because stripped teeth end a blade while packed gullets only slow the cut.
  */
-function distanceFromPreference(teeth: number): number {
-  const { fewest, most, bestFewest, bestMost } = TEETH_IN_WORK_RULE;
+function distanceFromPreference(teeth: number, rule: TeethInWorkRule): number {
+  const { fewest, most, bestFewest, bestMost } = rule;
   if (teeth < bestFewest) return Math.log(bestFewest / teeth) + (teeth < fewest ? 100 : 0);
   if (teeth > bestMost) return Math.log(teeth / bestMost) + (teeth > most ? 10 : 0);
   return 0;
@@ -84,11 +91,13 @@ const ratioDistance = (a: number, b: number) => Math.abs(Math.log(a / b));
  */
 export function pitchAdvice(shape: StockShape, options: RecommendPitchesOptions = {}): PitchAdvice {
   const pitches = options.pitches ?? STANDARD_PITCHES;
+  const rule = teethInWorkRule(options.settings);
+  const ruleBasis = teethInWorkRuleBasis(options.settings);
   const piecesAcross = options.piecesAcross ?? 1;
   const engaged = engagedLengthMm(shape, piecesAcross);
   const scored = pitches.map((pitch, index) => {
     const teeth = teethInWorkForStock(shape, pitch, piecesAcross);
-    const judged = judgeTeethInWork(teeth);
+    const judged = judgeTeethInWork(teeth, rule);
     const candidate: PitchCandidate = {
       pitch,
       label: pitchLabel(pitch),
@@ -101,7 +110,11 @@ export function pitchAdvice(shape: StockShape, options: RecommendPitchesOptions 
       warnings: judged.warnings,
       recommended: false,
     };
-    return { candidate, index, byRule: distanceFromPreference(teeth.fewest) + distanceFromPreference(teeth.max) };
+    return {
+      candidate,
+      index,
+      byRule: distanceFromPreference(teeth.fewest, rule) + distanceFromPreference(teeth.max, rule),
+    };
   });
   const withinGuards = (c: PitchCandidate) => c.fit !== 'outside_limits';
 
@@ -143,17 +156,17 @@ export function pitchAdvice(shape: StockShape, options: RecommendPitchesOptions 
   } else if (source === 'nearest_to_table' && table) {
     note = `Machinery's Handbook prints ${pitchLabel(table.pitch)} TPI for this length of cut; ${first?.label ?? ''} TPI is the nearest in the list.`;
   } else if (table) {
-    note =
-      'This length of cut is beyond the printed pitch table (1/4 in to 8 in), so the pitch is chosen to keep 3 to 24 teeth in the work.';
+    note = `This length of cut is beyond the printed pitch table (1/4 in to 8 in), so the pitch is chosen to keep ${rule.fewest} to ${rule.most} teeth in the work.`;
   } else {
-    note =
-      'The printed pitch table covers solid sections only; for tubes and shapes the pitch is chosen to keep 3 to 24 teeth in the work, nearest the usual 6 to 12.';
+    note = `The printed pitch table covers solid sections only; for tubes and shapes the pitch is chosen to keep ${rule.fewest} to ${rule.most} teeth in the work, nearest ${rule.bestFewest} to ${rule.bestMost}.`;
   }
   return {
     candidates: limited,
     source,
     table,
-    basis: source === 'teeth_in_work' ? null : published(PITCH_TABLE_SOURCE),
+    basis: source === 'teeth_in_work' ? ruleBasis : published(PITCH_TABLE_SOURCE),
+    rule,
+    ruleBasis,
     note,
   };
 }

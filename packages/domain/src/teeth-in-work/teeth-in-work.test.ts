@@ -8,7 +8,13 @@ import { meanTpi, parsePitchLabel, pitchLabel, STANDARD_PITCHES } from './pitch.
 import { pitchAdvice, recommendPitches } from './recommend-pitches.js';
 import { PRINTED_PITCH_PAIRS, tablePitchForLengthOfCut } from './pitch-table.js';
 import type { Pitch } from './schema.js';
-import { judgeTeethInWork, TEETH_IN_WORK_RULE, teethInWork, teethInWorkForStock } from './teeth-in-work.js';
+import {
+  judgeTeethInWork,
+  TEETH_IN_WORK_RULE,
+  teethInWork,
+  teethInWorkForStock,
+  teethInWorkRule,
+} from './teeth-in-work.js';
 
 const constant = (tpi: number): Pitch => ({ kind: 'constant', tpi });
 const variable = (coarseTpi: number, fineTpi: number): Pitch => ({ kind: 'variable', coarseTpi, fineTpi });
@@ -266,12 +272,34 @@ describe('pitch for solids from the printed table', () => {
   it('beyond the table the guards choose (fewer than 3 / more than 24 teeth: common practice, no source)', () => {
     const thin = pitchAdvice({ kind: 'flat_bar', widthMm: inToMm(0.2), heightMm: 20 });
     expect(thin.source).toBe('teeth_in_work');
-    expect(thin.basis).toBeNull();
+    expect(thin.basis).toMatchObject({ kind: 'site_setting', settingKey: 'teeth_in_work', changedAt: null });
     expect(thin.candidates[0]!.teethFewest).toBeGreaterThanOrEqual(3);
     expect(thin.note).toContain('beyond the printed pitch table');
     const big = pitchAdvice({ kind: 'round_bar', diameterMm: inToMm(14) });
     expect(big.source).toBe('teeth_in_work');
     expect(big.candidates[0]!.teethMax).toBeLessThanOrEqual(24);
+  });
+
+  it('reads the guards from the site’s teeth_in_work setting, and says whose they are', () => {
+    // 4 in round bar: 1 TPI puts 4 teeth at the centre line. With the shipped fewest 3 it passes; a site that
+    // wants at least 5 gets a too-few warning and a finer pitch chosen beyond the table.
+    const settings = {
+      teeth_in_work: {
+        key: 'teeth_in_work',
+        values: { fewestTeeth: 5, preferredFewestTeeth: 8, preferredMostTeeth: 14, mostTeeth: 30 },
+        changedByName: 'Ines Carvalho',
+        changedAt: '2026-10-01T08:00:00.000Z',
+      },
+    };
+    const range = { min: 4, max: 4 };
+    expect(judgeTeethInWork(range).warnings).toEqual([]);
+    const own = teethInWorkRule(settings);
+    expect(own).toEqual({ fewest: 5, most: 30, bestFewest: 8, bestMost: 14 });
+    expect(judgeTeethInWork(range, own).warnings[0]?.message).toContain('(fewer than 5)');
+    const big = pitchAdvice({ kind: 'round_bar', diameterMm: inToMm(14) }, { settings });
+    expect(big.rule).toEqual(own);
+    expect(big.basis).toMatchObject({ kind: 'site_setting', changedByName: 'Ines Carvalho' });
+    expect(big.note).toContain('5 to 30 teeth');
   });
 
   it('takes the nearest pitch of a site list that lacks the printed one', () => {

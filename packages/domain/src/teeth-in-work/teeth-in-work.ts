@@ -9,13 +9,40 @@ import type { StockShape } from '../stock-area/schema.js';
 import { engagedLengthMm } from './engaged-length.js';
 import { meanTpi } from './pitch.js';
 import type { Pitch } from './schema.js';
+import type { FigureBasis } from '../figures/basis.js';
+import { effectiveSetting, settingBasis, settingValue, type EffectiveSettings } from '../settings/effective.js';
+
+/** The guards and preference on teeth in the work that pitch advice and cut-log warnings read. */
+export interface TeethInWorkRule {
+  fewest: number;
+  most: number;
+  bestFewest: number;
+  bestMost: number;
+}
 
 /**
- * Guards on teeth in the work: fewer than 3 and teeth strip, more than 24 and the gullets overload (common
- * practice, no source; the printed pitch table itself runs from 3.0 teeth at its smallest length of cut to 20 at
- * its largest). 6 to 12 is the trade's preference, shown as such; it never overrides the printed pitch table.
+ * A site's guards on teeth in the work, from its `teeth_in_work` setting: fewer than `fewest` and teeth strip,
+ * more than `most` and the gullets overload; `bestFewest`–`bestMost` is the range pitch advice prefers. Shipped
+ * 3, 24 and 6–12 (common practice, no source; the printed pitch table itself runs from 3.0 teeth at its smallest
+ * length of cut to 20 at its largest). The preference never overrides the printed pitch table.
  */
-export const TEETH_IN_WORK_RULE = { fewest: 3, most: 24, bestFewest: 6, bestMost: 12 } as const;
+export function teethInWorkRule(settings?: EffectiveSettings): TeethInWorkRule {
+  const setting = effectiveSetting(settings, 'teeth_in_work');
+  return {
+    fewest: settingValue(setting, 'fewestTeeth'),
+    most: settingValue(setting, 'mostTeeth'),
+    bestFewest: settingValue(setting, 'preferredFewestTeeth'),
+    bestMost: settingValue(setting, 'preferredMostTeeth'),
+  };
+}
+
+/** Where a site's teeth-in-work guards come from: Kerfline's starting value, or the site's own. */
+export function teethInWorkRuleBasis(settings?: EffectiveSettings): FigureBasis {
+  return settingBasis(effectiveSetting(settings, 'teeth_in_work'));
+}
+
+/** The shipped guards (3, 24, and 6–12 preferred): what a site that never changed them uses. */
+export const TEETH_IN_WORK_RULE: Readonly<TeethInWorkRule> = Object.freeze(teethInWorkRule());
 
 /**
  * Teeth cutting at once over a length of metal: mean TPI × length in inches. Linear in both.
@@ -74,14 +101,18 @@ const oneDecimal = (teeth: number) => (Math.round(teeth * 10) / 10).toFixed(1);
 const EPSILON = 1e-9;
 
 /**
- * Judges teeth in the work against `TEETH_IN_WORK_RULE`: a fit label and plain-word warnings. The too-few check
- * reads `fewest` when given (a round bar's centre line, as published pitch tables read its diameter), else `min`.
+ * Judges teeth in the work against a site's rule (the shipped one unless given): a fit label and plain-word
+ * warnings. The too-few check reads `fewest` when given (a round bar's centre line, as published pitch tables read
+ * its diameter), else `min`.
  */
-export function judgeTeethInWork(range: { min: number; max: number; fewest?: number }): {
+export function judgeTeethInWork(
+  range: { min: number; max: number; fewest?: number },
+  rule: TeethInWorkRule = TEETH_IN_WORK_RULE,
+): {
   fit: TeethFit;
   warnings: TeethWarning[];
 } {
-  const { fewest, most, bestFewest, bestMost } = TEETH_IN_WORK_RULE;
+  const { fewest, most, bestFewest, bestMost } = rule;
   const warnings: TeethWarning[] = [];
   const low = range.fewest ?? range.min;
   if (low < fewest - EPSILON) {

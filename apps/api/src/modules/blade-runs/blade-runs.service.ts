@@ -40,6 +40,7 @@ import {
   siteTimeZone,
 } from '../records/record-support.js';
 import { breakInAdvice, diagnose, type DiagnosisCutLog } from '../records/trade.js';
+import { checksEvidence } from '../site-checks/recent-checks.js';
 import { BladeRun } from './blade-run.model.js';
 
 /** Names of the saw and the spec, and the photo count, read in the same query as the runs. */
@@ -469,7 +470,7 @@ async function runCutLogs(runId: string): Promise<DiagnosisCutLog[]> {
 
 /**
  * The ranked likely causes of a run's failure, from the domain's diagnosis fed with this saw's cut logs during
- * the run and the run's break-in record (and, once recorded, the saw's latest checks).
+ * the run, the run's break-in record and the saw's latest checks up to the removal (or now, while it is on).
  */
 export async function getLikelyCauses(ability: AppAbility, id: string, q: LikelyCausesQuery): Promise<RunDiagnosis> {
   const run = await findReadableRun(ability, id);
@@ -478,13 +479,21 @@ export async function getLikelyCauses(ability: AppAbility, id: string, q: Likely
     throw AppError.validation('Choose a failure reason: this blade is still on the saw', [
       { path: 'reason', message: 'choose a reason to see its likely causes' },
     ]);
-  const cutLogs = await runCutLogs(run.id);
-  const diagnosis = diagnose(mode, { cutLogs, breakInFollowed: run.breakInFollowed });
+  const [cutLogs, checks, settings] = await Promise.all([
+    runCutLogs(run.id),
+    checksEvidence(run.sawId, run, run.removedAt ?? new Date()),
+    siteEffectiveSettings(run.siteId),
+  ]);
+  const diagnosis = diagnose(mode, { cutLogs, breakInFollowed: run.breakInFollowed, checks, settings });
   return {
     ...diagnosis,
     runId: run.id,
     confirmedCause: run.confirmedCause,
-    evidenceUsed: { cutLogs: cutLogs.length, checks: 0, breakInFollowed: run.breakInFollowed },
+    evidenceUsed: {
+      cutLogs: cutLogs.length,
+      checks: checks.filter((c) => c.passed !== null || c.overdue).length,
+      breakInFollowed: run.breakInFollowed,
+    },
   };
 }
 

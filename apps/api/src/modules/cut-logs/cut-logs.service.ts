@@ -11,7 +11,7 @@ import { writeAudit, type Actor } from '../../audit/write-audit.js';
 import { inTransaction } from '../../db/models.js';
 import { Site } from '../sites/site.model.js';
 import { pitchOf } from '../blade-specs/blade-spec-dto.js';
-import { auditCopy, orderOf, sawForWrite, select } from '../records/record-support.js';
+import { auditCopy, orderOf, sawForWrite, select, siteEffectiveSettings } from '../records/record-support.js';
 import { cutLogFigures } from '../records/trade.js';
 import { CutLog } from './cut-log.model.js';
 
@@ -94,6 +94,7 @@ export async function createCutLog({ ability, userId }: Actor, input: CutLogCrea
     bladeMaterial: run?.material ?? null,
     saw,
     unitSystem: (site?.unitSystem ?? 'metric') as UnitSystem,
+    settings: await siteEffectiveSettings(saw.siteId),
   });
   const log = await inTransaction(async (transaction) => {
     const created = await CutLog.create(

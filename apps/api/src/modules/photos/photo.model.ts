@@ -12,7 +12,9 @@ import type { PhotoType } from '@kerfline/domain/photos/schema';
 export class Photo extends Model<InferAttributes<Photo>, InferCreationAttributes<Photo>> {
   declare id: CreationOptional<string>;
   declare siteId: string;
+  /** The photo's one parent: a blade run or a recorded check. */
   declare bladeRunId: string | null;
+  declare checkRecordId: CreationOptional<string | null>;
   declare contentType: PhotoType;
   declare byteSize: number;
   declare widthPx: number;
@@ -27,6 +29,7 @@ export class Photo extends Model<InferAttributes<Photo>, InferCreationAttributes
         id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
         siteId: { type: DataTypes.UUID, allowNull: false },
         bladeRunId: { type: DataTypes.UUID, allowNull: true },
+        checkRecordId: { type: DataTypes.UUID, allowNull: true },
         contentType: { type: DataTypes.TEXT, allowNull: false },
         byteSize: { type: DataTypes.INTEGER, allowNull: false },
         widthPx: { type: DataTypes.INTEGER, allowNull: false, field: 'width_px' },

@@ -7,7 +7,15 @@ import { abilityOf, actorOf } from '../../http/authenticate.js';
 import { parsed, validate } from '../../http/validate.js';
 import { AppError } from '../../errors.js';
 import type { PhotoStorage } from './photo-storage.js';
-import { addRunPhoto, deletePhoto, getPhoto, listRunPhotos, photoBytes } from './photos.service.js';
+import {
+  addCheckPhoto,
+  addRunPhoto,
+  deletePhoto,
+  getPhoto,
+  listCheckPhotos,
+  listRunPhotos,
+  photoBytes,
+} from './photos.service.js';
 
 const params = z.object({ id: idSchema });
 
@@ -54,6 +62,20 @@ export function photosRouter(storage: PhotoStorage): Router {
   );
   router.get('/blade-runs/:id/photos', validate('params', params), async (_req, res) => {
     res.json(await listRunPhotos(abilityOf(res), parsed(res, 'params', params).id));
+  });
+  router.post(
+    '/check-records/:id/photos',
+    validate('params', params),
+    uploadOnePhoto(),
+    validate('body', photoUploadFieldsSchema),
+    async (req, res) => {
+      const { id } = parsed(res, 'params', params);
+      const fields = parsed(res, 'body', photoUploadFieldsSchema);
+      res.status(201).json(await addCheckPhoto(storage, actorOf(res), id, req.file, fields));
+    },
+  );
+  router.get('/check-records/:id/photos', validate('params', params), async (_req, res) => {
+    res.json(await listCheckPhotos(abilityOf(res), parsed(res, 'params', params).id));
   });
   router.get('/photos/:id', validate('params', params), async (_req, res) => {
     res.json(await getPhoto(abilityOf(res), parsed(res, 'params', params).id));

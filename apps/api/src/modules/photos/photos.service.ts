@@ -14,6 +14,7 @@ import { AppError } from '../../errors.js';
 import { writeAudit, type Actor } from '../../audit/write-audit.js';
 import { inTransaction } from '../../db/models.js';
 import { BladeRun } from '../blade-runs/blade-run.model.js';
+import { CheckRecord } from '../site-checks/check-record.model.js';
 import { auditCopy, sawForWrite } from '../records/record-support.js';
 import { Photo } from './photo.model.js';
 import type { PhotoStorage, PhotoVariant } from './photo-storage.js';
@@ -26,6 +27,7 @@ function toDto(photo: Photo): PhotoDto {
     id: photo.id,
     siteId: photo.siteId,
     bladeRunId: photo.bladeRunId,
+    checkRecordId: photo.checkRecordId ?? null,
     contentType: photo.contentType,
     byteSize: photo.byteSize,
     widthPx: photo.widthPx,
@@ -38,11 +40,22 @@ function toDto(photo: Photo): PhotoDto {
   };
 }
 
-async function readableRun(ability: AppAbility, runId: string): Promise<BladeRun> {
-  const run = await BladeRun.findOne({ where: scopedWhere(ability, 'read', 'BladeRun', BladeRun, { id: runId }) });
-  if (!run) throw AppError.notFound('Blade run');
-  return run;
+/** A photo's one parent: a blade run or a recorded check, with its site and saw. */
+type Parent = { kind: 'run' | 'check'; id: string; siteId: string; sawId: string };
+
+async function readableParent(ability: AppAbility, kind: Parent['kind'], id: string): Promise<Parent> {
+  const row =
+    kind === 'run'
+      ? await BladeRun.findOne({ where: scopedWhere(ability, 'read', 'BladeRun', BladeRun, { id }) })
+      : await CheckRecord.findOne({ where: scopedWhere(ability, 'read', 'CheckRecord', CheckRecord, { id }) });
+  if (!row) throw AppError.notFound(kind === 'run' ? 'Blade run' : 'Check record');
+  return { kind, id: row.id, siteId: row.siteId, sawId: row.sawId };
 }
+
+const parentColumn = (parent: Parent) =>
+  parent.kind === 'run'
+    ? { bladeRunId: parent.id, checkRecordId: null }
+    : { bladeRunId: null, checkRecordId: parent.id };
 
 /**
  * The type of an upload, from its content (magic bytes), never from its name or the type the browser claims.
@@ -78,19 +91,21 @@ async function imageFacts(bytes: Buffer) {
   }
 }
 
-/** Attaches a photo to a blade run: checked, thumbnailed, and stored with its bytes in one transaction. */
-export async function addRunPhoto(
+/**
+ * Attaches a photo to a blade run or a recorded check: checked by content, thumbnailed, and stored with its bytes
+ * in one transaction. Only people who may add photos at the parent's site may; 404 for a parent they cannot read.
+ */
+async function addPhoto(
   storage: PhotoStorage,
   { ability, userId }: Actor,
-  runId: string,
+  parent: Parent,
   file: { buffer: Buffer } | undefined,
   fields: PhotoUploadFields,
 ): Promise<PhotoDto> {
-  const run = await readableRun(ability, runId);
   ForbiddenError.from(ability)
     .setMessage('You cannot add photos at this site')
-    .throwUnlessCan('create', subject('Photo', { id: '', siteId: run.siteId }));
-  await sawForWrite(ability, run.sawId, 'create', 'Photo');
+    .throwUnlessCan('create', subject('Photo', { id: '', siteId: parent.siteId }));
+  await sawForWrite(ability, parent.sawId, 'create', 'Photo');
   if (!file || file.buffer.length === 0)
     throw AppError.validation('Attach a photo in the form field "photo"', [{ path: 'photo', message: 'is required' }]);
   const contentType = await photoType(file.buffer);
@@ -98,8 +113,8 @@ export async function addRunPhoto(
   const photo = await inTransaction(async (transaction) => {
     const created = await Photo.create(
       {
-        siteId: run.siteId,
-        bladeRunId: run.id,
+        siteId: parent.siteId,
+        ...parentColumn(parent),
         contentType,
         byteSize: file.buffer.length,
         widthPx: facts.widthPx,
@@ -122,10 +137,29 @@ export async function addRunPhoto(
   return toDto(photo);
 }
 
-export async function listRunPhotos(ability: AppAbility, runId: string): Promise<PhotoDto[]> {
-  const run = await readableRun(ability, runId);
+export async function addRunPhoto(
+  storage: PhotoStorage,
+  actor: Actor,
+  runId: string,
+  file: { buffer: Buffer } | undefined,
+  fields: PhotoUploadFields,
+): Promise<PhotoDto> {
+  return addPhoto(storage, actor, await readableParent(actor.ability, 'run', runId), file, fields);
+}
+
+export async function addCheckPhoto(
+  storage: PhotoStorage,
+  actor: Actor,
+  recordId: string,
+  file: { buffer: Buffer } | undefined,
+  fields: PhotoUploadFields,
+): Promise<PhotoDto> {
+  return addPhoto(storage, actor, await readableParent(actor.ability, 'check', recordId), file, fields);
+}
+
+async function listPhotos(ability: AppAbility, parent: Parent): Promise<PhotoDto[]> {
   const photos = await Photo.findAll({
-    where: scopedWhere(ability, 'read', 'Photo', Photo, { bladeRunId: run.id }),
+    where: scopedWhere(ability, 'read', 'Photo', Photo, parentColumn(parent)),
     order: [
       ['createdAt', 'ASC'],
       ['id', 'ASC'],
@@ -133,6 +167,14 @@ export async function listRunPhotos(ability: AppAbility, runId: string): Promise
     limit: 200,
   });
   return photos.map(toDto);
+}
+
+export async function listRunPhotos(ability: AppAbility, runId: string): Promise<PhotoDto[]> {
+  return listPhotos(ability, await readableParent(ability, 'run', runId));
+}
+
+export async function listCheckPhotos(ability: AppAbility, recordId: string): Promise<PhotoDto[]> {
+  return listPhotos(ability, await readableParent(ability, 'check', recordId));
 }
 
 async function readablePhoto(ability: AppAbility, id: string): Promise<Photo> {

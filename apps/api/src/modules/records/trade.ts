@@ -1,9 +1,10 @@
 /**
  * The one place where the records' services call the trade's computations in packages/domain: break-in plan,
  * likely causes, cut area, teeth in the work and band speed. Keeping the calls together means a change of a
- * domain function's signature touches this file only.
+ * domain function's signature touches this file only. Each takes the site's effective settings, so its figures
+ * are the site's own and say so.
  */
-import { planBreakIn } from '@kerfline/domain/break-in/break-in-plan';
+import { planBreakInForSite } from '@kerfline/domain/break-in/break-in-plan';
 import { rankLikelyCauses, type Diagnosis } from '@kerfline/domain/diagnosis/likely-causes';
 import type { DiagnosisEvidenceInput, FailureMode } from '@kerfline/domain/diagnosis/schema';
 import { bundleCutAreaMm2 } from '@kerfline/domain/stock-area/cut-area';
@@ -11,8 +12,10 @@ import type { StockShape } from '@kerfline/domain/stock-area/schema';
 import {
   judgeTeethInWork,
   teethInWorkForStock,
-  TEETH_IN_WORK_RULE,
+  teethInWorkRule,
+  type TeethInWorkRule,
 } from '@kerfline/domain/teeth-in-work/teeth-in-work';
+import type { EffectiveSettings } from '@kerfline/domain/settings/effective';
 import type { Pitch } from '@kerfline/domain/teeth-in-work/schema';
 import { engagedLengthMm } from '@kerfline/domain/teeth-in-work/engaged-length';
 import type { BladeMaterial } from '@kerfline/domain/checks/schema';
@@ -20,7 +23,6 @@ import { checkBandSpeed } from '@kerfline/domain/band-speed/check-band-speed';
 import { recommendedBandSpeed } from '@kerfline/domain/band-speed/speed-ranges';
 import type { MaterialGroup } from '@kerfline/domain/band-speed/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
-import type { EffectiveSettings } from '@kerfline/domain/settings/effective';
 import type { BreakInAdvice } from '@kerfline/domain/blade-runs/schema';
 import type { RecordWarning } from '@kerfline/domain/records/schema';
 
@@ -76,9 +78,9 @@ export function specFitWarnings(saw: SawBand, spec: SpecBand): RecordWarning[] {
 }
 
 /**
- * The break-in plan for a saw, band and material: Kerfline's default steps, the material's band speeds for this
- * blade (the domain's range, corrected for a carbon blade), and step areas from this saw's usual cutting rate for
- * the material when its cut logs give one.
+ * The break-in plan for a saw, band and material: the site's break-in steps (its `break_in` setting), the
+ * material's band speeds for this blade (the site's range, corrected for a carbon blade), and step areas from
+ * this saw's usual cutting rate for the material when its cut logs give one.
  */
 export function breakInAdvice(
   saw: SawBand,
@@ -102,10 +104,10 @@ export function breakInAdvice(
     sawId: saw.id,
     bladeSpecId: spec.id,
     materialGroup,
-    plan: planBreakIn(
-      { mode: 'time' },
+    plan: planBreakInForSite(
+      'time',
       rate,
-      materialGroup ? { materialGroup, bladeMaterial, system, settings } : { system },
+      materialGroup ? { materialGroup, bladeMaterial, system, settings } : { system, settings },
     ),
     normalCuttingRateMm2PerMin: rate,
     cuttingRateBasis:
@@ -130,6 +132,8 @@ export function cutLogFigures(input: {
   bladeMaterial?: BladeMaterial | null;
   saw: SawBand;
   unitSystem: UnitSystem;
+  /** The site's settings: its teeth-in-work guards and band speed ranges. */
+  settings?: EffectiveSettings;
 }): {
   areaPerCutMm2: number;
   areaCutMm2: number;
@@ -145,7 +149,7 @@ export function cutLogFigures(input: {
     const range = teethInWorkForStock(input.shape, input.pitch, input.piecesAcross);
     teethInWorkMin = range.min;
     teethInWorkMax = range.max;
-    warnings.push(...judgeTeethInWork(range).warnings);
+    warnings.push(...judgeTeethInWork(range, teethInWorkRule(input.settings)).warnings);
   } else {
     warnings.push({
       code: 'no_blade_recorded',
@@ -162,6 +166,7 @@ export function cutLogFigures(input: {
         system: input.unitSystem,
         bladeMaterial: speedBlade(input.bladeMaterial),
         lengthOfCutMm: engagedLengthMm(input.shape, input.piecesAcross).maxMm,
+        settings: input.settings,
       },
     );
     if (check.position !== 'within')
@@ -173,13 +178,17 @@ export function cutLogFigures(input: {
 
 /**
  * The cut log's teeth in the work as the diagnosis reads it (one figure per log): the least when it is below
- * the trade's fewest (teeth may strip), else the greatest when it is above the most (gullets pack), else the
+ * the site's fewest (teeth may strip), else the greatest when it is above the most (gullets pack), else the
  * least. So each log counts once, on the side where it breaks the rule.
  */
-export function teethForDiagnosis(min: number | null, max: number | null): number | null {
+export function teethForDiagnosis(
+  min: number | null,
+  max: number | null,
+  rule: TeethInWorkRule = teethInWorkRule(),
+): number | null {
   if (min === null || max === null) return null;
-  if (min < TEETH_IN_WORK_RULE.fewest) return min;
-  if (max > TEETH_IN_WORK_RULE.most) return max;
+  if (min < rule.fewest) return min;
+  if (max > rule.most) return max;
   return min;
 }
 
@@ -192,24 +201,28 @@ export type DiagnosisCutLog = {
 
 /**
  * Ranked likely causes for a failure mode, fed with the saw's cut logs during the run, the run's break-in
- * record and (once checks are recorded) the saw's latest checks.
+ * record and the saw's latest checks (their verdicts, and whether each was overdue), read against the site's
+ * teeth-in-work guards and band speed ranges.
  */
 export function diagnose(
   mode: FailureMode,
   evidence: {
     cutLogs: DiagnosisCutLog[];
     breakInFollowed: boolean | null;
-    /** The saw's latest check of each kind; none until maintenance checks are recorded. */
+    /** The saw's latest check of each rule kind: its verdict and whether it was overdue. */
     checks?: DiagnosisEvidenceInput['checks'];
+    settings?: EffectiveSettings;
   },
 ): Diagnosis {
+  const rule = teethInWorkRule(evidence.settings);
   return rankLikelyCauses(mode, {
     checks: evidence.checks ?? [],
     cutLogs: evidence.cutLogs.map((l) => ({
-      teethInWork: teethForDiagnosis(l.teethInWorkMin, l.teethInWorkMax),
+      teethInWork: teethForDiagnosis(l.teethInWorkMin, l.teethInWorkMax, rule),
       bandSpeedMPerMin: l.bandSpeedMPerMin,
-      recommendedMaxMPerMin: recommendedBandSpeed(l.materialGroup).maxMPerMin,
+      recommendedMaxMPerMin: recommendedBandSpeed(l.materialGroup, { settings: evidence.settings }).maxMPerMin,
     })),
     breakInDone: evidence.breakInFollowed,
+    teethInWorkRange: { min: rule.fewest, max: rule.most },
   });
 }

@@ -9,6 +9,7 @@ import { writeAudit, type Actor } from '../../audit/write-audit.js';
 import { inTransaction } from '../../db/models.js';
 import { Site } from './site.model.js';
 import { Region } from '../regions/region.model.js';
+import { seedSiteChecks } from '../site-checks/seed-site-checks.js';
 
 // Saws that are not retired, counted in the same query as the site rows.
 const activeSawCount = [
@@ -81,6 +82,8 @@ export async function createSite({ ability, userId }: Actor, input: SiteCreate):
   await assertRegionExists(input.regionId);
   const site = await inTransaction(async (transaction) => {
     const created = await Site.create(input, { transaction });
+    // A new site starts with the shipped list of checks, which its admin then makes its own.
+    await seedSiteChecks(created.id, transaction);
     await writeAudit(transaction, userId, [
       { siteId: created.id, entity: 'Site', entityId: created.id, action: 'create', after: auditValues(created) },
     ]);

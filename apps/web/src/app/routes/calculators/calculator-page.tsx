@@ -1,4 +1,4 @@
-import { useQuery, type QueryClient } from '@tanstack/react-query';
+import { useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { Link, useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { sawListQuery } from '../../../features/saws/api/queries';
 import { sawListQueryFromSearch } from '../../../features/saws/api/list-search';
@@ -11,7 +11,14 @@ import { TeethInWorkCalculator } from '../../../features/calculators/components/
 import { isCalculatorSlug, type CalculatorSlug } from '../../../features/calculators/components/catalogue';
 import { sawStartTexts, startTextsFromSearch } from '../../../features/calculators/components/saw-links';
 import { useCalculatorsContext } from './calculators-page';
-import { calculatorSaw, loadCalculatorSite, useCalculatorSite, type CalculatorSite } from './calculator-site';
+import {
+  calculatorSaw,
+  loadCalculatorSite,
+  sawIdFromSearch,
+  sawMaterialStart,
+  useCalculatorSite,
+  type CalculatorSite,
+} from './calculator-site';
 
 /** The calculators that can take figures from one of the user's saws. */
 const USES_SAWS: readonly CalculatorSlug[] = ['band-speed', 'check-targets'];
@@ -76,13 +83,18 @@ export function CalculatorPage() {
   const saw = site.saw ? calculatorSaw(site.saw) : undefined;
   // The figures the calculator opens with: the saw's, then any the address gives. A new address (another saw)
   // starts the calculator afresh.
-  const start = { ...(saw ? sawStartTexts(saw, system) : {}), ...startTextsFromSearch(search) };
+  const queryClient = useQueryClient();
+  const start = {
+    ...(saw ? sawStartTexts(saw, system) : {}),
+    ...sawMaterialStart(queryClient, sawIdFromSearch(search)),
+    ...startTextsFromSearch(search),
+  };
   const key = `${slug}:${search.get('sawId') ?? ''}`;
 
   let calculator;
   switch (slug) {
     case 'teeth-in-work':
-      calculator = <TeethInWorkCalculator system={system} />;
+      calculator = <TeethInWorkCalculator system={system} settings={site.settings} timeZone={site.site?.timeZone} />;
       break;
     case 'band-length':
       calculator = <BandLengthCalculator system={system} />;
@@ -104,7 +116,15 @@ export function CalculatorPage() {
       calculator = <StockAreaCalculator system={system} />;
       break;
     case 'break-in':
-      calculator = <BreakInCalculator key={key} system={system} start={start} />;
+      calculator = (
+        <BreakInCalculator
+          key={key}
+          system={system}
+          start={start}
+          settings={site.settings}
+          timeZone={site.site?.timeZone}
+        />
+      );
       break;
     case 'check-targets':
       calculator = (

@@ -1,4 +1,7 @@
-import { useQuery, type QueryClient } from '@tanstack/react-query';
+import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
+import { pageOf } from '@kerfline/domain/common/schema';
+import { bladeRunSchema } from '@kerfline/domain/blade-runs/schema';
+import { api } from '../../../lib/api-client';
 import { idSchema } from '@kerfline/domain/common/schema';
 import type { Saw } from '@kerfline/domain/saws/schema';
 import type { Site } from '@kerfline/domain/sites/schema';
@@ -30,6 +33,25 @@ export function calculatorSaw(saw: Saw): CalculatorSaw {
 }
 
 /**
+ * The blade on a saw now (its open run), for the material it was put on to cut: a calculator opened from the saw
+ * starts from it. Keyed under the blade runs' list, which the records' screens refresh when a blade goes on or off.
+ */
+export function bladeOnQuery(sawId: string) {
+  const q = { sawId, open: 'true', limit: 1 };
+  return queryOptions({
+    queryKey: ['blade-runs', 'list', q],
+    queryFn: ({ signal }) => api.get('/blade-runs', pageOf(bladeRunSchema), { query: q, signal }),
+  });
+}
+
+/** The material the blade on the saw is cutting, as a calculator's starting text (`material=`). */
+export function sawMaterialStart(queryClient: QueryClient, sawId: string | null): Record<string, string> {
+  if (!sawId) return {};
+  const run = queryClient.getQueryData(bladeOnQuery(sawId).queryKey)?.items[0];
+  return run?.materialGroup ? { material: run.materialGroup } : {};
+}
+
+/**
  * Loads what decides the calculators' site: the saw named in the address (its site's settings and units), else
  * the user's only site. Failures are swallowed: the calculators work without a site, on shipped values.
  */
@@ -37,8 +59,10 @@ export async function loadCalculatorSite(queryClient: QueryClient, search: URLSe
   try {
     const sawId = sawIdFromSearch(search);
     let siteId: string | undefined;
-    if (sawId) siteId = (await queryClient.ensureQueryData(sawDetailQuery(sawId))).siteId;
-    else {
+    if (sawId) {
+      siteId = (await queryClient.ensureQueryData(sawDetailQuery(sawId))).siteId;
+      await queryClient.ensureQueryData(bladeOnQuery(sawId)).catch(() => undefined);
+    } else {
       const [only, ...others] = (await queryClient.ensureQueryData(meQuery())).siteIds;
       siteId = only !== undefined && others.length === 0 ? only : undefined;
     }

@@ -29,6 +29,8 @@ import { bladeRunListQuerySchema } from '@kerfline/domain/blade-runs/schema';
 import { stopListQuerySchema } from '@kerfline/domain/stops/schema';
 import { refreshAfterSawRecord, returnNoticeOf } from '../records/refresh';
 import { SawActionButtons, sawActionsFor } from './saw-actions';
+import { sawChecksQuery } from '../../../features/checks/api/queries';
+import { DueChecksLine, DueChecksPanel, sawDueItems } from '../../../features/checks/components/due-checks-panel';
 
 /** The saw's latest stop: when it ended says since when the saw has been running. */
 export const latestStopOf = (sawId: string) => stopListQuery(parseListQuery(stopListQuerySchema, { sawId, limit: 1 }));
@@ -43,6 +45,7 @@ export function sawPageLoader(queryClient: QueryClient) {
       queryClient.ensureQueryData(siteDetailQuery(saw.siteId)),
       // The settings only say whose the guide opening is; the page shows shipped values without them.
       queryClient.ensureQueryData(siteSettingsQuery(saw.siteId)).catch(() => undefined),
+      queryClient.ensureQueryData(sawChecksQuery(saw.id)).catch(() => undefined),
     ]);
     return null;
   };
@@ -70,7 +73,11 @@ export function SawPage() {
   const lastStopEndedAt = latestStop.isSuccess
     ? (latestStop.data.items[0]?.endedAt ?? (latestStop.data.items.length === 0 ? null : undefined))
     : undefined;
-  const actions = sawActionsFor(saw, ability);
+  const checks = useQuery({ ...sawChecksQuery(saw.id), enabled: saw.status !== 'retired' });
+  const dueItems = checks.data ? sawDueItems(checks.data, saw) : [];
+  const actions = sawActionsFor(saw, ability, { overdue: dueItems.filter((i) => i.state === 'overdue').length });
+  const canRecord =
+    saw.status !== 'retired' && ability.can('create', subject('CheckRecord', { id: '', siteId: saw.siteId }));
   const canAnswerBreakIn =
     bladeRun.data !== undefined &&
     ability.can('update', subject('BladeRun', { id: bladeRun.data.id, siteId: saw.siteId }));
@@ -182,7 +189,7 @@ export function SawPage() {
         lastStopEndedAt={lastStopEndedAt}
         slot={
           <>
-            {/* Checks due at this saw go here (the checks feature composes its panel into this slot). */}
+            {checks.data ? <DueChecksLine items={dueItems} /> : null}
             {canAnswerBreakIn && bladeRun.data ? (
               <BreakInAnswer run={bladeRun.data} onSaved={() => void refreshAfterSawRecord(queryClient, saw)} />
             ) : null}
@@ -190,6 +197,19 @@ export function SawPage() {
         }
         actions={actions.length > 0 ? <SawActionButtons actions={actions} /> : undefined}
       />
+
+      {dueItems.length > 0 ? (
+        <DueChecksPanel
+          items={dueItems}
+          timeZone={site.timeZone}
+          canRecord={canRecord}
+          footer={
+            <Link to={`/sites/${site.id}/checks`} className="font-semibold underline underline-offset-4">
+              The site’s list of checks
+            </Link>
+          }
+        />
+      ) : null}
 
       <div className="grid gap-6 lg:grid-cols-[3fr_2fr]">
         <SawTimeline sawId={saw.id} system={site.unitSystem} timeZone={site.timeZone} />

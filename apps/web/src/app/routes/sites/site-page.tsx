@@ -3,6 +3,7 @@ import { useParams, useSearchParams, type LoaderFunctionArgs } from 'react-route
 import { siteDetailQuery } from '../../../features/sites/api/queries';
 import { SiteHeader } from '../../../features/sites/components/site-header';
 import { regionListQuery } from '../../../features/regions/api/queries';
+import { checkCountsQuery } from '../../../features/checks/api/queries';
 import { sawListQuery } from '../../../features/saws/api/queries';
 import { sawFilterValuesFromSearch, sawListQueryFromSearch } from '../../../features/saws/api/list-search';
 import { SawFilters } from '../../../features/saws/components/saw-filters';
@@ -22,6 +23,7 @@ export function sitePageLoader(queryClient: QueryClient) {
       queryClient.ensureQueryData(siteDetailQuery(siteId)),
       queryClient.ensureQueryData(sawListQuery(sawListQueryFromSearch(search, siteId))),
       queryClient.ensureQueryData(regionListQuery()).catch(() => undefined),
+      queryClient.ensureQueryData(checkCountsQuery(siteId)).catch(() => undefined),
     ]);
     return null;
   };
@@ -35,6 +37,8 @@ export function SitePage() {
   const { data: site } = useSuspenseQuery(siteDetailQuery(siteId));
   const { data: saws } = useSuspenseQuery(sawListQuery(q));
   const { data: regions } = useQuery(regionListQuery());
+  const { data: counts } = useQuery(checkCountsQuery(siteId));
+  const overdue = counts?.items[0]?.overdue ?? 0;
   const filters = sawFilterValuesFromSearch(search);
   const ability = useAppAbility();
   const filtered = filters.status !== '' || filters.kind !== '' || filters.q !== '';
@@ -47,6 +51,11 @@ export function SitePage() {
         regionName={regions?.items.find((region) => region.id === site.regionId)?.name}
         actions={
           <>
+            {overdue > 0 ? (
+              <LinkButton to={`/sites/${site.id}/checks/overdue`} variant="primary">
+                {overdue} {overdue === 1 ? 'check' : 'checks'} overdue
+              </LinkButton>
+            ) : null}
             <LinkButton to={`/sites/${site.id}/settings`}>Site settings</LinkButton>
             {ability.can('update', subject('Site', { id: site.id, regionId: site.regionId })) ? (
               <LinkButton to={`/sites/${site.id}/edit`}>Change site</LinkButton>

@@ -9,7 +9,7 @@ const linkClass = ({ isActive }: { isActive: boolean }) =>
 
 /**
  * The site's records, one tap each: its saws, the work of today, stock, blade runs, stops, and (for those who may
- * read it) the history of changes. Checks join this row when their feature lands.
+ * read it) the history of changes; the list of checks and those due.
  */
 export function SiteRecordsNav({ siteId }: { siteId: string }) {
   const ability = useAppAbility();
@@ -34,6 +34,12 @@ export function SiteRecordsNav({ siteId }: { siteId: string }) {
       </NavLink>
       <NavLink to={`${base}/stops`} className={linkClass}>
         Stops
+      </NavLink>
+      <NavLink to={`${base}/checks`} end className={linkClass}>
+        Checks
+      </NavLink>
+      <NavLink to={`${base}/checks/overdue`} className={linkClass}>
+        Checks due
       </NavLink>
       {canReadHistory ? (
         <NavLink to={`${base}/history`} className={linkClass}>

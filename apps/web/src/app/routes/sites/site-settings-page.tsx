@@ -20,6 +20,7 @@ const GROUP_TITLES: Partial<Record<string, string>> = {
   band_speed: 'Band speed by material',
   band_tension: 'Band tension by blade material',
   checks: 'Maintenance check limits',
+  blades: 'New blades and pitch',
 };
 
 const HISTORY_PAGE = 20;

@@ -6,6 +6,8 @@ import { regionListQuery } from '../../../features/regions/api/queries';
 import { parseSiteSummaryQuery, siteSummaryListQuery } from '../../../features/site-summaries/api/queries';
 import { SiteSummaryFigures } from '../../../features/site-summaries/components/site-summary-figures';
 import { useAppAbility } from '../../../lib/ability';
+import { checkCountsQuery } from '../../../features/checks/api/queries';
+import { CheckCountsFigure } from '../../../features/checks/components/check-counts-figure';
 import { LinkButton } from '../../../lib/ui/button';
 
 /** `?retired=shown` lists retired sites too (they keep their history). */
@@ -23,6 +25,7 @@ export function sitesLoader(queryClient: QueryClient) {
       queryClient.ensureQueryData(regionListQuery()).catch(() => undefined),
       // The tiles' figures come with the page; without them the tiles still lead to each site.
       queryClient.ensureQueryData(summariesOf(new URL(request.url).searchParams)).catch(() => undefined),
+      queryClient.ensureQueryData(checkCountsQuery()).catch(() => undefined),
     ]);
     return null;
   };
@@ -34,6 +37,7 @@ export function SitesPage() {
   const { data: sites } = useSuspenseQuery(listOf(search));
   const { data: regions } = useQuery(regionListQuery());
   const summaries = useQuery(summariesOf(search));
+  const checkCounts = useQuery(checkCountsQuery());
   const ability = useAppAbility();
   const regionNameOf = (regionId: string) => regions?.items.find((region) => region.id === regionId)?.name;
 
@@ -70,6 +74,7 @@ export function SitesPage() {
             <SiteSummaryFigures
               summary={summaries.data?.items.find((summary) => summary.siteId === site.id)}
               timeZone={site.timeZone}
+              extra={<CheckCountsFigure counts={checkCounts.data?.items.find((c) => c.siteId === site.id)} />}
             />
           )
         }

@@ -8,6 +8,10 @@ import { SawStatePanel } from '../../../features/saws/components/saw-state-panel
 import { useAppAbility } from '../../../lib/ability';
 import { LinkButton } from '../../../lib/ui/button';
 import { SawActionButtons, sawActionsFor } from '../saws/saw-actions';
+import { subject } from '@casl/ability';
+import { dueCheckListQuerySchema } from '@kerfline/domain/site-checks/schema';
+import { siteOverdueQuery } from '../../../features/checks/api/queries';
+import { DueChecksPanel } from '../../../features/checks/components/due-checks-panel';
 
 /** The site the start screen is for: `?site=`, else the person's only site. */
 function siteIdFor(search: URLSearchParams, siteIds: string[]): string | null {
@@ -18,6 +22,10 @@ function siteIdFor(search: URLSearchParams, siteIds: string[]): string | null {
 
 /** Every saw in use at the site: a site has tens of saws, well within a page. */
 const sawsAt = (siteId: string) => sawListQuery(sawListQuerySchema.parse({ siteId, limit: 500 }));
+/** The site's checks due and overdue, the longest overdue first. */
+const CHECKS_SHOWN = 20;
+const checksDueAt = (siteId: string) =>
+  siteOverdueQuery(siteId, dueCheckListQuerySchema.parse({ state: 'pending', limit: CHECKS_SHOWN }));
 
 export function todayPageLoader(queryClient: QueryClient) {
   return async ({ request }: LoaderFunctionArgs) => {
@@ -30,6 +38,7 @@ export function todayPageLoader(queryClient: QueryClient) {
     await Promise.all([
       queryClient.ensureQueryData(siteDetailQuery(siteId)),
       queryClient.ensureQueryData(sawsAt(siteId)),
+      queryClient.ensureQueryData(checksDueAt(siteId)).catch(() => undefined),
     ]);
     return null;
   };
@@ -116,6 +125,9 @@ function SiteToday({ siteId }: { siteId: string }) {
     .filter((saw) => saw.status === 'down')
     .sort((a, b) => Date.parse(a.down?.since ?? '') - Date.parse(b.down?.since ?? ''));
   const running = list.filter((saw) => saw.status === 'in_service');
+  const checks = useQuery(checksDueAt(siteId));
+  const ability = useAppAbility();
+  const canRecord = ability.can('create', subject('CheckRecord', { id: '', siteId }));
   return (
     <div className="space-y-6">
       <title>{`Today · ${site.name} · Kerfline`}</title>
@@ -145,7 +157,28 @@ function SiteToday({ siteId }: { siteId: string }) {
         </section>
       ) : null}
 
-      {/* Checks due today go here (the checks feature composes its panel between the saws down and running). */}
+      {checks.data ? (
+        <DueChecksPanel
+          heading="Checks due today"
+          items={checks.data.items}
+          timeZone={site.timeZone}
+          showSaw
+          canRecord={canRecord}
+          emptyText="No check is due at this site."
+          footer={
+            <Link
+              to={`/sites/${site.id}/checks/overdue?state=pending`}
+              className="font-semibold underline underline-offset-4"
+            >
+              {checks.data.total > checks.data.items.length
+                ? `All ${checks.data.total} checks due and overdue`
+                : 'Checks due and overdue at the site'}
+            </Link>
+          }
+        />
+      ) : checks.isError ? (
+        <p role="alert">{checks.error.message}</p>
+      ) : null}
 
       <section aria-labelledby="running-heading" className="space-y-3">
         <h2 id="running-heading" className="text-lg font-bold text-ink">

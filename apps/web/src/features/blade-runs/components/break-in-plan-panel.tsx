@@ -110,7 +110,7 @@ export function BreakInPlanPanel({
       ) : (
         <p className="text-sm text-ink-muted">Choose the material it will cut first to see its band speeds.</p>
       )}
-      <p className="text-sm text-ink-muted">{advice.plan.basis}.</p>
+      <p className="text-sm text-ink-muted">Break-in steps: {basisSentence(advice.plan.basis, timeZone)}.</p>
     </section>
   );
 }

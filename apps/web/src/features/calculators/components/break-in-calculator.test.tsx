@@ -4,7 +4,24 @@ import userEvent from '@testing-library/user-event';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { planBreakIn } from '@kerfline/domain/break-in/break-in-plan';
 import { areaToDisplay } from '@kerfline/domain/units/display';
+import { shippedSettings, type SiteSetting } from '@kerfline/domain/settings/schema';
 import { BreakInCalculator } from './break-in-calculator';
+
+/** The shipped settings with the site's own break-in steps. */
+function siteWithOwnBreakIn(): SiteSetting[] {
+  return shippedSettings().map((s) =>
+    s.key === 'break_in'
+      ? {
+          ...s,
+          source: 'site',
+          value: { ...s.value, startFeedPercent: 25, startMinutes: 15, stepMinutes: 10 },
+          changedById: '00000000-0000-4000-8000-000000000009',
+          changedByName: 'Ines Carvalho',
+          changedAt: '2026-10-01T12:00:00.000Z',
+        }
+      : s,
+  );
+}
 
 const result = () => screen.getByRole('region', { name: 'Result' });
 
@@ -66,5 +83,37 @@ describe('BreakInCalculator', () => {
     await user.tab();
     expect(rate).toHaveAccessibleDescription(/Normal cutting rate must be greater than 0\scm²\/min/);
     expect(result()).not.toHaveTextContent(/NaN/);
+  });
+
+  it('says the shipped steps are Kerfline’s starting value, never a rule of thumb', () => {
+    renderCalculator('metric');
+    expect(result()).toHaveTextContent(
+      'Break-in steps: Kerfline’s starting value (no printed source gives one value).',
+    );
+    expect(document.body).not.toHaveTextContent(/common practice|from memory/i);
+  });
+
+  it('uses the site’s own break-in steps and says who changed them', () => {
+    render(<BreakInCalculator system="metric" settings={siteWithOwnBreakIn()} timeZone="UTC" />);
+    // By hand: 15 min at 25 %, then 10 min at 50 % and at 75 %: 35 min.
+    expect(result()).toHaveTextContent('Time to normal feed35min');
+    expect(result()).toHaveTextContent('Start the new blade at 25 % of normal feed');
+    expect(result()).toHaveTextContent('Break-in steps: Your site’s setting, changed by Ines Carvalho on Oct 1, 2026.');
+  });
+
+  it('opened from a saw, gives the break-in band speeds for the material within the saw’s range', () => {
+    render(
+      <BreakInCalculator
+        system="metric"
+        start={{ sawMin: '20', sawMax: '70', material: 'carbon_steel' }}
+        settings={shippedSettings()}
+      />,
+    );
+    expect(screen.getByRole('combobox', { name: /Material to cut first/ })).toHaveValue('carbon_steel');
+    // Shipped carbon steel 50–90 m/min at full band speed during break-in; the saw reaches 20–70 m/min of it.
+    expect(result()).toHaveTextContent(
+      'Band speed in carbon steel during break-in: 50–90 m/min; this saw runs 50–70 m/min of it.',
+    );
+    expect(result()).toHaveTextContent('Band speed: Kerfline’s starting value');
   });
 });

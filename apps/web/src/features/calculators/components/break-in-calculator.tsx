@@ -1,13 +1,16 @@
 import type { BreakInPlan, BreakInStepKind } from '@kerfline/domain/break-in/break-in-plan';
-import { BREAK_IN_BASIS } from '@kerfline/domain/break-in/break-in-plan';
-import { BREAK_IN_DEFAULTS } from '@kerfline/domain/break-in/schema';
+import { MATERIAL_GROUP_LABELS } from '@kerfline/domain/band-speed/schema';
+import { effectiveSetting, settingBasis, settingValue } from '@kerfline/domain/settings/effective';
+import { effectiveSettingsOf, shippedSettings, type SiteSetting } from '@kerfline/domain/settings/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
-import { formatNumber } from '../../../lib/format';
+import { formatNumber, formatSpeedRange } from '../../../lib/format';
+import { basisSentence } from '../../../lib/figure-basis';
 import { Notice } from '../../../lib/ui/notice';
 import { CalculatorLayout, Explanation, ResultFigure, SourceNote, WaitingForInput } from './calculator-layout';
-import { EntryField, FieldGroup, ModeChoice } from './entry-field';
+import { ChoiceField, EntryField, FieldGroup, ModeChoice } from './entry-field';
 import { figure, messageInUnits } from './quantities';
-import { breakInMode, evaluateBreakIn, type BreakInKey } from './break-in-values';
+import { BREAK_IN_LABELS, breakInMode, evaluateBreakIn, type BreakInKey } from './break-in-values';
+import { MATERIAL_OPTIONS } from './band-speed-values';
 import { useEntries, type StartTexts } from './use-entries';
 
 const percent = (fraction: number) => `${Math.round(fraction * 100)}\u00a0%`;
@@ -34,19 +37,38 @@ function explain(plan: BreakInPlan, system: UnitSystem): string {
   return `Start the new blade at ${percent(first.feedFraction)} of normal feed${steps}, and reach normal feed after ${after}.`;
 }
 
-/** The feed steps that bring a new blade up to normal cutting, measured in minutes or in area cut. */
-export function BreakInCalculator({ system, start }: { system: UnitSystem; start?: StartTexts }) {
-  const form = useEntries<BreakInKey>(system, { mode: 'time', rate: '' }, start);
+const NO_MATERIAL = [{ value: '', label: 'Not given' }, ...MATERIAL_OPTIONS];
+
+/**
+ * The feed steps that bring a new blade up to normal cutting, measured in minutes or in area cut: the site's
+ * `break_in` setting (Kerfline's starting plan unless the site changed it). Opened from a saw, it starts from the
+ * saw's band speed range; with the material to be cut it gives the break-in band speeds the saw can run.
+ */
+export function BreakInCalculator({
+  system,
+  start,
+  settings = shippedSettings(),
+  timeZone,
+}: {
+  system: UnitSystem;
+  start?: StartTexts;
+  /** The site's settings (its break-in steps and band speeds); Kerfline's shipped values when not given. */
+  settings?: SiteSetting[];
+  timeZone?: string;
+}) {
+  const form = useEntries<BreakInKey>(system, { mode: 'time', rate: '', material: '', sawMin: '', sawMax: '' }, start);
   const mode = breakInMode(form.entries.mode);
-  const { errors, formError, plan } = evaluateBreakIn(form.entries, system);
-  const firstArea = figure('area', BREAK_IN_DEFAULTS.initialAreaMm2, system).text;
-  const stepArea = figure('area', BREAK_IN_DEFAULTS.rampStepAreaMm2, system).text;
+  const effective = effectiveSettingsOf(settings);
+  const { errors, formError, plan, material, onSaw } = evaluateBreakIn(form.entries, system, effective);
+  const steps = effectiveSetting(effective, 'break_in');
+  const firstArea = figure('area', settingValue(steps, 'startAreaMm2'), system).text;
+  const stepArea = figure('area', settingValue(steps, 'stepAreaMm2'), system).text;
 
   const modes = [
     {
       value: 'time',
       label: 'By time',
-      hint: `${minutes(BREAK_IN_DEFAULTS.initialDurationMin)} at the starting feed, ${minutes(BREAK_IN_DEFAULTS.rampStepDurationMin)} a step.`,
+      hint: `${minutes(settingValue(steps, 'startMinutes'))} at the starting feed, ${minutes(settingValue(steps, 'stepMinutes'))} a step.`,
     },
     { value: 'area', label: 'By area cut', hint: `The first ${firstArea} at the starting feed, ${stepArea} a step.` },
   ];
@@ -55,12 +77,21 @@ export function BreakInCalculator({ system, start }: { system: UnitSystem; start
     <>
       <ModeChoice legend="Measure each step" field={form.bind('mode', null, errors)} options={modes} />
       <FieldGroup legend="This job (optional)">
+        <ChoiceField
+          label="Material to cut first"
+          hint="Gives the band speeds during break-in."
+          field={form.bind('material', null, errors)}
+          options={NO_MATERIAL}
+          className="sm:col-span-2"
+        />
         <EntryField
           label="Normal cutting rate"
           hint={`Area cut per minute at normal feed on this job, if you know it: it gives the ${mode === 'time' ? 'area' : 'time'} of each step.`}
           field={form.bind('rate', 'areaRate', errors)}
           className="sm:col-span-2"
         />
+        <EntryField label={BREAK_IN_LABELS.sawMin} field={form.bind('sawMin', 'bandSpeed', errors)} />
+        <EntryField label={BREAK_IN_LABELS.sawMax} field={form.bind('sawMax', 'bandSpeed', errors)} />
       </FieldGroup>
     </>
   );
@@ -85,6 +116,19 @@ export function BreakInCalculator({ system, start }: { system: UnitSystem; start
           />
         </div>
         <Explanation>{explain(plan, system)}</Explanation>
+        {plan.bandSpeed && material ? (
+          <p className="text-sm text-ink">
+            Band speed in {MATERIAL_GROUP_LABELS[material]} during break-in:{' '}
+            <strong className="tabular">
+              {formatSpeedRange(plan.bandSpeed.breakInMinMPerMin, plan.bandSpeed.breakInMaxMPerMin, system)}
+            </strong>
+            {onSaw === 'empty'
+              ? '. This saw cannot run any of that range: check the blade and material with the saw maker’s manual.'
+              : onSaw
+                ? `; this saw runs ${formatSpeedRange(onSaw.minMPerMin, onSaw.maxMPerMin, system)} of it.`
+                : '.'}
+          </p>
+        ) : null}
         <section aria-label="Break-in steps">
           <h3 className="text-base font-bold text-ink">Steps</h3>
           <ol className="mt-2 divide-y divide-rule border-y border-rule">
@@ -147,8 +191,9 @@ export function BreakInCalculator({ system, start }: { system: UnitSystem; start
         <>
           {body}
           <SourceNote>
-            Break-in steps: {BREAK_IN_BASIS}. They start at full normal band speed; feed at about one third of normal
-            for about ten minutes (or the first {firstArea} of cut), then 50 % and 75 % before normal feed.
+            Break-in steps: {basisSentence(plan?.basis ?? settingBasis(steps), timeZone)}.
+            {plan?.bandSpeed ? ` Band speed: ${basisSentence(plan.bandSpeed.normal.basis, timeZone)}.` : ''} The blade
+            maker’s own break-in takes precedence.
           </SourceNote>
         </>
       }

@@ -5,6 +5,7 @@ import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { recommendPitches } from '@kerfline/domain/teeth-in-work/recommend-pitches';
 import { teethInWorkForStock } from '@kerfline/domain/teeth-in-work/teeth-in-work';
 import { formatNumber } from '../../../lib/format';
+import { shippedSettings } from '@kerfline/domain/settings/schema';
 import { TeethInWorkCalculator } from './teeth-in-work-calculator';
 
 const field = (name: RegExp) => screen.getByRole('textbox', { name });
@@ -31,7 +32,7 @@ describe('TeethInWorkCalculator', () => {
     const high = formatNumber(teeth.max, 1);
     // Each figure is named for what it is: the mean over the cut and the chord at the centre line.
     expect(result()).toHaveTextContent(
-      `4/6 TPI puts ${low} to ${high} teeth in this 50 mm round bar (${low} mean over the cut, ${high} at the centre line) — in the 6–12 sweet spot.`,
+      `4/6 TPI puts ${low} to ${high} teeth in this 50 mm round bar (${low} mean over the cut, ${high} at the centre line) — in the preferred 6–12.`,
     );
     expect(result()).toHaveTextContent('Best: 6–12 teeth');
     // 39.27–50 mm of metal under the band.
@@ -104,5 +105,27 @@ describe('TeethInWorkCalculator', () => {
     await user.clear(field(/Other pitch/));
     await user.type(field(/Other pitch/), '2/3');
     expect(result()).toHaveTextContent('2/3 TPI puts');
+  });
+
+  it('judges against the site’s own guards and says whose they are', async () => {
+    const settings = shippedSettings().map((item) =>
+      item.key === 'teeth_in_work'
+        ? {
+            ...item,
+            source: 'site' as const,
+            value: { fewestTeeth: 8, preferredFewestTeeth: 10, preferredMostTeeth: 14, mostTeeth: 30 },
+            changedById: '00000000-0000-4000-8000-000000000009',
+            changedByName: 'Ines Carvalho',
+            changedAt: '2026-10-01T12:00:00.000Z',
+          }
+        : item,
+    );
+    const user = userEvent.setup();
+    render(<TeethInWorkCalculator system="metric" settings={settings} timeZone="UTC" />);
+    await user.type(field(/Diameter/), '50');
+    await user.selectOptions(screen.getByRole('combobox', { name: 'Pitch' }), '4/6 TPI (variable)');
+    // 7.7–9.8 teeth: within the shipped 3–24, but below this site's fewest 8 at the mean.
+    expect(result()).toHaveTextContent('Workable: 8–30 teeth');
+    expect(result()).toHaveTextContent('These guards: Your site’s setting, changed by Ines Carvalho on Oct 1, 2026.');
   });
 });

@@ -1,6 +1,13 @@
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import type { StockShapeKind } from '@kerfline/domain/stock-area/schema';
-import { TEETH_IN_WORK_RULE, type TeethFit } from '@kerfline/domain/teeth-in-work/teeth-in-work';
+import {
+  teethInWorkRule,
+  teethInWorkRuleBasis,
+  type TeethFit,
+  type TeethInWorkRule,
+} from '@kerfline/domain/teeth-in-work/teeth-in-work';
+import { effectiveSettingsOf, shippedSettings, type SiteSetting } from '@kerfline/domain/settings/schema';
+import { basisSentence } from '../../../lib/figure-basis';
 import { formatNumber } from '../../../lib/format';
 import { Button } from '../../../lib/ui/button';
 import { Notice } from '../../../lib/ui/notice';
@@ -28,25 +35,31 @@ import {
 import { useEntries } from './use-entries';
 import { capitalise } from './words';
 
-const { fewest, most, bestFewest, bestMost } = TEETH_IN_WORK_RULE;
-
-const FIT: Record<TeethFit, { shape: StatusShape; label: string; phrase: string }> = {
-  best: {
-    shape: 'circle',
-    label: `Best: ${bestFewest}–${bestMost} teeth`,
-    phrase: `in the ${bestFewest}–${bestMost} sweet spot`,
-  },
-  workable: {
-    shape: 'ring',
-    label: `Workable: ${fewest}–${most} teeth`,
-    phrase: `within the ${fewest}–${most} limits, though outside the ${bestFewest}–${bestMost} sweet spot`,
-  },
-  outside_limits: {
-    shape: 'triangle',
-    label: `Outside ${fewest}–${most} teeth`,
-    phrase: `outside the ${fewest}–${most} limits`,
-  },
-};
+/** The fit labels in the site's own guards and preference. */
+function fits({
+  fewest,
+  most,
+  bestFewest,
+  bestMost,
+}: TeethInWorkRule): Record<TeethFit, { shape: StatusShape; label: string; phrase: string }> {
+  return {
+    best: {
+      shape: 'circle',
+      label: `Best: ${bestFewest}–${bestMost} teeth`,
+      phrase: `in the preferred ${bestFewest}–${bestMost}`,
+    },
+    workable: {
+      shape: 'ring',
+      label: `Workable: ${fewest}–${most} teeth`,
+      phrase: `within the ${fewest}–${most} limits, though outside the preferred ${bestFewest}–${bestMost}`,
+    },
+    outside_limits: {
+      shape: 'triangle',
+      label: `Outside ${fewest}–${most} teeth`,
+      phrase: `outside the ${fewest}–${most} limits`,
+    },
+  };
+}
 
 /** A count of teeth to one decimal, or a range "7.7 to 9.8" where the metal under the band changes. */
 function teethText(min: number, max: number, joiner: string): string {
@@ -76,9 +89,22 @@ function Warnings({ chosen }: { chosen: ChosenPitchResult }) {
 }
 
 /** Teeth in the work for a stock size and a pitch, and the standard pitches ranked for that stock. */
-export function TeethInWorkCalculator({ system }: { system: UnitSystem }) {
+export function TeethInWorkCalculator({
+  system,
+  settings = shippedSettings(),
+  timeZone,
+}: {
+  system: UnitSystem;
+  /** The site's settings (its teeth-in-work guards); Kerfline's shipped values when not given. */
+  settings?: SiteSetting[];
+  timeZone?: string;
+}) {
   const form = useEntries<TeethKey>(system, initialEntries());
-  const evaluation = evaluateTeethInWork(form.entries, system);
+  const effective = effectiveSettingsOf(settings);
+  const rule = teethInWorkRule(effective);
+  const { fewest, most, bestFewest, bestMost } = rule;
+  const fitWords = fits(rule);
+  const evaluation = evaluateTeethInWork(form.entries, system, effective);
   const { errors, shape, chosen, engaged } = evaluation;
   const kind: StockShapeKind = isShapeKind(form.entries.shape.text) ? form.entries.shape.text : 'round_bar';
   const chosenValue = form.entries.pitch.text;
@@ -123,7 +149,7 @@ export function TeethInWorkCalculator({ system }: { system: UnitSystem }) {
               label={`Teeth in the work at ${chosen.label} TPI`}
               value={teethText(chosen.range.min, chosen.range.max, '–')}
               unit="teeth"
-              detail={<StatusBadge shape={FIT[chosen.fit].shape}>{FIT[chosen.fit].label}</StatusBadge>}
+              detail={<StatusBadge shape={fitWords[chosen.fit].shape}>{fitWords[chosen.fit].label}</StatusBadge>}
             />
             <Explanation>
               {chosen.label} TPI puts {teethText(chosen.range.min, chosen.range.max, ' to ')} teeth in this{' '}
@@ -132,7 +158,7 @@ export function TeethInWorkCalculator({ system }: { system: UnitSystem }) {
               {chosen.range.minLabel === 'least'
                 ? ''
                 : ` (${formatNumber(chosen.range.min, 1)} ${chosen.range.minLabel}, ${formatNumber(chosen.range.max, 1)} ${chosen.range.maxLabel})`}{' '}
-              — {FIT[chosen.fit].phrase}.
+              — {fitWords[chosen.fit].phrase}.
             </Explanation>
             <Warnings chosen={chosen} />
           </>
@@ -167,7 +193,7 @@ export function TeethInWorkCalculator({ system }: { system: UnitSystem }) {
                         {teethText(candidate.teethMin, candidate.teethMax, '–')} teeth
                       </span>
                     </p>
-                    <StatusBadge shape={FIT[candidate.fit].shape}>{FIT[candidate.fit].label}</StatusBadge>
+                    <StatusBadge shape={fitWords[candidate.fit].shape}>{fitWords[candidate.fit].label}</StatusBadge>
                     {candidate.warnings.length > 0 ? (
                       <p className="text-sm text-ink-muted">{candidate.warnings.map((w) => w.message).join(' ')}</p>
                     ) : null}
@@ -188,8 +214,9 @@ export function TeethInWorkCalculator({ system }: { system: UnitSystem }) {
           {evaluation.advice?.note}{' '}
           {evaluation.advice?.basis?.kind === 'published' ? `${evaluation.advice.basis.citation}. ` : ''}
           Guards: fewer than {fewest} teeth in the work strip teeth, more than {most} overload the gullets; {bestFewest}{' '}
-          to {bestMost} is the trade&apos;s usual preference, shown but never put above the printed table. Teeth = TPI ×
-          inches of metal under the band; a variable pitch counts by the mean of its two ends (4/6 → 5 TPI).
+          to {bestMost} is preferred, shown but never put above the printed table. These guards:{' '}
+          {basisSentence(teethInWorkRuleBasis(effective), timeZone)}. Teeth = TPI × inches of metal under the band; a
+          variable pitch counts by the mean of its two ends (4/6 → 5 TPI).
         </SourceNote>
       </>
     );

@@ -1,3 +1,4 @@
+import type { EffectiveSettings } from '@kerfline/domain/settings/effective';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import type { StockShape } from '@kerfline/domain/stock-area/schema';
 import { engagedLengthMm, type EngagedLength } from '@kerfline/domain/teeth-in-work/engaged-length';
@@ -86,7 +87,12 @@ function readPitch(entries: Record<TeethKey, Entry>, errors: FieldErrors<TeethKe
  * Teeth in the work for the stock and pitch entered: the schema checks the stock (in mm) and the pieces side by
  * side, the domain counts the teeth for the chosen pitch and ranks the standard pitches.
  */
-export function evaluateTeethInWork(entries: Record<TeethKey, Entry>, system: UnitSystem): TeethEvaluation {
+export function evaluateTeethInWork(
+  entries: Record<TeethKey, Entry>,
+  system: UnitSystem,
+  /** The site's effective settings: its teeth-in-work guards and preference (shipped ones when left out). */
+  settings: EffectiveSettings = {},
+): TeethEvaluation {
   const errors: FieldErrors<TeethKey> = {};
   const kind = entries.shape.text;
   const empty = {
@@ -127,12 +133,13 @@ export function evaluateTeethInWork(entries: Record<TeethKey, Entry>, system: Un
   const pieces = parsed.data.piecesAcross;
   const worked = compute(() => {
     const range = pitch ? teethInWorkForStock(stock, pitch, pieces) : null;
-    const advice = pitchAdvice(stock, { piecesAcross: pieces });
+    const advice = pitchAdvice(stock, { piecesAcross: pieces, settings });
     return {
       engaged: engagedLengthMm(stock, pieces),
       recommendations: advice.candidates,
       advice: { source: advice.source, basis: advice.basis, note: advice.note },
-      chosen: pitch && range ? { pitch, label: pitchLabel(pitch), range, ...judgeTeethInWork(range) } : null,
+      chosen:
+        pitch && range ? { pitch, label: pitchLabel(pitch), range, ...judgeTeethInWork(range, advice.rule) } : null,
     };
   });
   if (!worked.ok) return { ...empty, errors: pitchErrors, formError: worked.message };

@@ -1,5 +1,10 @@
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
-import type { SettingField, SiteSettingDefinition } from '@kerfline/domain/settings/registry';
+import {
+  PLAIN_QUANTITIES,
+  type PlainQuantity,
+  type SettingField,
+  type SiteSettingDefinition,
+} from '@kerfline/domain/settings/registry';
 import { storedToSiFactor, type SettingValues } from '@kerfline/domain/settings/schema';
 import {
   DISPLAY_UNITS,
@@ -22,7 +27,7 @@ const NBSP = '\u00a0';
  * Decimals a value shows with when it is put in a field to edit: fine enough that an untouched value survives
  * the trip (0.0001 in, 0.001 mm), plain enough to read. A field's own `decimals` wins.
  */
-const EDIT_DECIMALS: Record<DisplayQuantityKind | 'days', Record<UnitSystem, number>> = {
+const EDIT_DECIMALS: Record<DisplayQuantityKind | PlainQuantity, Record<UnitSystem, number>> = {
   length: { imperial: 4, metric: 2 },
   smallLength: { imperial: 4, metric: 3 },
   bandSpeed: { imperial: 1, metric: 1 },
@@ -32,28 +37,54 @@ const EDIT_DECIMALS: Record<DisplayQuantityKind | 'days', Record<UnitSystem, num
   force: { imperial: 2, metric: 1 },
   stress: { imperial: 0, metric: 2 },
   days: { imperial: 0, metric: 0 },
+  minutes: { imperial: 1, metric: 1 },
+  percent: { imperial: 1, metric: 1 },
+  teeth: { imperial: 0, metric: 0 },
 };
+
+/** Plain counts read the same in both systems: their unit, singular and plural. */
+const PLAIN_UNITS: Record<PlainQuantity, { one: string; many: string; short: string }> = {
+  days: { one: 'day', many: 'days', short: 'days' },
+  minutes: { one: 'min', many: 'min', short: 'min' },
+  percent: { one: '%', many: '%', short: '%' },
+  teeth: { one: 'tooth', many: 'teeth', short: 'teeth' },
+};
+
+function plainOf(field: SettingField): PlainQuantity | null {
+  return (PLAIN_QUANTITIES as readonly string[]).includes(field.quantity) ? (field.quantity as PlainQuantity) : null;
+}
+
+/** A field's quantity when it is one the display policy converts between systems. */
+function displayKind(field: SettingField): DisplayQuantityKind {
+  return field.quantity as DisplayQuantityKind;
+}
 
 const factor = (field: SettingField): number => storedToSiFactor(field) ?? 1;
 
-/** The unit a field is shown and typed in on a site: in or mm, lbf or N, psi or MPa, days. */
+/** The unit a field is shown and typed in on a site: in or mm, lbf or N, psi or MPa, days, %, teeth. */
 export function fieldUnit(field: SettingField, system: UnitSystem): string {
-  return field.quantity === 'days' ? 'days' : DISPLAY_UNITS[field.quantity][system].unit;
+  const plain = plainOf(field);
+  return plain ? PLAIN_UNITS[plain].short : DISPLAY_UNITS[displayKind(field)][system].unit;
 }
 
 /** A stored number in the site's unit, unrounded. */
 function displayNumber(field: SettingField, stored: number, system: UnitSystem): number {
-  if (field.quantity === 'days') return stored;
+  if (plainOf(field)) return stored;
   const si = stored * factor(field);
-  return quantityToDisplay(field.quantity, si, system, { decimals: 12 }).value;
+  return quantityToDisplay(displayKind(field), si, system, { decimals: 12 }).value;
 }
 
 /** A stored number as it reads on the page: by the formatting policy, or the field's own decimals. */
 export function fieldText(field: SettingField, stored: number, system: UnitSystem): string {
-  if (field.quantity === 'days') return `${stored}${NBSP}${stored === 1 ? 'day' : 'days'}`;
+  const plain = plainOf(field);
+  if (plain) {
+    const shown = Number(stored.toFixed(EDIT_DECIMALS[plain][system]));
+    const unit = shown === 1 ? PLAIN_UNITS[plain].one : PLAIN_UNITS[plain].many;
+    return plain === 'percent' ? `${shown}${NBSP}%` : `${shown.toLocaleString('en-US')}${NBSP}${unit}`;
+  }
   const decimals = field.decimals?.[system];
   const shown = quantityToDisplay(
-    field.quantity,
+    displayKind(field),
     stored * factor(field),
     system,
     decimals === undefined ? {} : { decimals },
@@ -64,7 +95,7 @@ export function fieldText(field: SettingField, stored: number, system: UnitSyste
 /** The site's unit first, the other system's second: "30,000 psi (206.8 MPa)". */
 export function fieldDualText(field: SettingField, stored: number, system: UnitSystem): string {
   const first = fieldText(field, stored, system);
-  if (field.quantity === 'days') return first;
+  if (plainOf(field)) return first;
   return `${first} (${fieldText(field, stored, OTHER_SYSTEM[system])})`;
 }
 
@@ -79,8 +110,8 @@ export function fieldEntryText(field: SettingField, stored: number, system: Unit
 
 /** A number typed in the site's unit as the stored number. */
 export function storedFromDisplay(field: SettingField, value: number, system: UnitSystem): number {
-  if (field.quantity === 'days') return value;
-  return quantityFromDisplay(field.quantity, value, system) / factor(field);
+  if (plainOf(field)) return value;
+  return quantityFromDisplay(displayKind(field), value, system) / factor(field);
 }
 
 /** The accepted range in the site's unit, rounded inwards, so typing a limit as shown is accepted. */
