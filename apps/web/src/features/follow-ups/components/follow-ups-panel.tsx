@@ -126,13 +126,17 @@ export function FollowUpsPanel({
   sawId,
   siteId,
   heading = 'Follow-ups',
+  hideWhenEmpty = false,
 }: {
   sawId?: string;
   siteId?: string;
   heading?: string;
+  /** Show nothing at all while there is nothing open and no history (a saw's page, the start screen). */
+  hideWhenEmpty?: boolean;
 }) {
   const active = useQuery(followUpListQuery(parseFollowUpListQuery({ sawId, siteId, state: 'active', limit: 20 })));
   const done = useQuery(followUpListQuery(parseFollowUpListQuery({ sawId, siteId, state: 'done', limit: 1 })));
+  if (hideWhenEmpty && active.data?.total === 0 && done.data?.total === 0) return null;
   const historyQuery = new URLSearchParams({
     ...(sawId ? { sawId } : {}),
     ...(siteId ? { siteId } : {}),
