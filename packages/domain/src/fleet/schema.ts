@@ -229,7 +229,7 @@ export const practiceSchema = z.object({
       checksDue: z.number().int().nullable(),
       checksOnTime: z.number().int().nullable(),
       checksOnTimeShare: z.number().nullable(),
-      /** Median area per finished blade on saws whose checks were all on time in the period, and on the others. */
+      /** Median area per blade taken off in the period whose blade-change checks were all on time, and of the others. */
       medianLifeChecksOnTimeMm2: z.number().nullable(),
       medianLifeChecksLateMm2: z.number().nullable(),
     }),

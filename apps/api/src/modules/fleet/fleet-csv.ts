@@ -232,8 +232,8 @@ export function practiceTable(p: Practice, units: UnitSystem): CsvTable {
       'Checks due',
       'Checks on time',
       'Checks on time (%)',
-      `Median life, checks on time (${areaUnit(units)})`,
-      `Median life, checks late (${areaUnit(units)})`,
+      `Median life, blade-change checks on time (${areaUnit(units)})`,
+      `Median life, blade-change checks late (${areaUnit(units)})`,
     ],
     rows: p.sites.map((s) => [
       s.site.code,

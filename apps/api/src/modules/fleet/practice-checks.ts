@@ -26,9 +26,9 @@ export type ChecksPractice = {
  *
  * An occasion belongs to the period its due time falls in (site-local months, up to the as-of time). It was on
  * time when fulfilled by its due time plus the grace, late when fulfilled after it or not at all once the grace
- * has run out; an occasion still within its grace and not yet done is not judged. A saw counts as "every check
- * on time" when all its judged occasions in the period were on time; the blade life beside it is the median area
- * of finished blades (taken off in the period) on those saws, and on the others.
+ * has run out; an occasion still within its grace and not yet done is not judged. Beside it, blade life: the
+ * median area of the blades taken off in the period whose checks at their blade change were all done on time, and
+ * of those with one late or missed.
  */
 export async function checksPractice(
   sequelize: Sequelize,
@@ -103,18 +103,28 @@ export async function checksPractice(
        WHERE o.falls_due >= o.t0 AND o.falls_due < o.t1 AND o.falls_due < o.applies_until
          AND (o.done_at IS NOT NULL OR o.falls_due + make_interval(secs => o.grace_hours * 3600) < ${asOf}::timestamptz)
     ),
-    by_saw AS (
-      SELECT saw_id, site_id, bool_and(on_time) AS all_on_time FROM judged GROUP BY 1, 2
+    finished AS (
+      -- Each blade taken off in the period (area recorded): were its blade-change checks done on time?
+      SELECT r.id, r.site_id, r.area_cut_mm2,
+             bool_and(k.done_at IS NOT NULL
+                      AND k.done_at <= greatest(r.installed_at, pr.applies_since)
+                                       + make_interval(secs => pr.grace_hours * 3600)) AS on_time
+        FROM bounds b
+        JOIN blade_runs r ON r.site_id = b.site_id AND r.removed_at >= b.t0 AND r.removed_at < b.t1
+        JOIN pairs pr ON pr.saw_id = r.saw_id AND pr.schedule = 'blade_change' AND pr.applies_since < r.removed_at
+        CROSS JOIN LATERAL (
+          SELECT min(k.checked_at) AS done_at FROM check_records k
+           WHERE k.saw_id = r.saw_id AND k.site_check_id = pr.check_id
+             AND k.checked_at >= r.installed_at AND k.checked_at < r.removed_at AND ${recordScope('k')}
+        ) k
+       WHERE r.area_cut_mm2 IS NOT NULL AND ${runScope}
+       GROUP BY r.id, r.site_id, r.area_cut_mm2
     ),
     life AS (
-      SELECT bs.site_id,
-             percentile_cont(0.5) WITHIN GROUP (ORDER BY r.area_cut_mm2) FILTER (WHERE bs.all_on_time) AS on_time_median,
-             percentile_cont(0.5) WITHIN GROUP (ORDER BY r.area_cut_mm2) FILTER (WHERE NOT bs.all_on_time) AS late_median
-        FROM by_saw bs
-        JOIN bounds b ON b.site_id = bs.site_id
-        JOIN blade_runs r ON r.saw_id = bs.saw_id AND r.removed_at >= b.t0 AND r.removed_at < b.t1
-       WHERE r.area_cut_mm2 IS NOT NULL AND ${runScope}
-       GROUP BY bs.site_id
+      SELECT site_id,
+             percentile_cont(0.5) WITHIN GROUP (ORDER BY area_cut_mm2) FILTER (WHERE on_time) AS on_time_median,
+             percentile_cont(0.5) WITHIN GROUP (ORDER BY area_cut_mm2) FILTER (WHERE NOT on_time) AS late_median
+        FROM finished GROUP BY site_id
     )
     SELECT j.site_id, count(*)::int AS due, count(*) FILTER (WHERE j.on_time)::int AS on_time,
            l.on_time_median, l.late_median

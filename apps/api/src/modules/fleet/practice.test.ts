@@ -105,10 +105,10 @@ describe('checks done on time, per site and period', () => {
     // 21 Mar 12:00, after 17:00 → late. The blade of 1 Feb fell due in February. 5 occasions, 2 on time.
     expect([a.checksDue, a.checksOnTime]).toEqual([5, 2]);
     expect(a.checksOnTimeShare).toBeCloseTo(0.4, 12);
-    // A-1 had late checks: its blades taken off in March (1 000 000 and 3 000 000 mm²) count as "late", median
-    // 2 000 000; no saw had every check on time.
-    expect(a.medianLifeChecksLateMm2).toBe(2_000_000);
-    expect(a.medianLifeChecksOnTimeMm2).toBeNull();
+    // Blades taken off in March: the one of 5 Mar (1 000 000 mm²) had no guide check while it was on → late; the
+    // one of 20 Mar (3 000 000 mm²) was checked 4 h after it went on → on time.
+    expect(a.medianLifeChecksOnTimeMm2).toBe(3_000_000);
+    expect(a.medianLifeChecksLateMm2).toBe(1_000_000);
     // Sites without occasions say so rather than 0 %.
     expect(practice.sites.find((s) => s.site.code === 'B')!.checksDue).toBeNull();
   });

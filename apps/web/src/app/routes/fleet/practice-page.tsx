@@ -126,7 +126,7 @@ export function PracticePage() {
                   <p className="mt-1 text-sm text-ink-muted">
                     {s.checksDue === null
                       ? 'Checks on time: maintenance checks are not recorded here yet.'
-                      : `Checks on time: ${percentText(s.checksOnTimeShare, 0)} of ${formatNumber(s.checksDue)} due; blade life ${lifeText(s.medianLifeChecksOnTimeMm2, units)} on saws with every check on time, ${lifeText(s.medianLifeChecksLateMm2, units)} on the others.`}
+                      : `Checks on time: ${percentText(s.checksOnTimeShare, 0)} of ${formatNumber(s.checksDue)} due. Blades whose checks at the blade change were done on time lasted ${lifeText(s.medianLifeChecksOnTimeMm2, units)} (median), the others ${lifeText(s.medianLifeChecksLateMm2, units)}.`}
                   </p>
                 </li>
               );
