@@ -45,6 +45,25 @@ export function emptyRaw(groupId: string, bucket: string): RawFigures {
   };
 }
 
+/**
+ * A group's figures with its hours taken as the sum of its parts' (the fleet's from its sites'): hours and failures
+ * add up, so the fleet's statement can leave the stops out and read each stop once, through its site.
+ */
+export function withStopsOf(raw: RawFigures, parts: RawFigures[]): RawFigures {
+  const sum = (pick: (r: RawFigures) => number) => parts.reduce((t, r) => t + pick(r), 0);
+  return {
+    ...raw,
+    scheduledHours: sum((r) => r.scheduledHours),
+    downtimeHours: sum((r) => r.downtimeHours),
+    unplannedStopHours: sum((r) => r.unplannedStopHours),
+    failures: sum((r) => r.failures),
+    failureDowntimeHours: sum((r) => r.failureDowntimeHours),
+    stopHours: Object.fromEntries(
+      DOWNTIME_CATEGORIES.map((c) => [c, sum((r) => r.stopHours[c])]),
+    ) as RawFigures['stopHours'],
+  };
+}
+
 /** Index raw rows by `group|bucket`. */
 export function indexRaw(rows: RawFigures[]): (groupId: string, bucket: string) => RawFigures {
   const map = new Map(rows.map((r) => [`${r.groupId}|${r.bucket}`, r]));

@@ -12,7 +12,7 @@ import { BladeRun } from '../blade-runs/blade-run.model.js';
 import { Stop } from '../stops/stop.model.js';
 import { Saw } from '../saws/saw.model.js';
 import { moneyRows, rawFigures, type Bucket, type Level } from './fleet-figures.js';
-import { assembleFigures, indexRaw } from './assemble.js';
+import { assembleFigures, indexRaw, withStopsOf } from './assemble.js';
 import { rateLookup } from '../exchange-rates/rates.js';
 
 let ctx: TestContext;
@@ -281,6 +281,49 @@ describe('scope: every figure counts only what the caller may read', () => {
     expect(lead.medianLifeMm2).toBe(admin.medianLifeMm2);
     const leadSites = (await figures('leadNorth', 'site', [MARCH])).rows.map((r) => r.groupId);
     expect(leadSites).not.toContain(fx.world.sites.C.id);
+  });
+
+  it('the overview’s way to the fleet (runs on their own, hours summed from the sites) gives the whole fleet’s figures', async () => {
+    /** Numbers rounded to 1e-9 (SQL's numeric sum against a sum of doubles), everything else as it is. */
+    const rounded = (v: unknown): unknown =>
+      typeof v === 'number'
+        ? Math.round(v * 1e9) / 1e9
+        : v && typeof v === 'object'
+          ? Object.fromEntries(Object.entries(v).map(([k, x]) => [k, rounded(x)]))
+          : v;
+    const buckets: Bucket[] = [MARCH, APRIL, { key: 'both', from: '2026-03', to: '2026-04' }];
+    let compared = 0;
+    for (const who of ['admin', 'leadNorth', 'managerAC', 'siteAdminA', 'techC']) {
+      const scope = { ability: abilities[who]!, siteIds: allSites(), asOf: FLEET_AS_OF };
+      const [whole, runsOnly, sites] = await Promise.all([
+        rawFigures(ctx.sequelize, 'fleet', scope, buckets),
+        rawFigures(ctx.sequelize, 'fleet', scope, buckets, { stops: false }),
+        rawFigures(ctx.sequelize, 'site', scope, buckets),
+      ]);
+      const [wholeOf, runsOnlyOf, siteOf] = [indexRaw(whole), indexRaw(runsOnly), indexRaw(sites)];
+      for (const bucket of buckets) {
+        const label = `${who} ${bucket.key}`;
+        const fleet = runsOnlyOf('fleet', bucket.key);
+        // Without its stops, the fleet's statement counts none, and its runs are the whole fleet's.
+        expect(fleet.downtimeHours, label).toBe(0);
+        expect(fleet.failures, label).toBe(0);
+        expect(fleet.medianLifeMm2, label).toBe(wholeOf('fleet', bucket.key).medianLifeMm2);
+        const summed = withStopsOf(
+          fleet,
+          allSites().map((id) => siteOf(id, bucket.key)),
+        );
+        expect(rounded(summed), label).toEqual(rounded(wholeOf('fleet', bucket.key)));
+        compared += 1;
+      }
+    }
+    expect(compared).toBe(15);
+    // Not an empty comparison: the admin's fleet over March and April stopped 16 + 26 (A) + 10 (C) = 52 h.
+    const admin = indexRaw(
+      await rawFigures(ctx.sequelize, 'fleet', { ability: abilities.admin!, siteIds: allSites(), asOf: FLEET_AS_OF }, [
+        { key: 'both', from: '2026-03', to: '2026-04' },
+      ]),
+    )('fleet', 'both');
+    expect(admin.downtimeHours).toBeCloseTo(52, 9);
   });
 
   it('a site admin sees their site only; a manager of A and C sees A and C', async () => {

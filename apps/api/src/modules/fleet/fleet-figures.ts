@@ -3,7 +3,7 @@ import type { AppAbility } from '@kerfline/domain/authz/ability';
 import { DOWNTIME_CATEGORIES, FAILURE_CATEGORIES, type DowntimeCategory } from '@kerfline/domain/metrics/schema';
 import { REMOVAL_REASONS, type RemovalReason } from '@kerfline/domain/diagnosis/schema';
 import type { MaterialGroup } from '@kerfline/domain/band-speed/schema';
-import { addMonths, monthStart, type Month } from '@kerfline/domain/fleet/period';
+import { addMonths, monthStart, monthsOf, type Month } from '@kerfline/domain/fleet/period';
 import { SqlParams, scopeSql } from '../../authz/sequelize-scope.js';
 import { Site } from '../sites/site.model.js';
 import { Saw } from '../saws/saw.model.js';
@@ -44,6 +44,9 @@ export type FigureScope = {
   asOf: Date;
 };
 
+/** `stops: false` leaves the stops out (all stop figures 0), for a caller that sums them from another level. */
+export type FigureOptions = { stops?: boolean };
+
 /** One group's (fleet, site or saw) raw figures in one bucket, as SQL summed them. */
 export type RawFigures = {
   groupId: string;
@@ -82,7 +85,11 @@ export type MoneyRow = {
 const num = (v: unknown): number => (v === null || v === undefined ? 0 : Number(v));
 const numOrNull = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
 
-/** The sites and saws in scope as CTEs (`sites_in`, `saws_in`), and the saw × bucket windows (`saw_buckets`). */
+/**
+ * The sites and saws in scope as CTEs (`sites_in`, `saws_in`); with buckets, the site × bucket and saw × bucket
+ * bounds (`site_buckets`, `saw_buckets`) and the saw × month windows in service (`saw_months`) with the months of
+ * each bucket (`bucket_months`).
+ */
 function scopeCtes(scope: FigureScope, params: SqlParams, buckets: Bucket[] | null): string {
   const siteScope = scopeSql(scope.ability, 'read', 'Site', Site, 's', params);
   const sawScope = scopeSql(scope.ability, 'read', 'Saw', Saw, 'w', params);
@@ -106,6 +113,29 @@ function scopeCtes(scope: FigureScope, params: SqlParams, buckets: Bucket[] | nu
     const keys = params.add(buckets.map((b) => b.key));
     const starts = params.add(buckets.map((b) => `${monthStart(b.from)} 00:00:00`));
     const ends = params.add(buckets.map((b) => `${monthStart(addMonths(b.to, 1))} 00:00:00`));
+    // Stops and scheduled hours are worked out month by month and summed into the buckets (they add up), so a
+    // year and its months read each stop once.
+    const months = [...new Set(buckets.flatMap((b) => monthsOf(b)))].sort();
+    const pairs = buckets.flatMap((b) => monthsOf(b).map((m) => [b.key, m] as const));
+    const monthKeys = params.add(months);
+    const monthStarts = params.add(months.map((m) => `${monthStart(m)} 00:00:00`));
+    const monthEnds = params.add(months.map((m) => `${monthStart(addMonths(m, 1))} 00:00:00`));
+    const pairBuckets = params.add(pairs.map(([b]) => b));
+    const pairMonths = params.add(pairs.map(([, m]) => m));
+    ctes.push(
+      `months AS (
+        SELECT * FROM unnest(${monthKeys}::text[], ${monthStarts}::timestamp[], ${monthEnds}::timestamp[]) AS m(mkey, m0, m1)
+      )`,
+      `bucket_months AS (
+        SELECT * FROM unnest(${pairBuckets}::text[], ${pairMonths}::text[]) AS bm(key, mkey)
+      )`,
+      `saw_months AS (
+        SELECT w.id AS saw_id, w.site_id, m.mkey,
+               GREATEST(m.m0 AT TIME ZONE s.time_zone, w.in_service_from) AS w0,
+               LEAST(m.m1 AT TIME ZONE s.time_zone, w.retired_at, ${asOf}::timestamptz) AS w1
+          FROM saws_in w JOIN sites_in s ON s.id = w.site_id CROSS JOIN months m
+      )`,
+    );
     ctes.push(
       `buckets AS (
         SELECT * FROM unnest(${keys}::text[], ${starts}::timestamp[], ${ends}::timestamp[]) AS b(key, m0, m1)
@@ -117,9 +147,7 @@ function scopeCtes(scope: FigureScope, params: SqlParams, buckets: Bucket[] | nu
       `saw_buckets AS (
         SELECT w.id AS saw_id, w.site_id, b.key,
                b.m0 AT TIME ZONE s.time_zone AS t0,
-               b.m1 AT TIME ZONE s.time_zone AS t1,
-               GREATEST(b.m0 AT TIME ZONE s.time_zone, w.in_service_from) AS w0,
-               LEAST(b.m1 AT TIME ZONE s.time_zone, w.retired_at, ${asOf}::timestamptz) AS w1
+               b.m1 AT TIME ZONE s.time_zone AS t1
           FROM saws_in w JOIN sites_in s ON s.id = w.site_id CROSS JOIN buckets b
       )`,
     );
@@ -151,18 +179,34 @@ export async function rawFigures(
   level: Level,
   scope: FigureScope,
   buckets: Bucket[],
+  options: FigureOptions = {},
 ): Promise<RawFigures[]> {
   if (scope.siteIds.length === 0 || buckets.length === 0) return [];
+  const { sql, bind } = figuresStatement(level, scope, buckets, options);
+  const rows = await sequelize.query<Record<string, unknown>>(sql, { bind, type: QueryTypes.SELECT });
+  return rows.map(toRawFigures);
+}
+
+/** The statement `rawFigures` runs, with its bound values (the benchmark prints its plan). */
+export function figuresStatement(
+  level: Level,
+  scope: FigureScope,
+  buckets: Bucket[],
+  options: FigureOptions = {},
+): { sql: string; bind: unknown[] } {
   const params = new SqlParams();
   const ctes = scopeCtes(scope, params, buckets);
   const asOf = params.add(scope.asOf);
   const runScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'r', params);
   const stopScope = scopeSql(scope.ability, 'read', 'Stop', Stop, 'p', params);
+  // Without stops the clause is FALSE, so the planner reads none; the scope stays in it for its bound values.
+  const stopFilter = options.stops === false ? `FALSE AND ${stopScope}` : stopScope;
   const g = GROUP_OF[level];
   const sawFilter = scope.sawIds && level !== 'saw' ? ` AND r.saw_id = ANY(${params.add(scope.sawIds)}::uuid[])` : '';
   const categoryColumns = DOWNTIME_CATEGORIES.map(
     (c) => `coalesce(sum(hours) FILTER (WHERE category = '${c}'), 0) AS "stop_${c}"`,
   ).join(',\n             ');
+  const categorySums = DOWNTIME_CATEGORIES.map((c) => `sum(sm."stop_${c}") AS "stop_${c}"`).join(',\n             ');
   const reasonColumns = REMOVAL_REASONS.map(
     (reason) => `count(*) FILTER (WHERE r.removal_reason = '${reason}') AS "reason_${reason}"`,
   ).join(',\n             ');
@@ -176,8 +220,14 @@ export async function rawFigures(
              count(*) FILTER (WHERE r.break_in_followed) AS bi_followed,
              mode() WITHIN GROUP (ORDER BY r.material_group) AS main_material
         FROM ${g.runs} g
-        JOIN blade_runs r ON ${g.runJoin} AND r.installed_at >= g.t0 AND r.installed_at < g.t1
-       WHERE r.installed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
+        CROSS JOIN LATERAL (
+         -- A lateral subquery per site (or saw) and bucket: the index range scan of that bucket's runs;
+         -- OFFSET 0 keeps the planner from flattening it into one scan of the whole table.
+         SELECT r.* FROM blade_runs r
+          WHERE ${g.runJoin} AND r.installed_at >= g.t0 AND r.installed_at < g.t1
+            AND r.installed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
+         OFFSET 0
+       ) r
        GROUP BY 1, 2
     ),
     runs_out AS (
@@ -194,34 +244,51 @@ export async function rawFigures(
              percentile_cont(0.5) WITHIN GROUP (ORDER BY r.area_cut_mm2) FILTER (WHERE r.break_in_followed = false) AS skipped_median,
              ${reasonColumns}
         FROM ${g.runs} g
-        JOIN blade_runs r ON ${g.runJoin} AND r.removed_at >= g.t0 AND r.removed_at < g.t1
-       WHERE r.removed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
+        CROSS JOIN LATERAL (
+         -- A lateral subquery per site (or saw) and bucket: the index range scan of that bucket's runs;
+         -- OFFSET 0 keeps the planner from flattening it into one scan of the whole table.
+         SELECT r.* FROM blade_runs r
+          WHERE ${g.runJoin} AND r.removed_at >= g.t0 AND r.removed_at < g.t1
+            AND r.removed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
+         OFFSET 0
+       ) r
        GROUP BY 1, 2
     ),
     scheduled AS (
-      SELECT ${g.stopGroup} AS gid, g.key,
+      SELECT ${g.stopGroup} AS gid, bm.key,
              sum(GREATEST(0, extract(epoch FROM (g.w1 - g.w0)))) / 3600.0 AS scheduled_h
-        FROM saw_buckets g
+        FROM saw_months g JOIN bucket_months bm ON bm.mkey = g.mkey
        GROUP BY 1, 2
     ),
-    stop_parts AS (
-      SELECT ${g.stopGroup} AS gid, g.key, p.category, p.planned,
-             extract(epoch FROM (LEAST(coalesce(p.ended_at, 'infinity'::timestamptz), g.w1)
-                                 - GREATEST(p.started_at, g.w0))) / 3600.0 AS hours,
-             (p.started_at >= g.w0 AND p.started_at < g.w1) AS began
-        FROM saw_buckets g
-        JOIN stops p ON p.saw_id = g.saw_id
-             AND tstzrange(p.started_at, p.ended_at, '[)') && tstzrange(g.w0, GREATEST(g.w0, g.w1), '[)')
-       WHERE g.w1 > g.w0 AND ${stopScope}
-    ),
-    stopped AS (
-      SELECT gid, key,
+    stop_months AS (
+      -- Each stop clipped to each month of its saw, summed per group and month before the months go into their
+      -- buckets (everything here adds up), so a year's buckets sort months, not stops.
+      SELECT gid, mkey,
              sum(hours) AS downtime_h,
              coalesce(sum(hours) FILTER (WHERE NOT planned), 0) AS unplanned_h,
              count(*) FILTER (WHERE began AND NOT planned AND category IN (${FAILURE_LIST})) AS failures,
              coalesce(sum(hours) FILTER (WHERE NOT planned AND category IN (${FAILURE_LIST})), 0) AS failure_h,
              ${categoryColumns}
-        FROM stop_parts
+        FROM (
+          SELECT ${g.stopGroup} AS gid, g.mkey, p.category, p.planned,
+                 extract(epoch FROM (LEAST(coalesce(p.ended_at, 'infinity'::timestamptz), g.w1)
+                                     - GREATEST(p.started_at, g.w0))) / 3600.0 AS hours,
+                 (p.started_at >= g.w0 AND p.started_at < g.w1) AS began
+            FROM saw_months g
+            JOIN stops p ON p.saw_id = g.saw_id
+                 AND tstzrange(p.started_at, p.ended_at, '[)') && tstzrange(g.w0, GREATEST(g.w0, g.w1), '[)')
+           WHERE g.w1 > g.w0 AND ${stopFilter}
+        ) clipped
+       GROUP BY 1, 2
+    ),
+    stopped AS (
+      SELECT sm.gid, bm.key,
+             sum(sm.downtime_h) AS downtime_h,
+             sum(sm.unplanned_h) AS unplanned_h,
+             sum(sm.failures) AS failures,
+             sum(sm.failure_h) AS failure_h,
+             ${categorySums}
+        FROM stop_months sm JOIN bucket_months bm ON bm.mkey = sm.mkey
        GROUP BY 1, 2
     )
     SELECT ro.*, st.*, ri.blades_used, ri.bi_recorded, ri.bi_followed, ri.main_material, c.scheduled_h,
@@ -230,46 +297,45 @@ export async function rawFigures(
       LEFT JOIN runs_in ri ON ri.gid = c.gid AND ri.key = c.key
       LEFT JOIN runs_out ro ON ro.gid = c.gid AND ro.key = c.key
       LEFT JOIN stopped st ON st.gid = c.gid AND st.key = c.key`;
+  return { sql, bind: params.values };
+}
 
-  const rows = await sequelize.query<Record<string, unknown>>(sql, {
-    bind: params.values,
-    type: QueryTypes.SELECT,
-  });
-  // A site whose saws all lack rows still gets run figures (a site without saws cannot have runs, but a scope
-  // may hide every saw): rows come from the saws' schedule, so a group without saws is reported empty.
-  return rows.map((r) => {
-    const stopHours = Object.fromEntries(DOWNTIME_CATEGORIES.map((c) => [c, num(r[`stop_${c}`])])) as Record<
-      DowntimeCategory,
-      number
-    >;
-    const removalReasons = Object.fromEntries(REMOVAL_REASONS.map((x) => [x, num(r[`reason_${x}`])])) as Record<
-      RemovalReason,
-      number
-    >;
-    return {
-      groupId: String(r.gid),
-      bucket: String(r.key),
-      bladesUsed: num(r.blades_used),
-      breakInRecorded: num(r.bi_recorded),
-      breakInFollowed: num(r.bi_followed),
-      mainMaterial: (r.main_material as MaterialGroup | null) ?? null,
-      bladesRemoved: num(r.blades_removed),
-      bladesWithArea: num(r.blades_with_area),
-      areaCutMm2: num(r.area_mm2),
-      meanLifeMm2: numOrNull(r.mean_life),
-      medianLifeMm2: numOrNull(r.median_life),
-      meanCutsPerBlade: numOrNull(r.mean_cuts),
-      lifeFollowed: { blades: num(r.followed_blades), medianMm2: numOrNull(r.followed_median) },
-      lifeSkipped: { blades: num(r.skipped_blades), medianMm2: numOrNull(r.skipped_median) },
-      removalReasons,
-      scheduledHours: num(r.scheduled_h),
-      downtimeHours: num(r.downtime_h),
-      unplannedStopHours: num(r.unplanned_h),
-      stopHours,
-      failures: num(r.failures),
-      failureDowntimeHours: num(r.failure_h),
-    };
-  });
+/**
+ * One row of the statement as figures. Rows come from the saws' schedule, so a group without saws in the scope
+ * (a site with none, or none the caller may read) gets no row and is reported empty by the caller.
+ */
+function toRawFigures(r: Record<string, unknown>): RawFigures {
+  const stopHours = Object.fromEntries(DOWNTIME_CATEGORIES.map((c) => [c, num(r[`stop_${c}`])])) as Record<
+    DowntimeCategory,
+    number
+  >;
+  const removalReasons = Object.fromEntries(REMOVAL_REASONS.map((x) => [x, num(r[`reason_${x}`])])) as Record<
+    RemovalReason,
+    number
+  >;
+  return {
+    groupId: String(r.gid),
+    bucket: String(r.key),
+    bladesUsed: num(r.blades_used),
+    breakInRecorded: num(r.bi_recorded),
+    breakInFollowed: num(r.bi_followed),
+    mainMaterial: (r.main_material as MaterialGroup | null) ?? null,
+    bladesRemoved: num(r.blades_removed),
+    bladesWithArea: num(r.blades_with_area),
+    areaCutMm2: num(r.area_mm2),
+    meanLifeMm2: numOrNull(r.mean_life),
+    medianLifeMm2: numOrNull(r.median_life),
+    meanCutsPerBlade: numOrNull(r.mean_cuts),
+    lifeFollowed: { blades: num(r.followed_blades), medianMm2: numOrNull(r.followed_median) },
+    lifeSkipped: { blades: num(r.skipped_blades), medianMm2: numOrNull(r.skipped_median) },
+    removalReasons,
+    scheduledHours: num(r.scheduled_h),
+    downtimeHours: num(r.downtime_h),
+    unplannedStopHours: num(r.unplanned_h),
+    stopHours,
+    failures: num(r.failures),
+    failureDowntimeHours: num(r.failure_h),
+  };
 }
 
 /**
@@ -303,15 +369,27 @@ export async function moneyRows(
     SELECT ${group} AS gid, to_char(r.installed_at AT TIME ZONE b.time_zone, 'YYYY-MM') AS month, r.currency,
            'spend' AS kind, sum(r.cost_minor) AS amount
       FROM bounds b
-      JOIN blade_runs r ON r.site_id = b.site_id AND r.installed_at >= b.t0 AND r.installed_at < b.t1
-     WHERE r.installed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
+      CROSS JOIN LATERAL (
+       -- A lateral subquery per site (or saw) and bucket: the index range scan of that bucket's runs;
+       -- OFFSET 0 keeps the planner from flattening it into one scan of the whole table.
+       SELECT r.* FROM blade_runs r
+        WHERE r.site_id = b.site_id AND r.installed_at >= b.t0 AND r.installed_at < b.t1
+          AND r.installed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
+       OFFSET 0
+     ) r
      GROUP BY 1, 2, 3
     UNION ALL
     SELECT ${group}, to_char(r.removed_at AT TIME ZONE b.time_zone, 'YYYY-MM'), r.currency,
            'finished', sum(r.cost_minor)
       FROM bounds b
-      JOIN blade_runs r ON r.site_id = b.site_id AND r.removed_at >= b.t0 AND r.removed_at < b.t1
-     WHERE r.area_cut_mm2 IS NOT NULL AND r.removed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
+      CROSS JOIN LATERAL (
+       -- A lateral subquery per site (or saw) and bucket: the index range scan of that bucket's runs;
+       -- OFFSET 0 keeps the planner from flattening it into one scan of the whole table.
+       SELECT r.* FROM blade_runs r
+        WHERE r.site_id = b.site_id AND r.removed_at >= b.t0 AND r.removed_at < b.t1
+          AND r.area_cut_mm2 IS NOT NULL AND r.removed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
+       OFFSET 0
+     ) r
      GROUP BY 1, 2, 3`;
   const rows = await sequelize.query<{ gid: string; month: string; currency: string; kind: string; amount: unknown }>(
     sql,

@@ -30,6 +30,7 @@ import {
   periodMonths,
   periodStartsBy,
   rateWarnings,
+  withStopsOf,
   type MoneyContext,
 } from './assemble.js';
 import { checksPractice } from './practice-checks.js';
@@ -56,10 +57,17 @@ export async function getOverview(ability: AppAbility, q: FleetQuery, asOf = new
   const buckets: Bucket[] = [...monthBuckets(period), { key: 'current', ...period }, { key: 'previous', ...previous }];
   const [siteRows, fleetRows, money, ctx] = await Promise.all([
     rawFigures(sequelize(), 'site', scope, buckets),
-    rawFigures(sequelize(), 'fleet', scope, [
-      { key: 'current', ...period },
-      { key: 'previous', ...previous },
-    ]),
+    // The fleet's hours are its sites' sums (below): its own statement reads only the runs, for the medians.
+    rawFigures(
+      sequelize(),
+      'fleet',
+      scope,
+      [
+        { key: 'current', ...period },
+        { key: 'previous', ...previous },
+      ],
+      { stops: false },
+    ),
     moneyRows(sequelize(), 'site', scope, previous.from, period.to),
     moneyContext(ability, previous.from, period.to),
   ]);
@@ -79,8 +87,26 @@ export async function getOverview(ability: AppAbility, q: FleetQuery, asOf = new
     })),
     choices,
     fleet: {
-      current: assembleFigures(raw('fleet', 'current'), money, null, months, ctx),
-      previous: assembleFigures(raw('fleet', 'previous'), money, null, previousMonths, ctx),
+      current: assembleFigures(
+        withStopsOf(
+          raw('fleet', 'current'),
+          sites.map((s) => raw(s.id, 'current')),
+        ),
+        money,
+        null,
+        months,
+        ctx,
+      ),
+      previous: assembleFigures(
+        withStopsOf(
+          raw('fleet', 'previous'),
+          sites.map((s) => raw(s.id, 'previous')),
+        ),
+        money,
+        null,
+        previousMonths,
+        ctx,
+      ),
     },
     months: sites.flatMap((site) =>
       months.map((month) => ({

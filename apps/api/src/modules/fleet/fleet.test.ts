@@ -68,6 +68,31 @@ describe('GET /api/fleet/overview', () => {
     expect(siteAdmin.body.sites.map((s: { site: { code: string } }) => s.site.code)).toEqual(['A']);
   });
 
+  it('counts the fleet’s hours as its sites’, only inside the scope and among the sites asked for', async () => {
+    type Side = { scheduledHours: number; downtimeHours: number; failures: number; failureDowntimeHours: number };
+    type Body = { sites: { current: Side; previous: Side }[]; fleet: { current: Side; previous: Side } };
+    const hours = async (agent: supertest.Agent, query: string) => {
+      const body = (await agent.get(`/api/fleet/overview?${query}`).expect(200)).body as Body;
+      for (const side of ['current', 'previous'] as const)
+        for (const key of ['scheduledHours', 'downtimeHours', 'failures', 'failureDowntimeHours'] as const)
+          expect(body.fleet[side][key], `${side} ${key}`).toBeCloseTo(
+            body.sites.reduce((t, s) => t + s[side][key], 0),
+            9,
+          );
+      const f = body.fleet.current;
+      return [f.scheduledHours, f.downtimeHours, f.failures, f.failureDowntimeHours].map(
+        (x) => Math.round(x * 1e6) / 1e6,
+      );
+    };
+    // March and April in Berlin (743 h + 720 h a saw). A: 2 saws all along = 2 926 h; stops 16 h + 26 h; failures
+    // 2 + 1; failure downtime 7 h + 26 h. C: C-1 from 12 Mar 08:00Z, C-2 from 12 Mar 00:00Z = 948 h + 1 440 h =
+    // 2 388 h; SC 10 h, one failure. B's saws came in only now: no hours.
+    expect(await hours(agents.managerAll!, Q)).toEqual([5314, 52, 4, 43]);
+    expect(await hours(agents.leadNorth!, Q)).toEqual([2926, 42, 3, 33]);
+    expect(await hours(agents.managerAll!, `${Q}&sites=${fx.world.sites.C.id}`)).toEqual([2388, 10, 1, 10]);
+    expect(await hours(agents.leadNorth!, `${Q}&sites=${fx.world.sites.C.id}`)).toEqual([0, 0, 0, 0]);
+  });
+
   it('answers a bad period with a 400 that says what to fix', async () => {
     const res = await agents.managerAll!.get('/api/fleet/overview?from=2026-05&to=2026-01').expect(400);
     expect(res.body.error.details).toEqual([{ path: 'to', message: 'The last month must not be before the first' }]);
