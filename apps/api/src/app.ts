@@ -45,6 +45,11 @@ import { siteSummariesRouter } from './modules/site-summaries/site-summaries.rou
 import { DatabasePhotoStorage, type PhotoStorage } from './modules/photos/photo-storage.js';
 import { importsRouter } from './modules/imports/imports.router.js';
 import { DEFAULT_IMPORT_LIMITS, type ImportLimits } from './modules/imports/imports.service.js';
+import { fleetRouter } from './modules/fleet/fleet.router.js';
+import { exchangeRatesRouter } from './modules/exchange-rates/exchange-rates.router.js';
+import { budgetsRouter } from './modules/budgets/budgets.router.js';
+import { outliersRouter } from './modules/outliers/outliers.router.js';
+import { followUpsRouter } from './modules/follow-ups/follow-ups.router.js';
 
 export type AppDeps = {
   sequelize: Sequelize;
@@ -243,6 +248,11 @@ export function createApp(deps: AppDeps): Express {
   api.use(sawTimelineRouter());
   api.use(siteSummariesRouter());
   api.use(importsRouter(deps.importLimits ?? DEFAULT_IMPORT_LIMITS));
+  api.use(fleetRouter());
+  api.use(exchangeRatesRouter());
+  api.use(budgetsRouter());
+  api.use(outliersRouter());
+  api.use(followUpsRouter());
   api.use(notFoundHandler);
   app.use('/api', api);
 
