@@ -115,7 +115,7 @@ export const figuresSchema = z.object({
   mtbfHours: z.number().nullable(),
   mttrHours: z.number().nullable(),
   /** Operational availability (IEC 60050-192), 0–1; null without scheduled time. */
-  availability: z.number().nullable(),
+  operationalAvailability: z.number().nullable(),
   /** Runs installed in the bucket whose break-in was recorded, and of those the ones that followed it. */
   breakInRecorded: z.number().int(),
   breakInFollowed: z.number().int(),

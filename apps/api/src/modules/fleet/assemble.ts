@@ -115,7 +115,7 @@ export function assembleFigures(
     failureDowntimeHours: raw.failureDowntimeHours,
     mtbfHours: raw.failures > 0 ? uptimeHours / raw.failures : null,
     mttrHours: raw.failures > 0 ? raw.failureDowntimeHours / raw.failures : null,
-    availability: raw.scheduledHours > 0 ? uptimeHours / raw.scheduledHours : null,
+    operationalAvailability: raw.scheduledHours > 0 ? uptimeHours / raw.scheduledHours : null,
     breakInRecorded: raw.breakInRecorded,
     breakInFollowed: raw.breakInFollowed,
   };

@@ -86,7 +86,7 @@ function figureCells(f: Figures, currency: string, units: UnitSystem): unknown[]
     f.failures,
     f.mtbfHours,
     f.mttrHours,
-    f.availability === null ? null : f.availability * 100,
+    f.operationalAvailability === null ? null : f.operationalAvailability * 100,
     f.breakInRecorded,
     f.breakInFollowed,
   ];

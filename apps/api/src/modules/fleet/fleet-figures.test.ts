@@ -102,7 +102,7 @@ describe('fleet figures on a hand-built fixture (numbers worked out by hand)', (
     // MTBF 1 470 / 2 = 735 h; MTTR 7 / 2 = 3.5 h; availability 1 470 / 1 486 = 0.98923…
     expect(f.mtbfHours).toBeCloseTo(735, 9);
     expect(f.mttrHours).toBeCloseTo(3.5, 9);
-    expect(f.availability).toBeCloseTo(1470 / 1486, 12);
+    expect(f.operationalAvailability).toBeCloseTo(1470 / 1486, 12);
   });
 
   it('site A in April 2026: an open stop runs to the end of the month; months add up', async () => {
@@ -225,8 +225,8 @@ describe('the SQL agrees with the domain functions on the same records', () => {
         else expect(sql.mtbfHours, label).toBeCloseTo(r.mtbfHours, 9);
         if (r?.mttrHours == null) expect(sql.mttrHours, label).toBeNull();
         else expect(sql.mttrHours, label).toBeCloseTo(r.mttrHours, 9);
-        if (r?.operationalAvailability == null) expect(sql.availability, label).toBeNull();
-        else expect(sql.availability, label).toBeCloseTo(r.operationalAvailability, 12);
+        if (r?.operationalAvailability == null) expect(sql.operationalAvailability, label).toBeNull();
+        else expect(sql.operationalAvailability, label).toBeCloseTo(r.operationalAvailability, 12);
         // Blade life over finished blades with area (and cuts, for the mean cuts).
         const areas = domain.finished.map((x) => ({ areaCutMm2: x.areaCutMm2!, cuts: 0, removed: true }));
         const life = bladeLife(areas);

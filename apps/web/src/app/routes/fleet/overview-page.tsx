@@ -11,6 +11,7 @@ import { useAppAbility } from '../../../lib/ability';
 import { ExportButton } from '../../../lib/ui/export-button';
 import { Notice } from '../../../lib/ui/notice';
 import { Button } from '../../../lib/ui/button';
+import { FiguresExplained } from '../../../features/fleet/components/figures-explained';
 
 /** Starts the overview's one request as the page's code loads; the page shows its own loading and error states. */
 export function overviewLoader(queryClient: QueryClient) {
@@ -120,6 +121,7 @@ export function OverviewPage() {
         units={units}
         query={query}
       />
+      <FiguresExplained />
     </div>
   );
 }

@@ -21,6 +21,7 @@ import { Card } from '../../../lib/ui/card';
 import { ExportButton } from '../../../lib/ui/export-button';
 import { Notice } from '../../../lib/ui/notice';
 import { Pager } from '../../../lib/ui/pager';
+import { FiguresExplained } from '../../../features/fleet/components/figures-explained';
 
 const runsQueryOf = (search: URLSearchParams) => {
   const q = periodQueryFromSearch(search);
@@ -164,6 +165,7 @@ export function SawFiguresPage() {
           </p>
         )}
       </Card>
+      <FiguresExplained />
     </div>
   );
 }

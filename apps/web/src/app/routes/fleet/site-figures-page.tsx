@@ -13,6 +13,7 @@ import { useAppAbility } from '../../../lib/ability';
 import { Card } from '../../../lib/ui/card';
 import { ExportButton } from '../../../lib/ui/export-button';
 import { Notice } from '../../../lib/ui/notice';
+import { FiguresExplained } from '../../../features/fleet/components/figures-explained';
 
 export function siteFiguresLoader(queryClient: QueryClient) {
   return ({ params, request }: LoaderFunctionArgs) => {
@@ -88,6 +89,7 @@ export function SiteFiguresPage() {
         status={data ? 'success' : result.isError ? 'error' : 'pending'}
         onRetry={() => void result.refetch()}
       />
+      <FiguresExplained />
     </div>
   );
 }

@@ -16,6 +16,7 @@ import { Button } from '../../../lib/ui/button';
 import { Card } from '../../../lib/ui/card';
 import { ExportButton } from '../../../lib/ui/export-button';
 import { Notice } from '../../../lib/ui/notice';
+import { FiguresExplained } from '../../../features/fleet/components/figures-explained';
 
 /** The lead's look-back: the last six whole months unless the address says otherwise. */
 const queryOf = (search: URLSearchParams) => fleetQueryFromSearch(search, 6);
@@ -148,6 +149,7 @@ export function OutliersPage() {
           </details>
         </Card>
       ) : null}
+      <FiguresExplained />
     </div>
   );
 }

@@ -48,9 +48,9 @@ export function FleetTotals({
       change: p && changeOf(current.medianLifeMm2, p.medianLifeMm2, 'up'),
     },
     {
-      label: 'Availability',
-      value: percentText(current.availability),
-      change: p && pointsChangeOf(current.availability, p.availability, 'up'),
+      label: 'Operational availability',
+      value: percentText(current.operationalAvailability),
+      change: p && pointsChangeOf(current.operationalAvailability, p.operationalAvailability, 'up'),
     },
     { label: 'MTBF', value: hoursText(current.mtbfHours), change: p && changeOf(current.mtbfHours, p.mtbfHours, 'up') },
     {

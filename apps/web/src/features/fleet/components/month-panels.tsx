@@ -68,7 +68,7 @@ export function MonthPanel({
             'Blade life (median)',
             'Stop hours',
             'Failures',
-            'Availability',
+            'Operational availability',
           ],
           rows: months.map((m) => ({
             key: m.month,
@@ -80,7 +80,7 @@ export function MonthPanel({
               lifeText(m.figures.medianLifeMm2, units),
               hoursText(m.figures.downtimeHours),
               formatNumber(m.figures.failures),
-              percentText(m.figures.availability),
+              percentText(m.figures.operationalAvailability),
             ],
           })),
         }

@@ -86,10 +86,10 @@ export function SawFiguresTable({
       header: 'Failures',
       cell: (i) => formatNumber(i.getValue()),
     }),
-    col.accessor((r) => r.figures.availability ?? -1, {
+    col.accessor((r) => r.figures.operationalAvailability ?? -1, {
       id: 'availability',
-      header: 'Availability',
-      cell: (i) => percentText(i.row.original.figures.availability),
+      header: 'Operational availability',
+      cell: (i) => percentText(i.row.original.figures.operationalAvailability),
     }),
   ];
   // eslint-disable-next-line react-hooks/incompatible-library

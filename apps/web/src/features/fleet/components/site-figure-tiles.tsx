@@ -88,9 +88,9 @@ export function SiteFigureTiles({
                 against={previousLabel}
               />
               <Figure
-                label="Availability"
-                value={percentText(current.availability)}
-                change={pointsChangeOf(current.availability, previous.availability, 'up')}
+                label="Operational availability"
+                value={percentText(current.operationalAvailability)}
+                change={pointsChangeOf(current.operationalAvailability, previous.operationalAvailability, 'up')}
                 against={previousLabel}
               />
               <Figure
