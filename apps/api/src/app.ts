@@ -36,6 +36,7 @@ import { QUEUES, type Jobs } from './jobs/jobs.js';
 import { bladeSpecsRouter } from './modules/blade-specs/blade-specs.router.js';
 import { bladeStockRouter } from './modules/blade-stock/blade-stock.router.js';
 import { bladeRunsRouter } from './modules/blade-runs/blade-runs.router.js';
+import { noticeIfBelowReorderPoint } from './jobs/low-stock.js';
 import { stopsRouter } from './modules/stops/stops.router.js';
 import { cutLogsRouter } from './modules/cut-logs/cut-logs.router.js';
 import { photosRouter } from './modules/photos/photos.router.js';
@@ -240,7 +241,9 @@ export function createApp(deps: AppDeps): Express {
   );
   api.use(bladeSpecsRouter());
   api.use(bladeStockRouter());
-  api.use(bladeRunsRouter());
+  api.use(
+    bladeRunsRouter((actor, siteId, specId) => noticeIfBelowReorderPoint(deps.jobs, actor.ability, siteId, specId)),
+  );
   api.use(stopsRouter());
   api.use(cutLogsRouter());
   api.use(photosRouter(deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize)));
