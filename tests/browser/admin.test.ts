@@ -95,10 +95,10 @@ describe('an administrator sets up a new plant', () => {
     await page.getByLabel('E-mail').fill(techEmail);
     await page.getByLabel('Password').fill(techPassword);
     await page.getByRole('button', { name: /sign in/i }).click();
-    // One site: the new technician starts from its work today (no saws yet), and their site is one tap away.
+    // One site: the new technician starts from its day's work, which has no saws yet.
     await page.waitForURL('**/today');
-    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Today');
-    expect(await page.getByText(siteName).count()).toBeGreaterThan(0);
+    await expect.poll(() => page.getByText(siteName, { exact: true }).count()).toBeGreaterThan(0);
+    await expect.poll(() => page.getByText('No saw is running.').count()).toBe(1);
     await page.goto(siteUrl);
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe(siteName);
     await expect.poll(() => page.getByText('No saws are recorded at this site yet.').count()).toBe(1);

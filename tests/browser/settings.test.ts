@@ -92,7 +92,7 @@ describe('from a saw to its figures, on a phone', () => {
   it('opens the check targets for the band on the saw, in inches, with the answer above the cautions', async () => {
     const { context, page } = await newPage(browser, PHONE);
     await signIn(page, DEMO.technician);
-    // The start screen lists every saw at the site.
+    // From the technician's start screen, where every saw in service is one tap away.
     await page.waitForURL('**/today');
     // The offcut saw: a 1 x .035 band, its head fed by gravity against a spring.
     await page
