@@ -115,6 +115,15 @@ const CREATE = (ok: number, tech = false): Expect => ({
   tech: [tech ? ok : 403, 400, 400],
   anon: 401,
 });
+/** A region's (North holds A and B): administrators change it; readers of it 403, everyone else 404. */
+const REGION_ADMIN: Expect = {
+  admin: each(200),
+  manager: [403, 403, 404],
+  lead: [403, 403, 404],
+  siteAdmin: [403, 403, 404],
+  tech: [403, 403, 404],
+  anon: 401,
+};
 /** A list filtered by site: never an error, simply nothing outside the scope (checked by the leak check). */
 const LIST: Expect = {
   admin: 200,
@@ -413,8 +422,19 @@ async function sameSites(shown: string[], role: Role): Promise<string | undefine
 }
 
 // ---------------------------------------------------------------- the table
+/** One route: its expected status per role, where it is asked, and the request for a scope. */
+const row = (
+  route: string,
+  expect: Expect,
+  scopes: Row['scopes'],
+  req: Row['req'],
+  more: Pick<Row, 'emptyFor' | 'check' | 'total' | 'after'> = {},
+): Row => ({ route, expect, scopes, req, ...more });
 const get = (url: string): Req => ({ method: 'GET', url });
 const post = (url: string, body: unknown = {}): Req => ({ method: 'POST', url, body });
+const patch = (url: string, body: unknown): Req => ({ method: 'PATCH', url, body });
+const put = (url: string, body: unknown): Req => ({ method: 'PUT', url, body });
+const del = (url: string): Req => ({ method: 'DELETE', url });
 const listUrl = (path: string, s: Scope, extraQuery = '') => {
   const q = [s === '*' ? '' : `siteId=${site(codeOf(s)).id}`, extraQuery].filter(Boolean).join('&');
   return q ? `${path}?${q}` : path;
@@ -423,725 +443,342 @@ const saw0 = (s: Scope) => world.saws[codeOf(s)]![0]!.id;
 
 const TABLE: Row[] = [
   // Public and one's own
-  { route: 'GET /api/health', expect: ANYONE(200), scopes: 'none', req: () => get('/api/health') },
+  row('GET /api/health', ANYONE(200), 'none', () => get('/api/health')),
   // A malformed body is refused before anything is counted, signed in or not.
-  {
-    route: 'POST /api/auth/sign-in',
-    expect: ANYONE(400),
-    scopes: 'none',
-    req: () => post('/api/auth/sign-in', {}),
-  },
-  {
-    route: 'POST /api/auth/sign-out',
-    // Signing out without a session is harmless, so nobody is refused.
-    expect: ANYONE(204),
-    scopes: 'none',
-    req: () => post('/api/auth/sign-out'),
+  row('POST /api/auth/sign-in', ANYONE(400), 'none', () => post('/api/auth/sign-in', {})),
+  // Signing out without a session is harmless, so nobody is refused.
+  row('POST /api/auth/sign-out', ANYONE(204), 'none', () => post('/api/auth/sign-out'), {
     after: async (_s, role) => {
       if (role !== 'anon') agents[role] = await signedInAgent(ctx.app, EMAIL[role], PASSWORD);
     },
-  },
-  {
-    route: 'POST /api/auth/password-reset/request',
-    expect: ANYONE(202),
-    scopes: 'none',
-    req: (_s, role) => post('/api/auth/password-reset/request', { email: `nobody-${role}@test.example` }),
-  },
-  {
-    route: 'POST /api/auth/password-reset',
-    expect: ANYONE(400),
-    scopes: 'none',
-    req: () => post('/api/auth/password-reset', {}),
-  },
-  { route: 'GET /api/me', expect: SIGNED_IN(), scopes: 'none', req: () => get('/api/me') },
+  }),
+  row('POST /api/auth/password-reset/request', ANYONE(202), 'none', (_s, role) =>
+    post('/api/auth/password-reset/request', { email: `nobody-${role}@test.example` }),
+  ),
+  row('POST /api/auth/password-reset', ANYONE(400), 'none', () => post('/api/auth/password-reset', {})),
+  row('GET /api/me', SIGNED_IN(), 'none', () => get('/api/me')),
   // Refused for its body, after the session is checked: a change of password is one's own.
-  { route: 'POST /api/me/password', expect: SIGNED_IN(400), scopes: 'none', req: () => post('/api/me/password') },
-  {
-    route: 'GET /api/me/mail-preferences',
-    expect: SIGNED_IN(),
-    scopes: 'none',
-    req: () => get('/api/me/mail-preferences'),
-  },
-  {
-    route: 'PATCH /api/me/mail-preferences',
-    expect: SIGNED_IN(400),
-    scopes: 'none',
-    req: () => ({ method: 'PATCH', url: '/api/me/mail-preferences', body: {} }),
-  },
+  row('POST /api/me/password', SIGNED_IN(400), 'none', () => post('/api/me/password')),
+  row('GET /api/me/mail-preferences', SIGNED_IN(), 'none', () => get('/api/me/mail-preferences')),
+  row('PATCH /api/me/mail-preferences', SIGNED_IN(400), 'none', () => patch('/api/me/mail-preferences', {})),
 
   // Invitations
-  {
-    route: 'POST /api/invitations/preview',
-    expect: ANYONE(400),
-    scopes: 'none',
-    req: () => post('/api/invitations/preview'),
-  },
-  {
-    route: 'POST /api/invitations/accept',
-    expect: ANYONE(400),
-    scopes: 'none',
-    req: () => post('/api/invitations/accept'),
-  },
-  {
-    route: 'GET /api/invitations',
-    expect: LIST,
+  row('POST /api/invitations/preview', ANYONE(400), 'none', () => post('/api/invitations/preview')),
+  row('POST /api/invitations/accept', ANYONE(400), 'none', () => post('/api/invitations/accept')),
+  row('GET /api/invitations', LIST, 'list', (s) => get(listUrl('/api/invitations', s)), {
     emptyFor: ['manager', 'lead', 'tech'],
-    scopes: 'list',
-    req: (s) => get(listUrl('/api/invitations', s)),
-  },
-  {
-    route: 'POST /api/invitations',
-    // The same refusal whether or not the site is the caller's to see: it names no site.
-    expect: { ...ADMIN_ONLY(201), siteAdmin: [201, 403, 403] },
-    scopes: 'site',
-    req: (s) =>
-      post('/api/invitations', { email: `i-${next()}@test.example`, role: 'technician', siteId: site(codeOf(s)).id }),
-  },
-  {
-    route: 'POST /api/invitations/:id/resend',
-    expect: ADMINS(),
-    scopes: 'site',
-    req: async (s) => post(`/api/invitations/${await freshInvitation(codeOf(s))}/resend`),
-  },
-  {
-    route: 'POST /api/invitations/:id/revoke',
-    expect: ADMINS(),
-    scopes: 'site',
-    req: async (s) => post(`/api/invitations/${await freshInvitation(codeOf(s))}/revoke`),
-  },
+  }),
+  // The same refusal whether or not the site is the caller's to see: it names no site.
+  row('POST /api/invitations', { ...ADMIN_ONLY(201), siteAdmin: [201, 403, 403] }, 'site', (s) =>
+    post('/api/invitations', { email: `i-${next()}@test.example`, role: 'technician', siteId: site(codeOf(s)).id }),
+  ),
+  row('POST /api/invitations/:id/resend', ADMINS(), 'site', async (s) =>
+    post(`/api/invitations/${await freshInvitation(codeOf(s))}/resend`),
+  ),
+  row('POST /api/invitations/:id/revoke', ADMINS(), 'site', async (s) =>
+    post(`/api/invitations/${await freshInvitation(codeOf(s))}/revoke`),
+  ),
 
   // Regions and sites (a region's scope: A and B are in North, C in South)
-  { route: 'GET /api/regions', expect: SIGNED_IN(), scopes: 'none', req: () => get('/api/regions') },
-  {
-    route: 'POST /api/regions',
-    expect: ADMIN_ONLY(201),
-    scopes: 'none',
-    req: () => post('/api/regions', { name: `Region ${next()}` }),
-  },
-  {
-    route: 'PATCH /api/regions/:id',
-    expect: {
-      ...ADMIN_AT_SITE(),
-      lead: [403, 403, 404],
-      siteAdmin: [403, 403, 404],
-      tech: [403, 403, 404],
-      manager: [403, 403, 404],
-    },
-    scopes: 'site',
-    req: (s) => ({
-      method: 'PATCH',
-      url: `/api/regions/${region(codeOf(s)).id}`,
-      body: { name: region(codeOf(s)).name },
+  row('GET /api/regions', SIGNED_IN(), 'none', () => get('/api/regions')),
+  row('POST /api/regions', ADMIN_ONLY(201), 'none', () => post('/api/regions', { name: `Region ${next()}` })),
+  row('PATCH /api/regions/:id', REGION_ADMIN, 'site', (s) =>
+    patch(`/api/regions/${region(codeOf(s)).id}`, { name: region(codeOf(s)).name }),
+  ),
+  row('GET /api/sites', SIGNED_IN(), 'none', () => get('/api/sites?includeRetired=true')),
+  row('GET /api/sites/:id', READ(), 'site', (s) => get(`/api/sites/${site(codeOf(s)).id}`)),
+  row('POST /api/sites', ADMIN_ONLY(201), 'site', (s) =>
+    post('/api/sites', {
+      code: `N${serial++}`,
+      name: `New site ${next()}`,
+      timeZone: 'Europe/Berlin',
+      currency: 'EUR',
+      unitSystem: 'metric',
+      regionId: region(codeOf(s)).id,
     }),
-  },
-  {
-    route: 'GET /api/sites',
-    expect: SIGNED_IN(),
-    scopes: 'none',
-    req: () => get('/api/sites?includeRetired=true'),
-  },
-  { route: 'GET /api/sites/:id', expect: READ(), scopes: 'site', req: (s) => get(`/api/sites/${site(codeOf(s)).id}`) },
-  {
-    route: 'POST /api/sites',
-    expect: ADMIN_ONLY(201),
-    scopes: 'site',
-    req: (s) =>
-      post('/api/sites', {
-        code: `N${serial++}`,
-        name: `New site ${next()}`,
-        timeZone: 'Europe/Berlin',
-        currency: 'EUR',
-        unitSystem: 'metric',
-        regionId: region(codeOf(s)).id,
-      }),
-  },
-  {
-    route: 'PATCH /api/sites/:id',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: (s) => ({ method: 'PATCH', url: `/api/sites/${site(codeOf(s)).id}`, body: { city: 'Oldmoor' } }),
-  },
-  {
-    route: 'POST /api/sites/:id/retire',
-    expect: ADMIN_AT_SITE(),
-    scopes: 'site',
-    req: (s) => post(`/api/sites/${site(codeOf(s)).id}/retire`),
+  ),
+  row('PATCH /api/sites/:id', SITE_ADMIN(), 'site', (s) =>
+    patch(`/api/sites/${site(codeOf(s)).id}`, { city: 'Oldmoor' }),
+  ),
+  row('POST /api/sites/:id/retire', ADMIN_AT_SITE(), 'site', (s) => post(`/api/sites/${site(codeOf(s)).id}/retire`), {
     after: async (s) => {
       await Site.update({ retiredAt: null }, { where: { id: site(codeOf(s)).id } });
     },
-  },
-  {
-    route: 'POST /api/sites/:id/restore',
-    expect: ADMIN_AT_SITE(),
-    scopes: 'site',
-    req: async (s) => {
+  }),
+  row(
+    'POST /api/sites/:id/restore',
+    ADMIN_AT_SITE(),
+    'site',
+    async (s) => {
       await Site.update({ retiredAt: new Date() }, { where: { id: site(codeOf(s)).id } });
       return post(`/api/sites/${site(codeOf(s)).id}/restore`);
     },
-    after: async (s) => {
-      await Site.update({ retiredAt: null }, { where: { id: site(codeOf(s)).id } });
+    {
+      after: async (s) => {
+        await Site.update({ retiredAt: null }, { where: { id: site(codeOf(s)).id } });
+      },
     },
-  },
-  {
-    route: 'GET /api/sites/:siteId/settings',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/sites/${site(codeOf(s)).id}/settings`),
-  },
-  {
-    route: 'PUT /api/sites/:siteId/settings/:key',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: (s) => ({
-      method: 'PUT',
-      url: `/api/sites/${site(codeOf(s)).id}/settings/guide_clearance`,
-      body: { value: { extraClearanceMm: 0.03, toleranceMm: 0.03 } },
+  ),
+  row('GET /api/sites/:siteId/settings', READ(), 'site', (s) => get(`/api/sites/${site(codeOf(s)).id}/settings`)),
+  row('PUT /api/sites/:siteId/settings/:key', SITE_ADMIN(), 'site', (s) =>
+    put(`/api/sites/${site(codeOf(s)).id}/settings/guide_clearance`, {
+      value: { extraClearanceMm: 0.03, toleranceMm: 0.03 },
     }),
-  },
-  {
-    route: 'DELETE /api/sites/:siteId/settings/:key',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: (s) => ({ method: 'DELETE', url: `/api/sites/${site(codeOf(s)).id}/settings/guide_clearance` }),
-  },
+  ),
+  row('DELETE /api/sites/:siteId/settings/:key', SITE_ADMIN(), 'site', (s) =>
+    del(`/api/sites/${site(codeOf(s)).id}/settings/guide_clearance`),
+  ),
 
   // Saws
-  {
-    route: 'GET /api/saws',
-    expect: LIST,
-    scopes: 'list',
-    req: (s) => get(listUrl('/api/saws', s)),
+  row('GET /api/saws', LIST, 'list', (s) => get(listUrl('/api/saws', s)), {
     total: `saws WHERE status <> 'retired' AND site_id IN (:sites)`,
-  },
-  { route: 'GET /api/saws/:id', expect: READ(), scopes: 'site', req: (s) => get(`/api/saws/${saw0(s)}`) },
-  {
-    route: 'POST /api/saws',
-    expect: CREATE(201),
-    scopes: 'site',
-    req: (s) => post('/api/saws', sawBody(site(codeOf(s)).id, { assetTag: `N-${next()}` })),
-  },
-  {
-    route: 'PATCH /api/saws/:id',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: async (s) => ({
-      method: 'PATCH',
-      url: `/api/saws/${(await freshSaw(codeOf(s))).id}`,
-      body: { name: 'Renamed' },
-    }),
-  },
-  {
-    route: 'POST /api/saws/:id/retire',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: async (s) => post(`/api/saws/${(await freshSaw(codeOf(s))).id}/retire`),
-  },
-  {
-    route: 'POST /api/saws/:id/restore',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: async (s) => post(`/api/saws/${(await freshSaw(codeOf(s), true)).id}/restore`),
-  },
+  }),
+  row('GET /api/saws/:id', READ(), 'site', (s) => get(`/api/saws/${saw0(s)}`)),
+  row('POST /api/saws', CREATE(201), 'site', (s) =>
+    post('/api/saws', sawBody(site(codeOf(s)).id, { assetTag: `N-${next()}` })),
+  ),
+  row('PATCH /api/saws/:id', SITE_ADMIN(), 'site', async (s) =>
+    patch(`/api/saws/${(await freshSaw(codeOf(s))).id}`, { name: 'Renamed' }),
+  ),
+  row('POST /api/saws/:id/retire', SITE_ADMIN(), 'site', async (s) =>
+    post(`/api/saws/${(await freshSaw(codeOf(s))).id}/retire`),
+  ),
+  row('POST /api/saws/:id/restore', SITE_ADMIN(), 'site', async (s) =>
+    post(`/api/saws/${(await freshSaw(codeOf(s), true)).id}/restore`),
+  ),
 
   // People
-  {
-    route: 'GET /api/users',
-    // Everyone reads themselves; only administrators and site admins read others (checked by the leak check).
-    expect: LIST,
-    scopes: 'list',
-    req: (s) => get(listUrl('/api/users', s)),
-  },
-  {
-    route: 'GET /api/users/:id',
-    expect: ADMINS(),
-    scopes: 'site',
-    req: (s) => get(`/api/users/${extra[codeOf(s)].userId}`),
-  },
-  {
-    route: 'POST /api/users',
-    expect: ADMIN_ONLY(201),
-    scopes: 'site',
-    req: (s) =>
-      post('/api/users', {
-        email: `u-${next()}@test.example`,
-        name: 'New person',
-        password: 'plinth-orbit-harbour-kettle',
-        role: 'technician',
-        siteId: site(codeOf(s)).id,
-      }),
-  },
-  {
-    route: 'PATCH /api/users/:id',
-    expect: ADMINS(),
-    scopes: 'site',
-    req: async (s) => ({
-      method: 'PATCH',
-      url: `/api/users/${(await freshUser(codeOf(s))).id}`,
-      body: { name: 'Renamed' },
+  // Everyone reads themselves; only administrators and site admins read others (checked by the leak check).
+  row('GET /api/users', LIST, 'list', (s) => get(listUrl('/api/users', s))),
+  row('GET /api/users/:id', ADMINS(), 'site', (s) => get(`/api/users/${extra[codeOf(s)].userId}`)),
+  row('POST /api/users', ADMIN_ONLY(201), 'site', (s) =>
+    post('/api/users', {
+      email: `u-${next()}@test.example`,
+      name: 'New person',
+      password: 'plinth-orbit-harbour-kettle',
+      role: 'technician',
+      siteId: site(codeOf(s)).id,
     }),
-  },
-  {
-    route: 'POST /api/users/:id/deactivate',
-    expect: ADMINS(),
-    scopes: 'site',
-    req: async (s) => post(`/api/users/${(await freshUser(codeOf(s))).id}/deactivate`),
-  },
-  {
-    route: 'POST /api/users/:id/reactivate',
-    expect: ADMINS(),
-    scopes: 'site',
-    req: async (s) => post(`/api/users/${(await freshUser(codeOf(s), false)).id}/reactivate`),
-  },
-  {
-    route: 'GET /api/audit',
-    expect: LIST,
-    emptyFor: ['manager', 'lead', 'tech'],
-    scopes: 'list',
-    req: (s) => get(listUrl('/api/audit', s)),
-  },
+  ),
+  row('PATCH /api/users/:id', ADMINS(), 'site', async (s) =>
+    patch(`/api/users/${(await freshUser(codeOf(s))).id}`, { name: 'Renamed' }),
+  ),
+  row('POST /api/users/:id/deactivate', ADMINS(), 'site', async (s) =>
+    post(`/api/users/${(await freshUser(codeOf(s))).id}/deactivate`),
+  ),
+  row('POST /api/users/:id/reactivate', ADMINS(), 'site', async (s) =>
+    post(`/api/users/${(await freshUser(codeOf(s), false)).id}/reactivate`),
+  ),
+  row('GET /api/audit', LIST, 'list', (s) => get(listUrl('/api/audit', s)), { emptyFor: ['manager', 'lead', 'tech'] }),
 
   // Mail
-  {
-    route: 'GET /api/mail-log',
-    expect: SIGNED_IN(),
+  row('GET /api/mail-log', SIGNED_IN(), 'none', () => get('/api/mail-log'), {
     emptyFor: ['manager', 'lead', 'siteAdmin', 'tech'],
-    scopes: 'none',
-    req: () => get('/api/mail-log'),
-  },
-  { route: 'GET /api/outbox', expect: ADMIN_ONLY(), scopes: 'none', req: () => get('/api/outbox') },
-  {
-    route: 'POST /api/mail/schedules/:schedule/run',
-    expect: ADMIN_ONLY(202),
-    scopes: 'none',
-    req: () => post('/api/mail/schedules/weekly-digest/run'),
-  },
+  }),
+  row('GET /api/outbox', ADMIN_ONLY(), 'none', () => get('/api/outbox')),
+  row('POST /api/mail/schedules/:schedule/run', ADMIN_ONLY(202), 'none', () =>
+    post('/api/mail/schedules/weekly-digest/run'),
+  ),
 
   // Blade specs (the fleet catalogue is read by everyone; a site's own specs by its readers)
-  {
-    route: 'GET /api/blade-specs',
-    expect: LIST,
-    scopes: 'list',
-    req: (s) => get(listUrl('/api/blade-specs', s)),
-  },
-  {
-    route: 'GET /api/blade-specs/:id',
-    expect: READ(),
-    scopes: 'site',
-    req: async (s) => get(`/api/blade-specs/${(await freshSpec(codeOf(s))).id}`),
-  },
-  {
-    route: 'POST /api/blade-specs',
-    expect: CREATE(201),
-    scopes: 'site',
-    req: (s) => post('/api/blade-specs', specBody(site(codeOf(s)).id)),
-  },
-  {
-    route: 'PATCH /api/blade-specs/:id',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: async (s) => ({
-      method: 'PATCH',
-      url: `/api/blade-specs/${(await freshSpec(codeOf(s))).id}`,
-      body: { archived: true },
-    }),
-  },
-  {
-    route: 'DELETE /api/blade-specs/:id',
-    expect: SITE_ADMIN(204),
-    scopes: 'site',
-    req: async (s) => ({ method: 'DELETE', url: `/api/blade-specs/${(await freshSpec(codeOf(s))).id}` }),
-  },
+  row('GET /api/blade-specs', LIST, 'list', (s) => get(listUrl('/api/blade-specs', s))),
+  row('GET /api/blade-specs/:id', READ(), 'site', async (s) =>
+    get(`/api/blade-specs/${(await freshSpec(codeOf(s))).id}`),
+  ),
+  row('POST /api/blade-specs', CREATE(201), 'site', (s) => post('/api/blade-specs', specBody(site(codeOf(s)).id))),
+  row('PATCH /api/blade-specs/:id', SITE_ADMIN(), 'site', async (s) =>
+    patch(`/api/blade-specs/${(await freshSpec(codeOf(s))).id}`, { archived: true }),
+  ),
+  row('DELETE /api/blade-specs/:id', SITE_ADMIN(204), 'site', async (s) =>
+    del(`/api/blade-specs/${(await freshSpec(codeOf(s))).id}`),
+  ),
 
   // Stock
-  {
-    route: 'GET /api/stock-receipts',
-    expect: LIST,
-    scopes: 'list',
-    req: (s) => get(listUrl('/api/stock-receipts', s)),
+  row('GET /api/stock-receipts', LIST, 'list', (s) => get(listUrl('/api/stock-receipts', s)), {
     total: `stock_receipts WHERE site_id IN (:sites)`,
-  },
-  {
-    route: 'GET /api/stock-receipts/:id',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/stock-receipts/${records[codeOf(s)].receipt.id}`),
-  },
-  {
-    route: 'POST /api/stock-receipts',
-    expect: CREATE(201),
-    scopes: 'site',
-    req: (s) =>
-      post('/api/stock-receipts', {
-        siteId: site(codeOf(s)).id,
-        bladeSpecId: records.fleetSpec.id,
-        quantity: 1,
-        unitCostMinor: 6000,
-        receivedOn: '2026-02-01',
-      }),
-  },
-  {
-    route: 'PATCH /api/stock-receipts/:id',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: async (s) => ({
-      method: 'PATCH',
-      url: `/api/stock-receipts/${(await freshReceipt(codeOf(s))).id}`,
-      body: { quantity: 3 },
+  }),
+  row('GET /api/stock-receipts/:id', READ(), 'site', (s) =>
+    get(`/api/stock-receipts/${records[codeOf(s)].receipt.id}`),
+  ),
+  row('POST /api/stock-receipts', CREATE(201), 'site', (s) =>
+    post('/api/stock-receipts', {
+      siteId: site(codeOf(s)).id,
+      bladeSpecId: records.fleetSpec.id,
+      quantity: 1,
+      unitCostMinor: 6000,
+      receivedOn: '2026-02-01',
     }),
-  },
-  {
-    route: 'DELETE /api/stock-receipts/:id',
-    expect: SITE_ADMIN(204),
-    scopes: 'site',
-    req: async (s) => ({ method: 'DELETE', url: `/api/stock-receipts/${(await freshReceipt(codeOf(s))).id}` }),
-  },
-  {
-    route: 'GET /api/sites/:id/stock',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/sites/${site(codeOf(s)).id}/stock`),
-  },
-  {
-    route: 'GET /api/sites/:id/stock/movements',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/sites/${site(codeOf(s)).id}/stock/movements`),
-  },
-  {
-    route: 'PUT /api/sites/:id/stock/:bladeSpecId/levels',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: (s) => ({
-      method: 'PUT',
-      url: `/api/sites/${site(codeOf(s)).id}/stock/${records.fleetSpec.id}/levels`,
-      body: { leadTimeDays: 12, safetyStock: 1 },
-    }),
-  },
+  ),
+  row('PATCH /api/stock-receipts/:id', SITE_ADMIN(), 'site', async (s) =>
+    patch(`/api/stock-receipts/${(await freshReceipt(codeOf(s))).id}`, { quantity: 3 }),
+  ),
+  row('DELETE /api/stock-receipts/:id', SITE_ADMIN(204), 'site', async (s) =>
+    del(`/api/stock-receipts/${(await freshReceipt(codeOf(s))).id}`),
+  ),
+  row('GET /api/sites/:id/stock', READ(), 'site', (s) => get(`/api/sites/${site(codeOf(s)).id}/stock`)),
+  row('GET /api/sites/:id/stock/movements', READ(), 'site', (s) =>
+    get(`/api/sites/${site(codeOf(s)).id}/stock/movements`),
+  ),
+  row('PUT /api/sites/:id/stock/:bladeSpecId/levels', SITE_ADMIN(), 'site', (s) =>
+    put(`/api/sites/${site(codeOf(s)).id}/stock/${records.fleetSpec.id}/levels`, { leadTimeDays: 12, safetyStock: 1 }),
+  ),
 
   // Blade runs
-  {
-    route: 'GET /api/blade-runs',
-    expect: LIST,
-    scopes: 'list',
-    req: (s) => get(listUrl('/api/blade-runs', s)),
+  row('GET /api/blade-runs', LIST, 'list', (s) => get(listUrl('/api/blade-runs', s)), {
     total: `blade_runs WHERE site_id IN (:sites)`,
-  },
-  {
-    route: 'GET /api/blade-runs/:id',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/blade-runs/${records[codeOf(s)].run.id}`),
-  },
-  {
-    route: 'POST /api/blade-runs',
-    expect: CREATE(201, true),
-    scopes: 'site',
-    req: async (s) =>
-      post('/api/blade-runs', { sawId: (await freshSaw(codeOf(s))).id, bladeSpecId: records.fleetSpec.id }),
-  },
-  {
-    route: 'POST /api/blade-runs/:id/remove',
-    expect: TECH(),
-    scopes: 'site',
-    req: async (s) => post(`/api/blade-runs/${(await freshRun(codeOf(s))).id}/remove`, { reason: 'worn_out' }),
-  },
-  {
-    route: 'PATCH /api/blade-runs/:id',
-    expect: TECH(),
-    scopes: 'site',
-    req: async (s) => ({
-      method: 'PATCH',
-      url: `/api/blade-runs/${(await freshRun(codeOf(s))).id}`,
-      body: { installNotes: 'Corrected' },
-    }),
-  },
-  {
-    route: 'DELETE /api/blade-runs/:id',
-    expect: SITE_ADMIN(204),
-    scopes: 'site',
-    req: async (s) => ({ method: 'DELETE', url: `/api/blade-runs/${(await freshRun(codeOf(s))).id}` }),
-  },
-  {
-    route: 'GET /api/blade-runs/:id/likely-causes',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/blade-runs/${records[codeOf(s)].run.id}/likely-causes?reason=tooth_strippage`),
-  },
-  {
-    route: 'POST /api/blade-runs/:id/confirmed-cause',
-    expect: TECH(),
-    scopes: 'site',
-    req: async (s) =>
-      post(`/api/blade-runs/${(await freshRun(codeOf(s), true)).id}/confirmed-cause`, { cause: CAUSE_IDS[0] }),
-  },
-  {
-    route: 'GET /api/saws/:id/break-in-plan',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) =>
-      get(`/api/saws/${saw0(s)}/break-in-plan?bladeSpecId=${records.fleetSpec.id}&materialGroup=carbon_steel`),
-  },
+  }),
+  row('GET /api/blade-runs/:id', READ(), 'site', (s) => get(`/api/blade-runs/${records[codeOf(s)].run.id}`)),
+  row('POST /api/blade-runs', CREATE(201, true), 'site', async (s) =>
+    post('/api/blade-runs', { sawId: (await freshSaw(codeOf(s))).id, bladeSpecId: records.fleetSpec.id }),
+  ),
+  row('POST /api/blade-runs/:id/remove', TECH(), 'site', async (s) =>
+    post(`/api/blade-runs/${(await freshRun(codeOf(s))).id}/remove`, { reason: 'worn_out' }),
+  ),
+  row('PATCH /api/blade-runs/:id', TECH(), 'site', async (s) =>
+    patch(`/api/blade-runs/${(await freshRun(codeOf(s))).id}`, { installNotes: 'Corrected' }),
+  ),
+  row('DELETE /api/blade-runs/:id', SITE_ADMIN(204), 'site', async (s) =>
+    del(`/api/blade-runs/${(await freshRun(codeOf(s))).id}`),
+  ),
+  row('GET /api/blade-runs/:id/likely-causes', READ(), 'site', (s) =>
+    get(`/api/blade-runs/${records[codeOf(s)].run.id}/likely-causes?reason=tooth_strippage`),
+  ),
+  row('POST /api/blade-runs/:id/confirmed-cause', TECH(), 'site', async (s) =>
+    post(`/api/blade-runs/${(await freshRun(codeOf(s), true)).id}/confirmed-cause`, { cause: CAUSE_IDS[0] }),
+  ),
+  row('GET /api/saws/:id/break-in-plan', READ(), 'site', (s) =>
+    get(`/api/saws/${saw0(s)}/break-in-plan?bladeSpecId=${records.fleetSpec.id}&materialGroup=carbon_steel`),
+  ),
 
   // Stops
-  {
-    route: 'GET /api/stops',
-    expect: LIST,
-    scopes: 'list',
-    req: (s) => get(listUrl('/api/stops', s)),
+  row('GET /api/stops', LIST, 'list', (s) => get(listUrl('/api/stops', s)), {
     total: `stops WHERE site_id IN (:sites)`,
-  },
-  {
-    route: 'GET /api/stops/:id',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/stops/${records[codeOf(s)].stop.id}`),
-  },
-  {
-    route: 'POST /api/stops',
-    expect: CREATE(201, true),
-    scopes: 'site',
-    req: async (s) => post('/api/stops', { sawId: (await freshSaw(codeOf(s))).id, category: 'electrical' }),
-  },
-  {
-    route: 'POST /api/stops/:id/end',
-    expect: TECH(),
-    scopes: 'site',
-    req: async (s) => post(`/api/stops/${(await freshStop(codeOf(s), true)).id}/end`),
-  },
-  {
-    route: 'PATCH /api/stops/:id',
-    expect: TECH(),
-    scopes: 'site',
-    req: async (s) => ({
-      method: 'PATCH',
-      url: `/api/stops/${(await freshStop(codeOf(s))).id}`,
-      body: { notes: 'Fixed' },
-    }),
-  },
-  {
-    route: 'DELETE /api/stops/:id',
-    expect: SITE_ADMIN(204),
-    scopes: 'site',
-    req: async (s) => ({ method: 'DELETE', url: `/api/stops/${(await freshStop(codeOf(s))).id}` }),
-  },
+  }),
+  row('GET /api/stops/:id', READ(), 'site', (s) => get(`/api/stops/${records[codeOf(s)].stop.id}`)),
+  row('POST /api/stops', CREATE(201, true), 'site', async (s) =>
+    post('/api/stops', { sawId: (await freshSaw(codeOf(s))).id, category: 'electrical' }),
+  ),
+  row('POST /api/stops/:id/end', TECH(), 'site', async (s) =>
+    post(`/api/stops/${(await freshStop(codeOf(s), true)).id}/end`),
+  ),
+  row('PATCH /api/stops/:id', TECH(), 'site', async (s) =>
+    patch(`/api/stops/${(await freshStop(codeOf(s))).id}`, { notes: 'Fixed' }),
+  ),
+  row('DELETE /api/stops/:id', SITE_ADMIN(204), 'site', async (s) =>
+    del(`/api/stops/${(await freshStop(codeOf(s))).id}`),
+  ),
 
   // Cut logs
-  {
-    route: 'GET /api/cut-logs',
-    expect: LIST,
-    scopes: 'list',
-    req: (s) => get(listUrl('/api/cut-logs', s)),
+  row('GET /api/cut-logs', LIST, 'list', (s) => get(listUrl('/api/cut-logs', s)), {
     total: `cut_logs WHERE site_id IN (:sites)`,
-  },
-  {
-    route: 'GET /api/cut-logs/:id',
-    expect: READ(),
-    scopes: 'site',
-    req: async (s) => get(`/api/cut-logs/${(await freshCutLog(codeOf(s))).id}`),
-  },
-  {
-    route: 'POST /api/cut-logs',
-    expect: CREATE(201, true),
-    scopes: 'site',
-    req: (s) =>
-      post('/api/cut-logs', {
-        sawId: saw0(s),
-        stock: { shape: { kind: 'round_bar', diameterMm: 60 } },
-        materialGroup: 'carbon_steel',
-      }),
-  },
-  {
-    route: 'DELETE /api/cut-logs/:id',
-    expect: SITE_ADMIN(204),
-    scopes: 'site',
-    req: async (s) => ({ method: 'DELETE', url: `/api/cut-logs/${(await freshCutLog(codeOf(s))).id}` }),
-  },
+  }),
+  row('GET /api/cut-logs/:id', READ(), 'site', async (s) => get(`/api/cut-logs/${(await freshCutLog(codeOf(s))).id}`)),
+  row('POST /api/cut-logs', CREATE(201, true), 'site', (s) =>
+    post('/api/cut-logs', {
+      sawId: saw0(s),
+      stock: { shape: { kind: 'round_bar', diameterMm: 60 } },
+      materialGroup: 'carbon_steel',
+    }),
+  ),
+  row('DELETE /api/cut-logs/:id', SITE_ADMIN(204), 'site', async (s) =>
+    del(`/api/cut-logs/${(await freshCutLog(codeOf(s))).id}`),
+  ),
 
   // Photos
-  {
-    route: 'POST /api/blade-runs/:id/photos',
-    expect: TECH(201),
-    scopes: 'site',
-    req: (s) => ({
-      method: 'POST',
-      url: `/api/blade-runs/${records[codeOf(s)].run.id}/photos`,
-      upload: { field: 'photo', bytes: png, name: 'p.png' },
-    }),
-  },
-  {
-    route: 'GET /api/blade-runs/:id/photos',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/blade-runs/${records[codeOf(s)].run.id}/photos`),
-  },
-  {
-    route: 'POST /api/check-records/:id/photos',
-    expect: TECH(201),
-    scopes: 'site',
-    req: (s) => ({
-      method: 'POST',
-      url: `/api/check-records/${records[codeOf(s)].checkRecord.id}/photos`,
-      upload: { field: 'photo', bytes: png, name: 'p.png' },
-    }),
-  },
-  {
-    route: 'GET /api/check-records/:id/photos',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/check-records/${records[codeOf(s)].checkRecord.id}/photos`),
-  },
-  {
-    route: 'GET /api/photos/:id',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/photos/${extra[codeOf(s)].photoId}`),
-  },
-  {
-    route: 'GET /api/photos/:id/image',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/photos/${extra[codeOf(s)].checkPhotoId}/image`),
-  },
-  {
-    route: 'GET /api/photos/:id/thumbnail',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/photos/${extra[codeOf(s)].photoId}/thumbnail`),
-  },
-  {
-    route: 'DELETE /api/photos/:id',
-    expect: SITE_ADMIN(204),
-    scopes: 'site',
-    req: async (s) => ({ method: 'DELETE', url: `/api/photos/${await freshPhoto(codeOf(s))}` }),
-  },
+  row('POST /api/blade-runs/:id/photos', TECH(201), 'site', (s) => ({
+    method: 'POST',
+    url: `/api/blade-runs/${records[codeOf(s)].run.id}/photos`,
+    upload: { field: 'photo', bytes: png, name: 'p.png' },
+  })),
+  row('GET /api/blade-runs/:id/photos', READ(), 'site', (s) =>
+    get(`/api/blade-runs/${records[codeOf(s)].run.id}/photos`),
+  ),
+  row('POST /api/check-records/:id/photos', TECH(201), 'site', (s) => ({
+    method: 'POST',
+    url: `/api/check-records/${records[codeOf(s)].checkRecord.id}/photos`,
+    upload: { field: 'photo', bytes: png, name: 'p.png' },
+  })),
+  row('GET /api/check-records/:id/photos', READ(), 'site', (s) =>
+    get(`/api/check-records/${records[codeOf(s)].checkRecord.id}/photos`),
+  ),
+  row('GET /api/photos/:id', READ(), 'site', (s) => get(`/api/photos/${extra[codeOf(s)].photoId}`)),
+  row('GET /api/photos/:id/image', READ(), 'site', (s) => get(`/api/photos/${extra[codeOf(s)].checkPhotoId}/image`)),
+  row('GET /api/photos/:id/thumbnail', READ(), 'site', (s) => get(`/api/photos/${extra[codeOf(s)].photoId}/thumbnail`)),
+  row('DELETE /api/photos/:id', SITE_ADMIN(204), 'site', async (s) =>
+    del(`/api/photos/${await freshPhoto(codeOf(s))}`),
+  ),
 
   // The site's checks and the checks recorded
-  {
-    route: 'GET /api/sites/:siteId/checks',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/sites/${site(codeOf(s)).id}/checks`),
-  },
-  {
-    route: 'POST /api/sites/:siteId/checks',
-    expect: SITE_ADMIN(201),
-    scopes: 'site',
-    req: (s) =>
-      post(`/api/sites/${site(codeOf(s)).id}/checks`, {
-        name: `Feed pressure ${next()}`,
-        targetRule: 'fixed',
-        quantity: 'stress',
-        fixedTarget: 3,
-        fixedMin: 2,
-        schedule: 'periodic',
-        intervalDays: 7,
-      }),
-  },
-  {
-    route: 'GET /api/sites/:siteId/checks/overdue',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/sites/${site(codeOf(s)).id}/checks/overdue`),
-  },
-  {
-    route: 'GET /api/sites/:siteId/checks/counts',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/sites/${site(codeOf(s)).id}/checks/counts`),
-  },
-  {
-    route: 'GET /api/check-counts',
-    expect: {
+  row('GET /api/sites/:siteId/checks', READ(), 'site', (s) => get(`/api/sites/${site(codeOf(s)).id}/checks`)),
+  row('POST /api/sites/:siteId/checks', SITE_ADMIN(201), 'site', (s) =>
+    post(`/api/sites/${site(codeOf(s)).id}/checks`, {
+      name: `Feed pressure ${next()}`,
+      targetRule: 'fixed',
+      quantity: 'stress',
+      fixedTarget: 3,
+      fixedMin: 2,
+      schedule: 'periodic',
+      intervalDays: 7,
+    }),
+  ),
+  row('GET /api/sites/:siteId/checks/overdue', READ(), 'site', (s) =>
+    get(`/api/sites/${site(codeOf(s)).id}/checks/overdue`),
+  ),
+  row('GET /api/sites/:siteId/checks/counts', READ(), 'site', (s) =>
+    get(`/api/sites/${site(codeOf(s)).id}/checks/counts`),
+  ),
+  row(
+    'GET /api/check-counts',
+    {
       ...READ(),
       admin: [200, 200, 200, 200],
       manager: [200, 404, 404, 200],
+      lead: [200, 200, 404, 200],
       siteAdmin: [200, 404, 404, 200],
       tech: [200, 404, 404, 200],
-      lead: [200, 200, 404, 200],
     },
-    scopes: 'list',
-    req: (s) => get(listUrl('/api/check-counts', s)),
-    check: async (body: { items: { siteId: string }[] }, role, scope) =>
-      scope === '*'
-        ? sameSites(
-            body.items.map((i) => i.siteId),
-            role,
-          )
-        : undefined,
-  },
-  {
-    route: 'GET /api/site-checks/:id',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/site-checks/${extra[codeOf(s)].guideId}`),
-  },
-  {
-    route: 'PATCH /api/site-checks/:id',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: async (s) => ({
-      method: 'PATCH',
-      url: `/api/site-checks/${(await freshCheck(codeOf(s))).id}`,
-      body: { intervalDays: 14 },
-    }),
-  },
-  {
-    route: 'POST /api/site-checks/:id/retire',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: async (s) => post(`/api/site-checks/${(await freshCheck(codeOf(s))).id}/retire`),
-  },
-  {
-    route: 'POST /api/site-checks/:id/restore',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: async (s) => post(`/api/site-checks/${(await freshCheck(codeOf(s), true)).id}/restore`),
-  },
-  {
-    route: 'DELETE /api/site-checks/:id',
-    expect: SITE_ADMIN(204),
-    scopes: 'site',
-    req: async (s) => ({ method: 'DELETE', url: `/api/site-checks/${(await freshCheck(codeOf(s))).id}` }),
-  },
-  { route: 'GET /api/saws/:id/checks', expect: READ(), scopes: 'site', req: (s) => get(`/api/saws/${saw0(s)}/checks`) },
-  {
-    route: 'GET /api/check-records',
-    expect: LIST,
-    scopes: 'list',
-    req: (s) => get(listUrl('/api/check-records', s)),
+    'list',
+    (s) => get(listUrl('/api/check-counts', s)),
+    {
+      check: async (body: { items: { siteId: string }[] }, role, scope) =>
+        scope === '*'
+          ? sameSites(
+              body.items.map((i) => i.siteId),
+              role,
+            )
+          : undefined,
+    },
+  ),
+  row('GET /api/site-checks/:id', READ(), 'site', (s) => get(`/api/site-checks/${extra[codeOf(s)].guideId}`)),
+  row('PATCH /api/site-checks/:id', SITE_ADMIN(), 'site', async (s) =>
+    patch(`/api/site-checks/${(await freshCheck(codeOf(s))).id}`, { intervalDays: 14 }),
+  ),
+  row('POST /api/site-checks/:id/retire', SITE_ADMIN(), 'site', async (s) =>
+    post(`/api/site-checks/${(await freshCheck(codeOf(s))).id}/retire`),
+  ),
+  row('POST /api/site-checks/:id/restore', SITE_ADMIN(), 'site', async (s) =>
+    post(`/api/site-checks/${(await freshCheck(codeOf(s), true)).id}/restore`),
+  ),
+  row('DELETE /api/site-checks/:id', SITE_ADMIN(204), 'site', async (s) =>
+    del(`/api/site-checks/${(await freshCheck(codeOf(s))).id}`),
+  ),
+  row('GET /api/saws/:id/checks', READ(), 'site', (s) => get(`/api/saws/${saw0(s)}/checks`)),
+  row('GET /api/check-records', LIST, 'list', (s) => get(listUrl('/api/check-records', s)), {
     total: `check_records WHERE site_id IN (:sites)`,
-  },
-  {
-    route: 'GET /api/check-records/:id',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/check-records/${records[codeOf(s)].checkRecord.id}`),
-  },
-  {
-    route: 'POST /api/check-records',
-    expect: TECH(201),
-    scopes: 'site',
-    req: (s) => post('/api/check-records', { sawId: saw0(s), siteCheckId: extra[codeOf(s)].guideId, reading: 1.13 }),
-  },
-  {
-    route: 'DELETE /api/check-records/:id',
-    expect: SITE_ADMIN(204),
-    scopes: 'site',
-    req: async (s) => ({ method: 'DELETE', url: `/api/check-records/${(await freshCheckRecord(codeOf(s))).id}` }),
-  },
+  }),
+  row('GET /api/check-records/:id', READ(), 'site', (s) =>
+    get(`/api/check-records/${records[codeOf(s)].checkRecord.id}`),
+  ),
+  row('POST /api/check-records', TECH(201), 'site', (s) =>
+    post('/api/check-records', { sawId: saw0(s), siteCheckId: extra[codeOf(s)].guideId, reading: 1.13 }),
+  ),
+  row('DELETE /api/check-records/:id', SITE_ADMIN(204), 'site', async (s) =>
+    del(`/api/check-records/${(await freshCheckRecord(codeOf(s))).id}`),
+  ),
 
   // A saw's story and the sites' tiles
-  {
-    route: 'GET /api/saws/:id/timeline',
-    expect: READ(),
-    scopes: 'site',
-    req: (s) => get(`/api/saws/${saw0(s)}/timeline`),
-  },
-  {
-    route: 'GET /api/site-summaries',
-    expect: SIGNED_IN(),
-    scopes: 'none',
-    req: () => get('/api/site-summaries'),
+  row('GET /api/saws/:id/timeline', READ(), 'site', (s) => get(`/api/saws/${saw0(s)}/timeline`)),
+  row('GET /api/site-summaries', SIGNED_IN(), 'none', () => get('/api/site-summaries'), {
     check: async (body: { items: { siteId: string; sawsInUse: number }[] }, role) => {
       const wrong = await sameSites(
         body.items.map((i) => i.siteId),
@@ -1153,53 +790,33 @@ const TABLE: Row[] = [
       const shown = body.items.reduce((sum, i) => sum + i.sawsInUse, 0);
       return shown === saws ? undefined : `saws in use ${shown}, the caller's sites hold ${saws}`;
     },
-  },
+  }),
 
   // Imports
-  {
-    route: 'GET /api/imports/context',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: (s) => get(`/api/imports/context?siteId=${site(codeOf(s)).id}&kind=blade_runs`),
-  },
-  {
-    route: 'GET /api/imports',
-    expect: LIST,
+  row('GET /api/imports/context', SITE_ADMIN(), 'site', (s) =>
+    get(`/api/imports/context?siteId=${site(codeOf(s)).id}&kind=blade_runs`),
+  ),
+  row('GET /api/imports', LIST, 'list', (s) => get(listUrl('/api/imports', s)), {
     emptyFor: ['manager', 'lead', 'tech'],
-    scopes: 'list',
-    req: (s) => get(listUrl('/api/imports', s)),
     total: `import_batches WHERE site_id IN (:sites)`,
-  },
-  {
-    route: 'POST /api/imports/check',
-    expect: SITE_ADMIN(),
-    scopes: 'site',
-    req: (s) => ({ method: 'POST', url: '/api/imports/check', upload: importUpload(codeOf(s)) }),
-  },
-  {
-    route: 'POST /api/imports',
-    expect: SITE_ADMIN(201),
-    scopes: 'site',
-    req: (s) => ({ method: 'POST', url: '/api/imports', upload: importUpload(codeOf(s), 2000 + (serial++ % 9)) }),
-  },
-  {
-    route: 'GET /api/imports/:id',
-    expect: ADMINS(),
-    scopes: 'site',
-    req: (s) => get(`/api/imports/${extra[codeOf(s)].batchId}`),
-  },
-  {
-    route: 'GET /api/imports/:id/rejected.csv',
-    expect: ADMINS(),
-    scopes: 'site',
-    req: (s) => get(`/api/imports/${extra[codeOf(s)].batchId}/rejected.csv`),
-  },
-  {
-    route: 'POST /api/imports/:id/undo',
-    expect: ADMINS(),
-    scopes: 'site',
-    req: async (s) => post(`/api/imports/${await freshBatch(codeOf(s))}/undo`),
-  },
+  }),
+  row('POST /api/imports/check', SITE_ADMIN(), 'site', (s) => ({
+    method: 'POST',
+    url: '/api/imports/check',
+    upload: importUpload(codeOf(s)),
+  })),
+  row('POST /api/imports', SITE_ADMIN(201), 'site', (s) => ({
+    method: 'POST',
+    url: '/api/imports',
+    upload: importUpload(codeOf(s), 2000 + (serial++ % 9)),
+  })),
+  row('GET /api/imports/:id', ADMINS(), 'site', (s) => get(`/api/imports/${extra[codeOf(s)].batchId}`)),
+  row('GET /api/imports/:id/rejected.csv', ADMINS(), 'site', (s) =>
+    get(`/api/imports/${extra[codeOf(s)].batchId}/rejected.csv`),
+  ),
+  row('POST /api/imports/:id/undo', ADMINS(), 'site', async (s) =>
+    post(`/api/imports/${await freshBatch(codeOf(s))}/undo`),
+  ),
 ];
 
 // ---------------------------------------------------------------- running it
