@@ -1,5 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import zlib from 'node:zlib';
 import fc from 'fast-check';
+import sharp from 'sharp';
 import type supertest from 'supertest';
 import { startTestApp, signedInAgent, type TestContext } from '../../apps/api/src/test-support/test-db.js';
 import {
@@ -27,6 +29,8 @@ import { User } from '../../apps/api/src/modules/users/user.model.js';
 
 const RUNS = Number(process.env.FUZZ_RUNS ?? 6);
 const SEED = process.env.FUZZ_SEED ? Number(process.env.FUZZ_SEED) : undefined;
+/** Room for a longer run: about a minute per six cases per route and role on the 2-core machine, and then some. */
+const TIMEOUT = Math.max(600_000, RUNS * 30_000);
 
 let ctx: TestContext;
 let world: World;
@@ -115,6 +119,14 @@ const hostileText = fc.constantFrom(
   '00000000-0000-0000-0000-000000000000',
   'ffffffff-ffff-ffff-ffff-ffffffffffff',
   'not-a-uuid',
+  '9999-12-31T23:59:59Z',
+  '0001-01-01T00:00:00+14:00',
+  '2026-02-30',
+  '1e15',
+  '-1e15',
+  '2147483648',
+  '9223372036854775808',
+  '%_\\',
 );
 const hostileNumber = fc.constantFrom(
   0,
@@ -537,73 +549,196 @@ const importPlanArb: fc.Arbitrary<{ plan: unknown; text?: string }> = fc.oneof(
 
 // ---------------------------------------------------------------- the properties
 describe('fuzzing every route', () => {
-  it('never answers 5xx to any input, and a refused write changes no row', async () => {
-    const routes = listRoutes(ctx.app).filter((r) => !SKIP.has(`${r.method} ${r.path}`));
-    expect(routes.length).toBeGreaterThan(100);
-    for (const route of routes) {
-      const key = `${route.method} ${route.path}`;
-      const hasBody = route.method !== 'GET';
-      for (const [who, agent] of [
-        ['admin', admin],
-        ['technician', tech],
-      ] as const) {
-        await fc.assert(
-          fc.asyncProperty(
-            pathFor(route),
-            queryString,
-            hasBody ? bodyFor(key) : fc.constant(null),
-            async (path, query, body) => {
-              const url = query ? `${path}?${query}` : path;
-              const before = hasBody ? await rowCounts() : '';
-              const res = await sendOne(agent, route.method, url, body);
-              casesRun++;
-              statuses.set(res.status, (statuses.get(res.status) ?? 0) + 1);
-              const said = `${key} as ${who}: ${route.method} ${url.slice(0, 200)} ${String(body).slice(0, 300)} → ${res.status} ${res.text.slice(0, 300)}`;
-              expect(res.status, said).toBeLessThan(500);
-              if (hasBody && res.status >= 400) expect(await rowCounts(), said).toBe(before);
-            },
-          ),
-          { numRuns: RUNS, seed: SEED, endOnFailure: true },
-        );
+  it(
+    'never answers 5xx to any input, and a refused write changes no row',
+    async () => {
+      const routes = listRoutes(ctx.app).filter((r) => !SKIP.has(`${r.method} ${r.path}`));
+      expect(routes.length).toBeGreaterThan(100);
+      for (const route of routes) {
+        const key = `${route.method} ${route.path}`;
+        const hasBody = route.method !== 'GET';
+        for (const [who, agent] of [
+          ['admin', admin],
+          ['technician', tech],
+        ] as const) {
+          await fc.assert(
+            fc.asyncProperty(
+              pathFor(route),
+              queryString,
+              hasBody ? bodyFor(key) : fc.constant(null),
+              async (path, query, body) => {
+                const url = query ? `${path}?${query}` : path;
+                const before = hasBody ? await rowCounts() : '';
+                const res = await sendOne(agent, route.method, url, body);
+                casesRun++;
+                statuses.set(res.status, (statuses.get(res.status) ?? 0) + 1);
+                const said = `${key} as ${who}: ${route.method} ${url.slice(0, 200)} ${String(body).slice(0, 300)} → ${res.status} ${res.text.slice(0, 300)}`;
+                expect(res.status, said).toBeLessThan(500);
+                if (hasBody && res.status >= 400) expect(await rowCounts(), said).toBe(before);
+              },
+            ),
+            { numRuns: RUNS, seed: SEED, endOnFailure: true },
+          );
+        }
       }
-    }
-    const byClass = [...statuses.entries()].sort(([a], [b]) => a - b).map(([s, n]) => `${s}×${n}`);
-    console.log(
-      `fuzz: ${casesRun} route cases over ${routes.length} routes × 2 roles (${RUNS} each): ${byClass.join(' ')}`,
-    );
-    // The fuzz reaches the handlers, not only the guards: some of it is valid enough to be taken.
-    expect([...statuses.keys()].some((s) => s < 300)).toBe(true);
-  }, 600_000);
+      const byClass = [...statuses.entries()].sort(([a], [b]) => a - b).map(([s, n]) => `${s}×${n}`);
+      console.log(
+        `fuzz: ${casesRun} route cases over ${routes.length} routes × 2 roles (${RUNS} each): ${byClass.join(' ')}`,
+      );
+      // The fuzz reaches the handlers, not only the guards: some of it is valid enough to be taken.
+      expect([...statuses.keys()].some((s) => s < 300)).toBe(true);
+    },
+    TIMEOUT,
+  );
 });
 
 describe('fuzzing the importer', () => {
-  it('reads pathological files into a 4xx or a whole import, never a 5xx or a partial write', async () => {
-    let cases = 0;
-    for (const file of pathologicalFiles()) {
-      for (const path of ['/api/imports/check', '/api/imports']) {
-        const before = await rowCounts();
-        const res = await sendImport(path, file.bytes, importPlan(file.plan));
-        cases++;
-        const said = `${file.name} to ${path} → ${res.status} ${res.text.slice(0, 300)}`;
-        expect(res.status, said).toBeLessThan(500);
-        if (path === '/api/imports') await wholeOrNothing(res, before, said);
+  it(
+    'reads pathological files into a 4xx or a whole import, never a 5xx or a partial write',
+    async () => {
+      let cases = 0;
+      for (const file of pathologicalFiles()) {
+        for (const path of ['/api/imports/check', '/api/imports']) {
+          const before = await rowCounts();
+          const res = await sendImport(path, file.bytes, importPlan(file.plan));
+          cases++;
+          const said = `${file.name} to ${path} → ${res.status} ${res.text.slice(0, 300)}`;
+          expect(res.status, said).toBeLessThan(500);
+          if (path === '/api/imports') await wholeOrNothing(res, before, said);
+        }
       }
-    }
-    await fc.assert(
-      fc.asyncProperty(importFile, importPlanArb, fc.boolean(), async (bytes, { plan, text }, commit) => {
-        const path = commit ? '/api/imports' : '/api/imports/check';
-        const before = await rowCounts();
-        const res = await sendImport(path, bytes, plan, text);
-        cases++;
-        const said = `${path} ${JSON.stringify(plan)?.slice(0, 200)} ${bytes.toString('latin1').slice(0, 200)} → ${res.status} ${res.text.slice(0, 300)}`;
-        expect(res.status, said).toBeLessThan(500);
-        if (commit) await wholeOrNothing(res, before, said);
-      }),
-      { numRuns: RUNS * 8, seed: SEED, endOnFailure: true },
-    );
-    casesRun += cases;
-    console.log(`fuzz: ${cases} importer cases (${pathologicalFiles().length} pathological files, ${RUNS * 8} random)`);
-  }, 600_000);
+      // Forms no browser sends: cut off, without a boundary, two files, the wrong field, the plan as a file.
+      const plan = JSON.stringify(importPlan());
+      const part = (name: string, value: string, file = false) =>
+        `--b\r\nContent-Disposition: form-data; name="${name}"${file ? '; filename="x.csv"' : ''}\r\n\r\n${value}\r\n`;
+      const forms: [string, string][] = [
+        ['multipart/form-data; boundary=b', `${part('plan', plan)}${part('file', IMPORT_CSV, true)}`],
+        [
+          'multipart/form-data; boundary=b',
+          `${part('plan', plan)}--b\r\nContent-Disposition: form-data; name="file"; filename="x.csv"\r\n\r\nA-1;`,
+        ],
+        ['multipart/form-data', `${part('plan', plan)}${part('file', IMPORT_CSV, true)}--b--`],
+        ['multipart/form-data; boundary=', '--\r\n'],
+        [
+          'multipart/form-data; boundary=b',
+          `${part('plan', plan)}${part('file', 'x', true)}${part('file', 'y', true)}--b--`,
+        ],
+        ['multipart/form-data; boundary=b', `${part('plan', plan)}${part('photo', IMPORT_CSV, true)}--b--`],
+        ['multipart/form-data; boundary=b', `${part('plan', plan, true)}${part('file', IMPORT_CSV, true)}--b--`],
+        [
+          'multipart/form-data; boundary=b',
+          `${part('plan', plan)}${part('a', '1')}${part('b', '2')}${part('file', IMPORT_CSV, true)}--b--`,
+        ],
+        [
+          'multipart/form-data; boundary=b',
+          `${part('plan', 'x'.repeat(2 * 1024 * 1024))}${part('file', IMPORT_CSV, true)}--b--`,
+        ],
+        ['multipart/form-data; boundary=b', '--b--'],
+        ['multipart/form-data; boundary=b', ''],
+      ];
+      const failed: string[] = [];
+      for (const [i, [type, text]] of forms.entries()) {
+        for (const path of ['/api/imports/check', '/api/imports']) {
+          const before = await rowCounts();
+          const res = await admin.post(path).set('Content-Type', type).send(text);
+          cases++;
+          if (res.status >= 500) failed.push(`form ${i} to ${path} → ${res.status}`);
+          else if (path === '/api/imports') await wholeOrNothing(res, before, `form ${i} → ${res.status} ${res.text}`);
+        }
+      }
+      expect(failed).toEqual([]);
+      await fc.assert(
+        fc.asyncProperty(importFile, importPlanArb, fc.boolean(), async (bytes, { plan, text }, commit) => {
+          const path = commit ? '/api/imports' : '/api/imports/check';
+          const before = await rowCounts();
+          const res = await sendImport(path, bytes, plan, text);
+          cases++;
+          const said = `${path} ${JSON.stringify(plan)?.slice(0, 200)} ${bytes.toString('latin1').slice(0, 200)} → ${res.status} ${res.text.slice(0, 300)}`;
+          expect(res.status, said).toBeLessThan(500);
+          if (commit) await wholeOrNothing(res, before, said);
+        }),
+        { numRuns: RUNS * 8, seed: SEED, endOnFailure: true },
+      );
+      casesRun += cases;
+      console.log(
+        `fuzz: ${cases} importer cases (${pathologicalFiles().length} pathological files, ${RUNS * 8} random)`,
+      );
+    },
+    TIMEOUT,
+  );
+});
+
+describe('fuzzing the photo uploads', () => {
+  /** A PNG whose header claims `width` × `height` pixels, with one tiny compressed row behind it. */
+  function pngClaiming(width: number, height: number): Buffer {
+    const chunk = (type: string, data: Buffer) => {
+      const len = Buffer.alloc(4);
+      len.writeUInt32BE(data.length);
+      const body = Buffer.concat([Buffer.from(type, 'latin1'), data]);
+      const crc = Buffer.alloc(4);
+      crc.writeUInt32BE(zlib.crc32(body));
+      return Buffer.concat([len, body, crc]);
+    };
+    const ihdr = Buffer.alloc(13);
+    ihdr.writeUInt32BE(width, 0);
+    ihdr.writeUInt32BE(height, 4);
+    ihdr.set([8, 2, 0, 0, 0], 8);
+    return Buffer.concat([
+      Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
+      chunk('IHDR', ihdr),
+      chunk('IDAT', zlib.deflateSync(Buffer.alloc(1 + width * 3 > 4096 ? 4096 : 1 + width * 3))),
+      chunk('IEND', Buffer.alloc(0)),
+    ]);
+  }
+
+  it(
+    'refuses what is not a picture it can read with a 4xx, keeping no photo, and takes a good one',
+    async () => {
+      const good = await sharp({ create: { width: 40, height: 30, channels: 3, background: '#468' } })
+        .png()
+        .toBuffer();
+      const files: fc.Arbitrary<Buffer> = fc.oneof(
+        fc.uint8Array({ maxLength: 3000 }).map((a) => Buffer.from(a)),
+        fc.nat({ max: good.length - 1 }).map((n) => good.subarray(0, n)),
+        fc
+          .tuple(
+            fc.constantFrom([0xff, 0xd8, 0xff, 0xe0], [0x52, 0x49, 0x46, 0x46], [0x47, 0x49, 0x46, 0x38]),
+            fc.uint8Array({ maxLength: 500 }),
+          )
+          .map(([magic, rest]) => Buffer.from([...magic, ...rest])),
+        fc
+          .tuple(fc.integer({ min: 0, max: 2 ** 31 - 1 }), fc.integer({ min: 0, max: 2 ** 31 - 1 }))
+          .map(([w, h]) => pngClaiming(w, h)),
+        fc.constantFrom(
+          pngClaiming(100_000, 100_000),
+          pngClaiming(1, 1),
+          Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="1" height="1"/>'),
+          Buffer.alloc(0),
+        ),
+      );
+      let cases = 0;
+      const photos = async () =>
+        (await ctx.sequelize.query('SELECT count(*)::int AS n FROM photos', { plain: true }))!.n as number;
+      await fc.assert(
+        fc.asyncProperty(files, fc.option(hostileText), fc.boolean(), async (bytes, caption, asTech) => {
+          const before = await photos();
+          let req = (asTech ? tech : admin).post(`/api/blade-runs/${records.A.run.id}/photos`);
+          if (caption !== null) req = req.field('caption', caption);
+          const res = await req.attach('photo', bytes, 'p.png');
+          cases++;
+          const said = `${bytes.subarray(0, 40).toString('hex')} (${bytes.length} bytes) → ${res.status} ${res.text.slice(0, 300)}`;
+          expect(res.status, said).toBeLessThan(500);
+          expect(await photos(), said).toBe(before + (res.status === 201 ? 1 : 0));
+        }),
+        { numRuns: RUNS * 6, seed: SEED, endOnFailure: true },
+      );
+      const taken = await admin.post(`/api/blade-runs/${records.A.run.id}/photos`).attach('photo', good, 'good.png');
+      expect(taken.status).toBe(201);
+      casesRun += cases + 1;
+      console.log(`fuzz: ${cases + 1} photo upload cases`);
+    },
+    TIMEOUT,
+  );
 });
 
 /** A refused import writes nothing; a taken one writes exactly its valid rows, and its batch says so. */
