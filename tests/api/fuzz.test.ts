@@ -661,7 +661,7 @@ describe('fuzzing the importer', () => {
       );
       casesRun += cases;
       console.log(
-        `fuzz: ${cases} importer cases (${pathologicalFiles().length} pathological files, ${RUNS * 8} random)`,
+        `fuzz: ${cases} importer cases (${pathologicalFiles().length} pathological files and ${forms.length} malformed forms, each to both routes; ${RUNS * 8} random)`,
       );
     },
     TIMEOUT,
