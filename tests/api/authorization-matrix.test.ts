@@ -124,6 +124,18 @@ const REGION_ADMIN: Expect = {
   tech: [403, 403, 404],
   anon: 401,
 };
+/** Read at a site, and asked for every site in the caller's scope ('*'). */
+const READ_ALL = (ok = 200): Expect => ({
+  admin: [ok, ok, ok, ok],
+  manager: [ok, 404, 404, ok],
+  lead: [ok, ok, 404, ok],
+  siteAdmin: [ok, 404, 404, ok],
+  tech: [ok, 404, 404, ok],
+  anon: 401,
+});
+const EXPORT_SITE: Expect = { ...READ(), tech: [403, 404, 404] };
+/** A site's blade budget: administrators and the site's operations manager set it. */
+const BUDGET = (ok = 200): Expect => ({ ...SITE_ADMIN(ok), manager: [ok, 404, 404], siteAdmin: [403, 404, 404] });
 /** A list filtered by site: never an error, simply nothing outside the scope (checked by the leak check). */
 const LIST: Expect = {
   admin: 200,
@@ -133,6 +145,11 @@ const LIST: Expect = {
   tech: 200,
   anon: 401,
 };
+/**
+ * The fleet's screens take the sites to show as a filter: a site outside the scope is simply not shown (the leak
+ * check holds them to it). Their CSV exports likewise, but never for technicians, whose role exports nothing.
+ */
+const EXPORT: Expect = { ...LIST, tech: 403 };
 const SIGNED_IN = (ok = 200): Expect => ({ admin: ok, manager: ok, lead: ok, siteAdmin: ok, tech: ok, anon: 401 });
 const ADMIN_ONLY = (ok = 200): Expect => ({
   admin: ok,
@@ -176,7 +193,15 @@ const markers: Record<Code, Set<string>> = { A: new Set(), B: new Set(), C: new 
 /** Per site: a photo of a run and of a check (with bytes), an import batch, a person, a pending invitation. */
 const extra = {} as Record<
   Code,
-  { photoId: string; checkPhotoId: string; batchId: string; userId: string; invitationId: string; guideId: string }
+  {
+    photoId: string;
+    checkPhotoId: string;
+    batchId: string;
+    userId: string;
+    invitationId: string;
+    guideId: string;
+    followUpId: string;
+  }
 >;
 let passwordHash = '';
 let png: Buffer;
@@ -420,6 +445,40 @@ async function sameSites(shown: string[], role: Role): Promise<string | undefine
     ? undefined
     : `figures for ${shown.length} sites, the caller's sites in use are ${expected.length}`;
 }
+
+const tomorrow = () => new Date(Date.now() + 86_400_000).toISOString().slice(0, 10);
+const freshFollowUp = async (c: Code) =>
+  (
+    await adminSends(
+      post('/api/follow-ups', {
+        sawId: world.saws[c]![0]!.id,
+        title: `Look at the guides ${next()}`,
+        assigneeId: extra[c].userId,
+        dueOn: tomorrow(),
+      }),
+      201,
+    )
+  ).id;
+const freshBudget = async (c: Code) => {
+  await adminSends(put(`/api/budgets/${site(c).id}/2026-09`, { amountMinor: 500_000 }), 200);
+  return `/api/budgets/${site(c).id}/2026-09`;
+};
+/** A fleet screen's address: `sites=` the scope's site, or none (every site in the caller's scope). */
+const fleetUrl = (path: string, s: Scope, extraQuery = '') => {
+  const q = [s === '*' ? '' : `sites=${site(codeOf(s)).id}`, extraQuery].filter(Boolean).join('&');
+  return q ? `${path}?${q}` : path;
+};
+/** The fleet's totals must be the sum of the sites shown: no foreign site's blades hide in them. */
+const fleetSums = async (body: {
+  sites: { site: { id: string }; current: { bladesUsed: number; failures: number } }[];
+  fleet: { current: { bladesUsed: number; failures: number } };
+}) => {
+  for (const key of ['bladesUsed', 'failures'] as const) {
+    const sum = body.sites.reduce((n, x) => n + x.current[key], 0);
+    if (sum !== body.fleet.current[key]) return `fleet ${key} ${body.fleet.current[key]}, its sites sum to ${sum}`;
+  }
+  return undefined;
+};
 
 // ---------------------------------------------------------------- the table
 /** One route: its expected status per role, where it is asked, and the request for a scope. */
@@ -727,28 +786,15 @@ const TABLE: Row[] = [
   row('GET /api/sites/:siteId/checks/counts', READ(), 'site', (s) =>
     get(`/api/sites/${site(codeOf(s)).id}/checks/counts`),
   ),
-  row(
-    'GET /api/check-counts',
-    {
-      ...READ(),
-      admin: [200, 200, 200, 200],
-      manager: [200, 404, 404, 200],
-      lead: [200, 200, 404, 200],
-      siteAdmin: [200, 404, 404, 200],
-      tech: [200, 404, 404, 200],
-    },
-    'list',
-    (s) => get(listUrl('/api/check-counts', s)),
-    {
-      check: async (body: { items: { siteId: string }[] }, role, scope) =>
-        scope === '*'
-          ? sameSites(
-              body.items.map((i) => i.siteId),
-              role,
-            )
-          : undefined,
-    },
-  ),
+  row('GET /api/check-counts', READ_ALL(), 'list', (s) => get(listUrl('/api/check-counts', s)), {
+    check: async (body: { items: { siteId: string }[] }, role, scope) =>
+      scope === '*'
+        ? sameSites(
+            body.items.map((i) => i.siteId),
+            role,
+          )
+        : undefined,
+  }),
   row('GET /api/site-checks/:id', READ(), 'site', (s) => get(`/api/site-checks/${extra[codeOf(s)].guideId}`)),
   row('PATCH /api/site-checks/:id', SITE_ADMIN(), 'site', async (s) =>
     patch(`/api/site-checks/${(await freshCheck(codeOf(s))).id}`, { intervalDays: 14 }),
@@ -817,8 +863,72 @@ const TABLE: Row[] = [
   row('POST /api/imports/:id/undo', ADMINS(), 'site', async (s) =>
     post(`/api/imports/${await freshBatch(codeOf(s))}/undo`),
   ),
-];
+  // The fleet's figures (its own screens take `sites=`; a site's, a saw's and a run's take the id)
+  row('GET /api/fleet/overview', LIST, 'list', (s) => get(fleetUrl('/api/fleet/overview', s)), {
+    check: async (body: Parameters<typeof fleetSums>[0], role, scope) =>
+      (scope === '*'
+        ? await sameSites(
+            body.sites.map((x) => x.site.id),
+            role,
+          )
+        : undefined) ?? fleetSums(body),
+  }),
+  row('GET /api/fleet/overview/export', EXPORT, 'list', (s) =>
+    get(fleetUrl('/api/fleet/overview/export', s, 'table=sites')),
+  ),
+  row('GET /api/fleet/practice', LIST, 'list', (s) => get(fleetUrl('/api/fleet/practice', s))),
+  row('GET /api/fleet/practice/export', EXPORT, 'list', (s) => get(fleetUrl('/api/fleet/practice/export', s))),
+  row('GET /api/fleet/sites/:siteId', READ(), 'site', (s) => get(`/api/fleet/sites/${site(codeOf(s)).id}`)),
+  row('GET /api/fleet/sites/:siteId/export', EXPORT_SITE, 'site', (s) =>
+    get(`/api/fleet/sites/${site(codeOf(s)).id}/export?table=saws`),
+  ),
+  row('GET /api/fleet/saws/:sawId', READ(), 'site', (s) => get(`/api/fleet/saws/${saw0(s)}`)),
+  row('GET /api/fleet/saws/:sawId/runs', READ(), 'site', (s) => get(`/api/fleet/saws/${saw0(s)}/runs`)),
+  row('GET /api/fleet/saws/:sawId/export', EXPORT_SITE, 'site', (s) =>
+    get(`/api/fleet/saws/${saw0(s)}/export?table=runs`),
+  ),
+  row('GET /api/fleet/runs/:runId', READ(), 'site', (s) => get(`/api/fleet/runs/${records[codeOf(s)].run.id}`)),
 
+  // Money: the company's rates and reporting currency, the sites' budgets
+  row('GET /api/exchange-rates', SIGNED_IN(), 'none', () => get('/api/exchange-rates')),
+  row('PUT /api/exchange-rates/:currency/:month', ADMIN_ONLY(), 'none', () =>
+    put('/api/exchange-rates/USD/2026-09', { rate: 0.92 }),
+  ),
+  row('DELETE /api/exchange-rates/:currency/:month', ADMIN_ONLY(204), 'none', async () => {
+    await adminSends(put('/api/exchange-rates/GBP/2026-09', { rate: 1.17 }), 200);
+    return del('/api/exchange-rates/GBP/2026-09');
+  }),
+  // Put back as it was (EUR), so no figure changes currency during the run.
+  row('PUT /api/reporting-currency', ADMIN_ONLY(), 'none', () => put('/api/reporting-currency', { currency: 'EUR' })),
+  row('GET /api/budgets', LIST, 'list', (s) => get(fleetUrl('/api/budgets', s))),
+  row('GET /api/budgets/export', EXPORT, 'list', (s) => get(fleetUrl('/api/budgets/export', s))),
+  row('PUT /api/budgets/:siteId/:month', BUDGET(), 'site', (s) =>
+    put(`/api/budgets/${site(codeOf(s)).id}/2026-10`, { amountMinor: 400_000 }),
+  ),
+  row('DELETE /api/budgets/:siteId/:month', BUDGET(204), 'site', async (s) => del(await freshBudget(codeOf(s)))),
+
+  // Saws that stand out among their peers, and the follow-ups opened on them
+  row('GET /api/outliers', LIST, 'list', (s) => get(fleetUrl('/api/outliers', s))),
+  row('GET /api/outliers/export', EXPORT, 'list', (s) => get(fleetUrl('/api/outliers/export', s))),
+  row('GET /api/outliers/saws/:sawId', READ(), 'site', (s) => get(`/api/outliers/saws/${saw0(s)}`)),
+  row('GET /api/follow-ups', LIST, 'list', (s) => get(listUrl('/api/follow-ups', s)), {
+    total: `follow_ups WHERE site_id IN (:sites)`,
+  }),
+  row('GET /api/follow-ups/assignees', READ(), 'site', (s) => get(listUrl('/api/follow-ups/assignees', s))),
+  row('GET /api/follow-ups/export', EXPORT, 'list', (s) => get(listUrl('/api/follow-ups/export', s))),
+  row('GET /api/follow-ups/:id', READ(), 'site', (s) => get(`/api/follow-ups/${extra[codeOf(s)].followUpId}`)),
+  row('POST /api/follow-ups', { ...CREATE(201), lead: [201, 201, 400], siteAdmin: [403, 400, 400] }, 'site', (s) =>
+    post('/api/follow-ups', {
+      sawId: saw0(s),
+      title: 'Check the band tracking',
+      assigneeId: extra[codeOf(s)].userId,
+      dueOn: tomorrow(),
+    }),
+  ),
+  row('PATCH /api/follow-ups/:id', { ...TECH(), lead: [200, 200, 404] }, 'site', async (s) =>
+    patch(`/api/follow-ups/${await freshFollowUp(codeOf(s))}`, { note: 'Guides adjusted' }),
+  ),
+];
 // ---------------------------------------------------------------- running it
 beforeAll(async () => {
   ctx = startTestApp();
@@ -862,7 +972,9 @@ beforeAll(async () => {
       batchId: await freshBatch(c),
       userId: person.id,
       invitationId: await freshInvitation(c),
+      followUpId: '',
     };
+    extra[c].followUpId = await freshFollowUp(c);
   }
   // What names each site, gathered once: every id of its rows in the tables a site keeps, and its words.
   for (const c of CODES) {
