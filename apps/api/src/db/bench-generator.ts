@@ -4,8 +4,8 @@
  * sites that keep them — plus one person of each role with a known password. Every benchmark builds its data
  * here (`npm run bench:seed`, `bench-records.ts`, `bench-checks.ts`, `npm run bench`).
  *
- * Determinism: the data is written by set-based SQL on one connection after `setseed`, and every id is an MD5 of
- * a stable key, so two builds of the same seed give the same rows and ids (only `created_at` differs). The history
+ * Determinism: the data is written by set-based SQL on one connection after `setseed`, and every id is made from
+ * the MD5 of a stable key (`pg_temp.bench_id`), so two builds of the same seed give the same rows and ids (only `created_at` differs). The history
  * ends at the build's `now()`, so "last 30 days" and "overdue" mean the same on any day the fleet is built.
  *
  * The shape of the fleet (invented, tuned to look like a real operation; the figures are the demo's own):
@@ -61,7 +61,8 @@ const textArray = (client: pg.Client, values: string[]) =>
 /** The id of site n (1–60) of the benchmark fleet: every id is an MD5 of a stable key. */
 export const siteId = (n: number) => uuidOfMd5(`site-${n}`);
 function uuidOfMd5(key: string): string {
-  const h = createHash('md5').update(key).digest('hex');
+  const m = createHash('md5').update(key).digest('hex');
+  const h = `${m.slice(0, 12)}4${m.slice(13, 16)}8${m.slice(17)}`;
   return `${h.slice(0, 8)}-${h.slice(8, 12)}-${h.slice(12, 16)}-${h.slice(16, 20)}-${h.slice(20)}`;
 }
 
@@ -94,6 +95,9 @@ export async function buildBenchFleet(
   try {
     await client.query(`SET synchronous_commit = off; SET maintenance_work_mem = '256MB'; SET work_mem = '64MB'`);
     await client.query('SELECT setseed($1)', [options.seed ?? 0.2026]);
+    // A version-4-shaped UUID from the MD5 of a stable key (the API accepts only well-formed UUIDs).
+    await client.query(`CREATE FUNCTION pg_temp.bench_id(key text) RETURNS uuid LANGUAGE sql IMMUTABLE
+                          AS $$ SELECT overlay(overlay(md5(key) PLACING '4' FROM 13) PLACING '8' FROM 17)::uuid $$`);
 
     // Plain indexes (not those behind a constraint) are built once after the load instead of row by row.
     const { rows: plainIndexes } = await client.query<{ name: string; def: string }>(
@@ -110,9 +114,9 @@ export async function buildBenchFleet(
       'regions, sites, saws, blade specs, people',
       sql`
       INSERT INTO regions (id, name)
-        SELECT md5('region-' || n)::uuid, r FROM unnest(${textArray(client, REGIONS)}) WITH ORDINALITY AS x(r, n);
+        SELECT pg_temp.bench_id('region-' || n), r FROM unnest(${textArray(client, REGIONS)}) WITH ORDINALITY AS x(r, n);
       INSERT INTO sites (id, region_id, code, name, city, time_zone, currency, unit_system, created_at)
-        SELECT md5('site-' || n)::uuid, md5('region-' || (1 + (n - 1) % 6))::uuid, 'F' || lpad(n::text, 2, '0'),
+        SELECT pg_temp.bench_id('site-' || n), pg_temp.bench_id('region-' || (1 + (n - 1) % 6)), 'F' || lpad(n::text, 2, '0'),
                town || CASE WHEN n % 3 = 0 THEN ' Bar Works' WHEN n % 3 = 1 THEN ' Service Centre' ELSE ' Fabrication' END,
                town, (ARRAY['Europe/Amsterdam', 'Europe/Berlin', 'Europe/London', 'America/Chicago', 'Europe/Paris',
                              'America/Toronto'])[1 + (n - 1) % 6],
@@ -123,7 +127,7 @@ export async function buildBenchFleet(
     await client.query(sql`
       -- Saw n of a site: classes by n (0–5 mid-size horizontal, 6–8 large horizontal, 9 vertical, by n mod 10).
       CREATE TEMP TABLE bench_saw AS
-        SELECT md5('saw-' || s.n || '-' || g)::uuid AS id, md5('site-' || s.n)::uuid AS site_id, s.n AS site_no, g AS saw_no,
+        SELECT pg_temp.bench_id('saw-' || s.n || '-' || g) AS id, pg_temp.bench_id('site-' || s.n) AS site_id, s.n AS site_no, g AS saw_no,
                (s.n - 1) * 25 + g AS fleet_no,
                CASE WHEN g % 10 < 6 THEN 'mid' WHEN g % 10 < 9 THEN 'large' ELSE 'vertical' END AS class,
                s.n IN (${POOR_SITES.join(', ')}) AS poor_site, ((s.n - 1) * 25 + g) % 50 = 17 AS poor_saw,
@@ -150,7 +154,7 @@ export async function buildBenchFleet(
           FROM bench_saw;
       -- Fleet-wide blades: two a class (a coarser and a finer pitch).
       CREATE TEMP TABLE bench_spec AS
-        SELECT md5('spec-' || class || '-' || k)::uuid AS id, class, k, w, t, l, coarse, fine, cost
+        SELECT pg_temp.bench_id('spec-' || class || '-' || k) AS id, class, k, w, t, l, coarse, fine, cost
           FROM (VALUES ('mid', 1, 34, 1.1, 4115, 3, 4, 6200), ('mid', 2, 34, 1.1, 4115, 5, 8, 5900),
                        ('large', 1, 41, 1.3, 5090, 2, 3, 9400), ('large', 2, 41, 1.3, 5090, 3, 4, 9100),
                        ('vertical', 1, 27, 0.9, 3660, 6, 10, 4300), ('vertical', 2, 27, 0.9, 3660, 10, 14, 4500))
@@ -162,14 +166,14 @@ export async function buildBenchFleet(
                'bimetal', cost, 'EUR', 'Halden Strip Supply'
           FROM bench_spec;
       INSERT INTO users (id, email, name, role, password_hash, site_id, region_id, all_sites)
-        VALUES (md5('user-admin')::uuid, '${BENCH_USERS.admin}', 'Ada Quarrel', 'admin', ${hash}, NULL, NULL, false),
-               (md5('user-manager')::uuid, '${BENCH_USERS.manager}', 'Mira Stelling', 'manager', ${hash}, NULL, NULL, true),
-               (md5('user-lead')::uuid, '${BENCH_USERS.regionalLead}', 'Owen Farrady', 'regional_lead', ${hash}, NULL,
-                md5('region-1')::uuid, false),
-               (md5('user-site-admin')::uuid, '${BENCH_USERS.siteAdmin}', 'Lena Brisk', 'site_admin', ${hash},
-                md5('site-1')::uuid, NULL, false),
-               (md5('user-technician')::uuid, '${BENCH_USERS.technician}', 'Rafe Tolley', 'technician', ${hash},
-                md5('site-1')::uuid, NULL, false);
+        VALUES (pg_temp.bench_id('user-admin'), '${BENCH_USERS.admin}', 'Ada Quarrel', 'admin', ${hash}, NULL, NULL, false),
+               (pg_temp.bench_id('user-manager'), '${BENCH_USERS.manager}', 'Mira Stelling', 'manager', ${hash}, NULL, NULL, true),
+               (pg_temp.bench_id('user-lead'), '${BENCH_USERS.regionalLead}', 'Owen Farrady', 'regional_lead', ${hash}, NULL,
+                pg_temp.bench_id('region-1'), false),
+               (pg_temp.bench_id('user-site-admin'), '${BENCH_USERS.siteAdmin}', 'Lena Brisk', 'site_admin', ${hash},
+                pg_temp.bench_id('site-1'), NULL, false),
+               (pg_temp.bench_id('user-technician'), '${BENCH_USERS.technician}', 'Rafe Tolley', 'technician', ${hash},
+                pg_temp.bench_id('site-1'), NULL, false);
     `);
     // Each site's shipped list of checks, as a new site gets it.
     await sequelize.transaction(async (transaction) => {
@@ -193,8 +197,8 @@ export async function buildBenchFleet(
       INSERT INTO blade_runs (id, site_id, saw_id, blade_spec_id, installed_at, installed_by_id, tension_mpa,
                               material_group, break_in_followed, cost_minor, currency, removed_at, removal_reason,
                               area_cut_mm2, cuts, area_source)
-        SELECT md5('run-' || fleet_no || '-' || n)::uuid, site_id, id, md5('spec-' || class || '-' || spec_k)::uuid,
-               installed_at, CASE WHEN site_no = 1 THEN md5('user-technician')::uuid END,
+        SELECT pg_temp.bench_id('run-' || fleet_no || '-' || n), site_id, id, pg_temp.bench_id('spec-' || class || '-' || spec_k),
+               installed_at, CASE WHEN site_no = 1 THEN pg_temp.bench_id('user-technician') END,
                CASE WHEN roll2 < 0.7 THEN round((200 + roll2 * 80)::numeric, 0) END,
                (ARRAY['carbon_steel', 'carbon_steel', 'carbon_steel', 'alloy_steel', 'alloy_steel', 'stainless_steel',
                       'tool_steel', 'aluminium', 'cast_iron', 'copper_alloy'])[1 + (site_no + n) % 10],
@@ -228,7 +232,7 @@ export async function buildBenchFleet(
       'stops',
       sql`
       INSERT INTO stops (id, site_id, saw_id, started_at, ended_at, category, planned, notes)
-        SELECT md5('stop-' || fleet_no || '-' || n)::uuid, site_id, id, started_at,
+        SELECT pg_temp.bench_id('stop-' || fleet_no || '-' || n), site_id, id, started_at,
                CASE WHEN n = stops - 1 AND fleet_no % 97 = 5 THEN NULL
                     ELSE started_at + least(slot * 0.45, minutes * interval '1 minute') END,
                category, category = 'planned_maintenance',
@@ -260,7 +264,7 @@ export async function buildBenchFleet(
       INSERT INTO cut_logs (id, site_id, saw_id, blade_run_id, cut_at, shape, piece_count, pieces_across, material_group,
                             quantity, band_speed_m_per_min, feed_mm_per_min, cut_time_s, area_per_cut_mm2, area_cut_mm2,
                             teeth_in_work_min, teeth_in_work_max)
-        SELECT md5('cut-' || r.id || '-' || k)::uuid, r.site_id, r.saw_id, r.id,
+        SELECT pg_temp.bench_id('cut-' || r.id || '-' || k), r.site_id, r.saw_id, r.id,
                r.installed_at + (r.removed_at - r.installed_at) * (0.25 + 0.5 * (k - 1)),
                jsonb_build_object('kind', 'round_bar', 'diameterMm', d), 1, 1, r.material_group, q,
                60 + (q % 30), 25 + (q % 40), 60 + d, pi() * d * d / 4, pi() * d * d / 4 * q,
@@ -269,7 +273,7 @@ export async function buildBenchFleet(
           JOIN bench_saw w ON w.id = r.saw_id AND w.keeps_cut_logs
           CROSS JOIN generate_series(1, 2) k
           CROSS JOIN LATERAL (SELECT (40 + floor(random() * 16) * 10)::int AS d, (40 + floor(random() * 120))::int AS q
-                              OFFSET 0 * k) c
+                              WHERE r.id IS NOT NULL AND k > 0) c
          WHERE r.removed_at IS NOT NULL;
       UPDATE blade_runs r SET area_cut_mm2 = c.area, cuts = c.cuts, area_source = 'cut_logs'
         FROM (SELECT blade_run_id, sum(area_cut_mm2) AS area, sum(quantity) AS cuts FROM cut_logs GROUP BY 1) c
@@ -284,16 +288,16 @@ export async function buildBenchFleet(
       sql`
       INSERT INTO site_checks (id, site_id, name, quantity, target_rule, fixed_target, fixed_max, schedule,
                                interval_days, grace_hours, position, created_at)
-        SELECT md5('check-feed-' || n)::uuid, md5('site-' || n)::uuid, 'Feed cylinder pressure', 'stress', 'fixed',
+        SELECT pg_temp.bench_id('check-feed-' || n), pg_temp.bench_id('site-' || n), 'Feed cylinder pressure', 'stress', 'fixed',
                4, 4.5, 'periodic', 7, 24, 6, now() - interval '1830 days'
           FROM generate_series(1, 60) n;
       UPDATE site_checks SET created_at = now() - interval '1830 days';
       INSERT INTO check_records (id, site_id, saw_id, site_check_id, checked_at, checked_by_id, target_rule, quantity,
                                  reading, answers, target, max_value, passed, explanation)
-        SELECT md5('chk-' || w.fleet_no || '-' || n)::uuid, w.site_id, w.id, c.id,
+        SELECT pg_temp.bench_id('chk-' || w.fleet_no || '-' || n), w.site_id, w.id, c.id,
                now() - interval '1826 days' + n * (CASE WHEN w.poor_site THEN interval '8.9 days' ELSE interval '9.1 days' END)
                  + random() * interval '1 day',
-               CASE WHEN w.site_no = 1 THEN md5('user-technician')::uuid END,
+               CASE WHEN w.site_no = 1 THEN pg_temp.bench_id('user-technician') END,
                c.target_rule, c.quantity,
                CASE WHEN c.quantity = 'condition' THEN NULL WHEN r.passed THEN 1 + r.jitter * 0.4 ELSE 1.6 + r.jitter END,
                CASE WHEN c.quantity = 'condition' THEN jsonb_build_object('reachesGullets', true, 'worn', NOT r.passed) END,
