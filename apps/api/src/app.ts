@@ -21,6 +21,7 @@ import {
   type AttemptLimitSettings,
 } from './security/attempt-limits.js';
 import { initModels } from './db/models.js';
+import { readYourWrites } from './db/read-routing.js';
 import { checkCredentials } from './modules/auth/auth.service.js';
 import { authRouter } from './modules/auth/auth.router.js';
 import { healthRouter } from './modules/health/health.router.js';
@@ -71,6 +72,8 @@ export type AppDeps = {
   photoStorage?: PhotoStorage;
   /** The largest file and the most rows one import takes (IMPORT_MAX_BYTES, IMPORT_MAX_ROWS). */
   importLimits?: ImportLimits;
+  /** Set when reads go to a replica: a session's reads stay on the primary this long after it wrote. */
+  readYourWritesMs?: number;
 };
 
 export const SESSION_COOKIE = 'kerfline.sid';
@@ -169,6 +172,7 @@ export function createApp(deps: AppDeps): Express {
   passport.deserializeUser((id: string, done) => done(null, { id }));
   app.use(passport.initialize());
   app.use(passport.session());
+  if (deps.readYourWritesMs !== undefined) app.use(readYourWrites(deps.readYourWritesMs));
 
   // Each route that takes a secret has its own counter (attempt-limits.ts); a limit read from the settings.
   const limits = attempts.settings;
