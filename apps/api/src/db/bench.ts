@@ -58,7 +58,14 @@ const load = () => loadavg().map((l) => round(l));
 
 // ---------------------------------------------------------------------------------------------------------------
 // The endpoints. `who` signs in; paths are filled in from the fleet. Each is measured when the route exists here.
-type Endpoint = { name: string; who: keyof typeof BENCH_USERS; path: string; dashboard: boolean };
+type Endpoint = {
+  name: string;
+  who: keyof typeof BENCH_USERS;
+  path: string;
+  dashboard: boolean;
+  /** The floor every signed-in request pays: measured with all its statements (none left out). */
+  floor?: true;
+};
 
 const sql = new pg.Client({ connectionString: url });
 await sql.connect();
@@ -80,14 +87,21 @@ const { rows: sawRows } = await sql.query<{ id: string }>(
 const sawId = sawRows[0]!.id;
 const since = new Date(Date.now() - 365 * 86_400_000).toISOString().slice(0, 10);
 const endpoints: Endpoint[] = [
+  { name: 'floor: who am I (session and person)', who: 'manager', path: '/api/me', dashboard: false, floor: true },
   { name: 'fleet overview', who: 'manager', path: '/api/fleet/overview', dashboard: true },
   { name: 'fleet: one site', who: 'manager', path: `/api/fleet/sites/${site1}`, dashboard: true },
   { name: 'fleet: one saw', who: 'manager', path: `/api/fleet/saws/${sawId}`, dashboard: true },
-  { name: 'practice (break-in and tension)', who: 'manager', path: '/api/fleet/practice', dashboard: true },
+  { name: 'fleet: one saw’s blades', who: 'manager', path: `/api/fleet/saws/${sawId}/runs`, dashboard: true },
+  { name: 'practice (checks and blade life)', who: 'manager', path: '/api/fleet/practice', dashboard: true },
   { name: 'outliers', who: 'manager', path: '/api/outliers', dashboard: true },
+  { name: 'outliers of the lead’s region', who: 'regionalLead', path: '/api/outliers', dashboard: true },
   { name: 'budgets', who: 'manager', path: '/api/budgets', dashboard: true },
-  { name: 'CSV: fleet overview', who: 'manager', path: '/api/fleet/overview.csv', dashboard: true },
-  { name: 'CSV: outliers', who: 'manager', path: '/api/outliers.csv', dashboard: true },
+  { name: 'CSV: fleet overview', who: 'manager', path: '/api/fleet/overview/export', dashboard: true },
+  { name: 'CSV: one site', who: 'manager', path: `/api/fleet/sites/${site1}/export`, dashboard: true },
+  { name: 'CSV: one saw', who: 'manager', path: `/api/fleet/saws/${sawId}/export`, dashboard: true },
+  { name: 'CSV: practice', who: 'manager', path: '/api/fleet/practice/export', dashboard: true },
+  { name: 'CSV: outliers', who: 'manager', path: '/api/outliers/export', dashboard: true },
+  { name: 'CSV: budgets', who: 'manager', path: '/api/budgets/export', dashboard: true },
   { name: 'site summaries (tiles)', who: 'manager', path: '/api/site-summaries', dashboard: true },
   { name: 'check counts of every site', who: 'manager', path: '/api/check-counts', dashboard: true },
   { name: 'saw timeline', who: 'manager', path: `/api/saws/${sawId}/timeline`, dashboard: true },
@@ -226,12 +240,13 @@ type EndpointResult = Endpoint & {
   meetsRatio?: boolean;
 };
 const results: EndpointResult[] = [];
+const statementsOf = new Map<string, Statement[]>();
 const key = (s: Statement) => s.text.replace(/\s+/g, ' ').trim();
 
 for (const endpoint of endpoints) {
   // Statements every signed-in request of this person sends (session, person, ability), to leave out.
   const baseline = await captured(captureBase, captureCookies[endpoint.who]!, '/api/me');
-  const common = new Set(baseline.statements.map(key));
+  const common = new Set(endpoint.floor ? [] : baseline.statements.map(key));
   const got = await captured(captureBase, captureCookies[endpoint.who]!, endpoint.path);
   if (got.status === 404 && !endpoint.path.includes(site1) && !endpoint.path.includes(sawId)) {
     results.push({ ...endpoint, status: 404 });
@@ -244,6 +259,7 @@ for (const endpoint of endpoints) {
     continue;
   }
   const statements = got.statements.filter((s) => !common.has(key(s)));
+  statementsOf.set(endpoint.path, statements);
 
   const httpTimes: number[] = [];
   for (let i = 0; i < REPEATS + 2; i += 1) {
@@ -279,6 +295,28 @@ for (const endpoint of endpoints) {
 }
 captureServer.close();
 await Promise.allSettled([captureSequelize.close(), capturePool.end()]);
+
+// The plan of the heaviest statement of the heaviest endpoint (by bare SQL), for the write-up.
+const heaviestPlan = await (async () => {
+  const heaviest = [...results].filter((r) => r.sql).sort((a, b) => b.sql!.medianMs - a.sql!.medianMs)[0];
+  if (!heaviest) return null;
+  const statements = statementsOf.get(heaviest.path) ?? [];
+  let worst: { text: string; ms: number; plan: string[] } | null = null;
+  for (const s of statements) {
+    if (!/^\s*(select|with)\b/i.test(s.text)) continue;
+    const { rows } = await sql.query<{ 'QUERY PLAN': string }>(
+      `EXPLAIN (ANALYZE, BUFFERS, COSTS OFF) ${s.text}`,
+      s.values as unknown[] | undefined,
+    );
+    const plan = rows.map((r) => r['QUERY PLAN']);
+    const ms = Number(/Execution Time: ([\d.]+) ms/.exec(plan.at(-1) ?? '')?.[1] ?? 0);
+    if (!worst || ms > worst.ms) worst = { text: s.text, ms, plan };
+  }
+  if (!worst) return null;
+  console.log(`\nplan of the heaviest statement (${heaviest.name}, ${worst.ms} ms):`);
+  for (const line of worst.plan) console.log(`  ${line}`);
+  return { endpoint: heaviest.name, path: heaviest.path, statement: worst.text, plan: worst.plan };
+})();
 
 // ---------------------------------------------------------------------------------------------------------------
 // (c) load test
@@ -433,7 +471,7 @@ async function timeFirstChart(): Promise<Record<string, unknown> | null> {
         const t = performance.now();
         await tab.goto(page);
         const found = await tab
-          .waitForSelector('svg[role="img"], [data-chart] svg, .recharts-surface, svg g path', { timeout: 15_000 })
+          .waitForSelector(process.env.BENCH_CHART_SELECTOR ?? 'figure svg path', { timeout: 20_000 })
           .then(() => true)
           .catch(() => false);
         if (i > 0 && found) times.push(performance.now() - t);
@@ -455,7 +493,7 @@ async function timeFirstChart(): Promise<Record<string, unknown> | null> {
 }
 
 // ---------------------------------------------------------------------------------------------------------------
-const { rows: versionRows } = await sql.query<{ v: string }>('SHOW server_version');
+const { rows: versionRows } = await sql.query<{ v: string }>("SELECT current_setting('server_version') AS v");
 const { rows: countRows } = await sql.query(
   `SELECT (SELECT count(*) FROM sites)::int AS sites, (SELECT count(*) FROM saws)::int AS saws,
           (SELECT count(*) FROM blade_runs)::int AS "bladeRuns", (SELECT count(*) FROM stops)::int AS stops,
@@ -485,6 +523,7 @@ const report = {
     firstChartMs: 1500,
   },
   endpoints: results,
+  heaviestPlan,
   import: importResult,
   load: loadResults,
   web,
