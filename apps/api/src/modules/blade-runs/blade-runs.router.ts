@@ -11,6 +11,7 @@ import {
 } from '@kerfline/domain/blade-runs/schema';
 import { idSchema } from '@kerfline/domain/common/schema';
 import { abilityOf, actorOf } from '../../http/authenticate.js';
+import type { Actor } from '../../audit/write-audit.js';
 import { parsed, validate } from '../../http/validate.js';
 import {
   confirmCause,
@@ -26,7 +27,10 @@ import {
 
 const params = z.object({ id: idSchema });
 
-export function bladeRunsRouter(): Router {
+/** What follows a blade drawn from a site's stock (the low-stock notice); it never undoes the install. */
+export type AfterStockDrawn = (actor: Actor, siteId: string, bladeSpecId: string) => Promise<unknown>;
+
+export function bladeRunsRouter(afterStockDrawn?: AfterStockDrawn): Router {
   const router = Router();
   router.get('/blade-runs', validate('query', bladeRunListQuerySchema), async (_req, res) => {
     res.json(await listBladeRuns(abilityOf(res), parsed(res, 'query', bladeRunListQuerySchema)));
@@ -35,7 +39,13 @@ export function bladeRunsRouter(): Router {
     res.json(await getBladeRun(abilityOf(res), parsed(res, 'params', params).id));
   });
   router.post('/blade-runs', validate('body', bladeRunInstallSchema), async (_req, res) => {
-    res.status(201).json(await installBladeRun(actorOf(res), parsed(res, 'body', bladeRunInstallSchema)));
+    const actor = actorOf(res);
+    const result = await installBladeRun(actor, parsed(res, 'body', bladeRunInstallSchema));
+    if (afterStockDrawn && result.run.stockReceiptId !== null)
+      await afterStockDrawn(actor, result.run.siteId, result.run.bladeSpecId).catch((err: unknown) =>
+        res.log.error({ err }, 'the low-stock check after a blade was drawn failed; the blade is on the saw'),
+      );
+    res.status(201).json(result);
   });
   router.post(
     '/blade-runs/:id/remove',

@@ -19,6 +19,8 @@ export const HISTORY_ENTITIES: Record<string, string> = {
   StockLevel: 'Stock levels',
   CutLog: 'Cut log',
   Photo: 'Photo',
+  SiteCheck: 'Check on the list',
+  CheckRecord: 'Check recorded',
   SiteSetting: 'Site setting',
   Saw: 'Saw',
   Site: 'Site',
