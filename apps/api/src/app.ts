@@ -21,6 +21,7 @@ import {
   type AttemptLimitSettings,
 } from './security/attempt-limits.js';
 import { initModels } from './db/models.js';
+import { readYourWrites } from './db/read-routing.js';
 import { checkCredentials } from './modules/auth/auth.service.js';
 import { authRouter } from './modules/auth/auth.router.js';
 import { healthRouter } from './modules/health/health.router.js';
@@ -77,6 +78,8 @@ export type AppDeps = {
   photoStorage?: PhotoStorage;
   /** The largest file and the most rows one import takes (IMPORT_MAX_BYTES, IMPORT_MAX_ROWS). */
   importLimits?: ImportLimits;
+  /** Set when reads go to a replica: a session's reads stay on the primary this long after it wrote. */
+  readYourWritesMs?: number;
 };
 
 export const SESSION_COOKIE = 'kerfline.sid';
@@ -136,13 +139,34 @@ export function createApp(deps: AppDeps): Express {
 
   const sessionIdleMs = deps.sessionIdleMs ?? 12 * 60 * 60 * 1000;
   const PgStore = connectPgSimple(session);
+  /**
+   * Every answered request extends its session's expiry (a touch), and the answer waits for it: one commit per
+   * page. That commit alone skips waiting for the disk (synchronous_commit off): after a database crash, a touch
+   * lost from its last fraction of a second only makes that session end a little sooner. Sign-in (a save) and
+   * sign-out (a delete) keep full durability. Measured with `npm run bench` (DEVELOPERS.md, "Scale").
+   */
+  class SessionStore extends PgStore {
+    override touch(sid: string, sess: session.SessionData, done?: (err?: unknown) => void): void {
+      if (!/^[\w-]+$/.test(sid)) return super.touch(sid, sess, done);
+      const maxAge = sess.cookie?.maxAge;
+      const expire = Math.ceil(Date.now() / 1000 + (typeof maxAge === 'number' ? maxAge / 1000 : 86_400));
+      deps.sessionPool
+        .query(
+          `SET LOCAL synchronous_commit = off; UPDATE sessions SET expire = to_timestamp(${expire}) WHERE sid = '${sid}'`,
+        )
+        .then(
+          () => done?.(),
+          (error: unknown) => done?.(error),
+        );
+    }
+  }
   // The pool must listen for errors: an idle client the server drops (a PostgreSQL restart) emits one, and an
   // unheard 'error' event would end the process. The pool replaces the client on the next request.
   deps.sessionPool.on('error', () => undefined);
   app.use(
     session({
       name: SESSION_COOKIE,
-      store: new PgStore({ pool: deps.sessionPool, tableName: 'sessions', pruneSessionInterval: 15 * 60 }),
+      store: new SessionStore({ pool: deps.sessionPool, tableName: 'sessions', pruneSessionInterval: 15 * 60 }),
       secret: deps.sessionSecret,
       resave: false,
       saveUninitialized: false,
@@ -175,6 +199,7 @@ export function createApp(deps: AppDeps): Express {
   passport.deserializeUser((id: string, done) => done(null, { id }));
   app.use(passport.initialize());
   app.use(passport.session());
+  if (deps.readYourWritesMs !== undefined) app.use(readYourWrites(deps.readYourWritesMs));
 
   // Each route that takes a secret has its own counter (attempt-limits.ts); a limit read from the settings.
   const limits = attempts.settings;

@@ -2,13 +2,14 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import pg from 'pg';
 import { createApp } from './app.js';
-import { attemptLimitsOf, databaseUrl, loadEnv, publicUrl } from './config/env.js';
+import { attemptLimitsOf, databaseUrl, loadEnv, publicUrl, replicaUrl } from './config/env.js';
 import { Jobs } from './jobs/jobs.js';
 import { createSequelize } from './db/sequelize.js';
 
 const env = loadEnv();
 const url = databaseUrl(env);
-const sequelize = createSequelize(url);
+const replica = replicaUrl(env);
+const sequelize = createSequelize(url, { replicaUrl: replica });
 // A connection that cannot be made within 10 s fails (503) rather than holding the request.
 const sessionPool = new pg.Pool({ connectionString: url, max: 5, connectionTimeoutMillis: 10_000 });
 const here = path.dirname(fileURLToPath(import.meta.url));
@@ -29,6 +30,12 @@ const jobs = new Jobs(
     },
     retryLimit: env.MAIL_RETRY_LIMIT,
     retryDelaySeconds: env.MAIL_RETRY_DELAY_SECONDS,
+    ...(env.JOBS_CRON_CHECK_SECONDS
+      ? {
+          cronMonitorIntervalSeconds: env.JOBS_CRON_CHECK_SECONDS,
+          cronWorkerIntervalSeconds: env.JOBS_CRON_CHECK_SECONDS,
+        }
+      : {}),
     schedule: {
       weeklyDigestCron: env.WEEKLY_DIGEST_CRON,
       monthlySummaryCron: env.MONTHLY_SUMMARY_CRON,
@@ -53,13 +60,16 @@ const app = createApp({
   logLevel: env.LOG_LEVEL,
   jobs,
   mailCatcherDir: env.MAIL_CATCHER_DIR,
+  ...(replica ? { readYourWritesMs: env.READ_YOUR_WRITES_SECONDS * 1000 } : {}),
 });
 
 if (env.JOBS_WORKERS) await jobs.startWorkers();
 else await jobs.start();
 
 const server = app.listen(env.PORT, env.HOST, () => {
-  console.log(`Kerfline is listening on http://${env.HOST}:${env.PORT}`);
+  console.log(
+    `Kerfline is listening on http://${env.HOST}:${env.PORT}${replica ? ' (reads on the replica ' + new URL(replica).host + ')' : ''}`,
+  );
 });
 
 async function shutdown(signal: string) {

@@ -29,6 +29,11 @@ const envSchema = z.object({
   PGUSER: z.string().default('postgres'),
   PGPASSWORD: z.string().optional(),
   PGDATABASE: z.string().default('kerfline'),
+  /** A streaming replica of the same cluster for reads (off when neither is set); writes stay on the primary. */
+  DATABASE_REPLICA_URL: z.string().optional(),
+  PGREPLICA_PORT: z.coerce.number().int().min(1).max(65535).optional(),
+  /** How long a session's reads stay on the primary after it wrote (with a replica). */
+  READ_YOUR_WRITES_SECONDS: z.coerce.number().min(0).max(3600).default(10),
   SESSION_SECRET: z.string().min(16, { message: 'SESSION_SECRET must be at least 16 characters' }),
   /** Folder with the built web app; served by the API in production. */
   WEB_DIST: z.string().optional(),
@@ -87,6 +92,8 @@ const envSchema = z.object({
   /** Cron lines (minute hour day month weekday) for the scheduled mail, read in SCHEDULE_TIME_ZONE. */
   WEEKLY_DIGEST_CRON: z.string().min(9).default('0 6 * * 1'),
   MONTHLY_SUMMARY_CRON: z.string().min(9).default('0 6 1 * *'),
+  /** How often pg-boss looks at the schedules (its defaults, 30 s and 5 s, when unset); tests go faster. */
+  JOBS_CRON_CHECK_SECONDS: z.coerce.number().int().min(1).max(60).optional(),
   /** The largest file one import takes, in bytes (50 MiB), and the most rows. */
   IMPORT_MAX_BYTES: z.coerce
     .number()
@@ -118,6 +125,13 @@ export function databaseUrl(env: Env): string {
     ? `${encodeURIComponent(env.PGUSER)}:${encodeURIComponent(env.PGPASSWORD)}`
     : encodeURIComponent(env.PGUSER);
   return `postgres://${auth}@${env.PGHOST}:${env.PGPORT}/${encodeURIComponent(env.PGDATABASE)}`;
+}
+
+/** The read replica's connection string, or undefined when reads stay on the primary. */
+export function replicaUrl(env: Env): string | undefined {
+  if (env.DATABASE_REPLICA_URL) return env.DATABASE_REPLICA_URL;
+  if (env.PGREPLICA_PORT === undefined) return undefined;
+  return databaseUrl({ ...env, PGPORT: env.PGREPLICA_PORT, DATABASE_URL: undefined });
 }
 
 /** The attempt limits of security/attempt-limits.ts, from the environment. */

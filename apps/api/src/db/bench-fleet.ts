@@ -1,10 +1,10 @@
 /**
- * Benchmark of the fleet figures at the large customer's size, on the database `bench-records.ts` builds (60 sites,
- * 1 500 saws, 750 000 blade runs, 1 000 000 stops over five years; run that first). Applies any newer migrations,
+ * Benchmark of the fleet figures at the large customer's size, on the fleet `npm run bench:seed` builds (60 sites,
+ * 1 500 saws, about 750 000 blade runs and 1 000 000 stops over five years; run that first). Applies any newer migrations,
  * then prints how long each fleet screen's request takes, and the plan of the heaviest statement for one month
  * (every site's figures), to show it reads that month's rows through the indexes. Figures are printed, never asserted.
  *
- *   PGDATABASE=kerfline_bench npx tsx --conditions=source apps/api/src/db/bench-records.ts   # once, builds the data
+ *   npm run bench:seed   # once, builds the data
  *   PGDATABASE=kerfline_bench npx tsx --conditions=source apps/api/src/db/bench-fleet.ts
  */
 import { performance } from 'node:perf_hooks';
@@ -29,7 +29,7 @@ await createMigrator(sequelize).up();
 const n = (
   (await sequelize.query('SELECT count(*)::int AS n FROM blade_runs', { type: 'SELECT' })) as { n: number }[]
 )[0]!.n;
-if (n < 700_000) throw new Error('Build the data first: run bench-records.ts against this database');
+if (n < 700_000) throw new Error('Build the data first: npm run bench:seed');
 
 async function time(label: string, work: () => Promise<unknown>): Promise<void> {
   await work();

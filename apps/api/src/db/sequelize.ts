@@ -1,15 +1,40 @@
 import { Sequelize } from 'sequelize';
 import pg from 'pg';
+import { routeReadsByRequest } from './read-routing.js';
 
 // DATE columns come back as JS Dates; BIGINT (count(*)) as strings: parse the latter, totals fit in 2^53.
 pg.types.setTypeParser(pg.types.builtins.INT8, (v) => Number.parseInt(v, 10));
 
-export function createSequelize(url: string, options: { logging?: boolean; poolMax?: number } = {}): Sequelize {
-  return new Sequelize(url, {
+/**
+ * The app's Sequelize. With `replicaUrl` (a PostgreSQL streaming replica of the same cluster), plain reads go to
+ * the replica and writes, transactions and reads marked `useMaster` to `url` (Sequelize's `replication`); see
+ * read-routing.ts for which requests read the primary.
+ */
+export function createSequelize(
+  url: string,
+  options: { logging?: boolean; poolMax?: number; replicaUrl?: string | undefined } = {},
+): Sequelize {
+  const sequelize = new Sequelize(url, {
     dialect: 'postgres',
     dialectModule: pg,
     logging: options.logging ? console.log : false,
     pool: { max: options.poolMax ?? 10, idle: 10_000 },
     define: { underscored: true, timestamps: true },
+    ...(options.replicaUrl
+      ? { replication: { read: [connectionOf(options.replicaUrl)], write: connectionOf(url) } }
+      : {}),
   });
+  if (options.replicaUrl) routeReadsByRequest(sequelize);
+  return sequelize;
+}
+
+function connectionOf(url: string) {
+  const u = new URL(url);
+  return {
+    host: decodeURIComponent(u.hostname),
+    port: u.port || '5432',
+    username: decodeURIComponent(u.username),
+    password: decodeURIComponent(u.password),
+    database: decodeURIComponent(u.pathname.slice(1)),
+  };
 }

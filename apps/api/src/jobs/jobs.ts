@@ -10,6 +10,7 @@ import { renderMail } from '../mail/templates.js';
 import { buildMail } from './mail-content.js';
 import type { MailQueue, QueuedMail } from './mail-queue.js';
 import { wallClockIn } from './zoned.js';
+import { onPrimary } from '../db/read-routing.js';
 
 /** pg-boss queues: one for sending single mails, one per schedule that fans out to the recipients. */
 export const QUEUES = {
@@ -77,7 +78,19 @@ export class Jobs implements MailQueue {
   start(): Promise<void> {
     this.ready ??= (async () => {
       await this.boss.start();
-      for (const name of Object.values(QUEUES)) await this.boss.createQueue(name, { name, policy: 'standard' });
+      // Processes starting together on a new database create the same queues at once; pg-boss's function for it
+      // can then deadlock with itself (40P01). The queue exists afterwards either way: try again.
+      for (const name of Object.values(QUEUES)) {
+        for (let attempt = 1; ; attempt += 1) {
+          try {
+            await this.boss.createQueue(name, { name, policy: 'standard' });
+            break;
+          } catch (error) {
+            if ((error as { code?: string }).code !== '40P01' || attempt === 5) throw error;
+            await new Promise((resolve) => setTimeout(resolve, 50 * attempt));
+          }
+        }
+      }
     })();
     return this.ready;
   }
@@ -93,13 +106,13 @@ export class Jobs implements MailQueue {
       includeMetadata: true,
     } as const;
     await this.boss.work<SendJob>(QUEUES.send, polling, async ([job]) => {
-      if (job) await this.deliver(job.data.mailId, job.retryCount, job.retryLimit);
+      if (job) await onPrimary(() => this.deliver(job.data.mailId, job.retryCount, job.retryLimit));
     });
     await this.boss.work(QUEUES.weeklyDigest, polling, async ([job]) => {
-      if (job) await this.fanOut('weekly_digest', job.createdOn);
+      if (job) await onPrimary(() => this.fanOut('weekly_digest', job.createdOn));
     });
     await this.boss.work(QUEUES.monthlySummary, polling, async ([job]) => {
-      if (job) await this.fanOut('monthly_summary', job.createdOn);
+      if (job) await onPrimary(() => this.fanOut('monthly_summary', job.createdOn));
     });
     const tz = { tz: this.options.schedule.timeZone };
     await this.boss.schedule(QUEUES.weeklyDigest, this.options.schedule.weeklyDigestCron, {}, tz);
