@@ -230,4 +230,44 @@ describe('a site’s record tables keep their state in the address', () => {
     },
     ROUTER_TEST_MS,
   );
+
+  it(
+    'offers a site admin the table as CSV with the same filters and sort, and every row rather than the page',
+    async () => {
+      const { requests, user } = renderAt(`/sites/${SITE_ID}/blade-runs?reason=broken&state=off&offset=25`, {
+        'GET /api/blade-runs': { status: 200, body: page([makeRun()]) },
+        'GET /api/blade-runs/export': {
+          status: 503,
+          body: { error: { code: 'UNAVAILABLE', message: 'The database is restarting; try again in a minute.' } },
+        },
+      });
+      const table = await screen.findByRole('region', { name: 'Blade runs' }, { timeout: 5000 });
+      await user.click(within(table).getByRole('button', { name: 'Export CSV' }));
+      await waitFor(() => expect(requests.some((r) => r.path === '/api/blade-runs/export')).toBe(true));
+      expect(lastQuery(requests, '/api/blade-runs/export')).toEqual({
+        siteId: SITE_ID,
+        reason: 'broken',
+        open: 'false',
+        sort: '-installedAt',
+      });
+      // A refusal or failure is said in the server's words, never a file that looks complete.
+      expect(await within(table).findByRole('alert')).toHaveTextContent(
+        'The database is restarting; try again in a minute.',
+      );
+    },
+    ROUTER_TEST_MS,
+  );
+
+  it(
+    'offers a technician no export: they read their site’s records but do not export them',
+    async () => {
+      renderAt(`/sites/${SITE_ID}/stops`, {
+        'GET /api/me': { status: 200, body: makeMe('technician') },
+        'GET /api/stops': { status: 200, body: page([]) },
+      });
+      const table = await screen.findByRole('region', { name: 'Stops' }, { timeout: 5000 });
+      expect(within(table).queryByRole('button', { name: 'Export CSV' })).not.toBeInTheDocument();
+    },
+    ROUTER_TEST_MS,
+  );
 });
