@@ -678,6 +678,9 @@ const TABLE: Row[] = [
   row('GET /api/sites/:id/stock/movements', READ(), 'site', (s) =>
     get(`/api/sites/${site(codeOf(s)).id}/stock/movements`),
   ),
+  row('GET /api/sites/:id/stock/movements/export', EXPORT_SITE, 'site', (s) =>
+    get(`/api/sites/${site(codeOf(s)).id}/stock/movements/export`),
+  ),
   row('PUT /api/sites/:id/stock/:bladeSpecId/levels', SITE_ADMIN(), 'site', (s) =>
     put(`/api/sites/${site(codeOf(s)).id}/stock/${records.fleetSpec.id}/levels`, { leadTimeDays: 12, safetyStock: 1 }),
   ),
@@ -686,6 +689,10 @@ const TABLE: Row[] = [
   row('GET /api/blade-runs', LIST, 'list', (s) => get(listUrl('/api/blade-runs', s)), {
     total: `blade_runs WHERE site_id IN (:sites)`,
   }),
+  // A site's table as CSV: a site outside the scope is 404 (not an empty file), a technician 403.
+  row('GET /api/blade-runs/export', EXPORT_SITE, 'site', (s) =>
+    get(`/api/blade-runs/export?siteId=${site(codeOf(s)).id}`),
+  ),
   row('GET /api/blade-runs/:id', READ(), 'site', (s) => get(`/api/blade-runs/${records[codeOf(s)].run.id}`)),
   row('POST /api/blade-runs', CREATE(201, true), 'site', async (s) =>
     post('/api/blade-runs', { sawId: (await freshSaw(codeOf(s))).id, bladeSpecId: records.fleetSpec.id }),
@@ -713,6 +720,7 @@ const TABLE: Row[] = [
   row('GET /api/stops', LIST, 'list', (s) => get(listUrl('/api/stops', s)), {
     total: `stops WHERE site_id IN (:sites)`,
   }),
+  row('GET /api/stops/export', EXPORT_SITE, 'site', (s) => get(`/api/stops/export?siteId=${site(codeOf(s)).id}`)),
   row('GET /api/stops/:id', READ(), 'site', (s) => get(`/api/stops/${records[codeOf(s)].stop.id}`)),
   row('POST /api/stops', CREATE(201, true), 'site', async (s) =>
     post('/api/stops', { sawId: (await freshSaw(codeOf(s))).id, category: 'electrical' }),
@@ -809,6 +817,9 @@ const TABLE: Row[] = [
     del(`/api/site-checks/${(await freshCheck(codeOf(s))).id}`),
   ),
   row('GET /api/saws/:id/checks', READ(), 'site', (s) => get(`/api/saws/${saw0(s)}/checks`)),
+  row('GET /api/check-records/export', EXPORT_SITE, 'site', (s) =>
+    get(`/api/check-records/export?siteId=${site(codeOf(s)).id}`),
+  ),
   row('GET /api/check-records', LIST, 'list', (s) => get(listUrl('/api/check-records', s)), {
     total: `check_records WHERE site_id IN (:sites)`,
   }),
