@@ -101,14 +101,22 @@ async function findReadable(ability: AppAbility, id: string): Promise<Saw> {
   return saw;
 }
 
-/** The target site must be one the caller can see; otherwise it is reported like a missing site. */
-async function assertSiteReadable(ability: AppAbility, siteId: string): Promise<void> {
+/**
+ * The target site must be one the caller can see (otherwise it is reported like a missing site) and in use: a
+ * retired site keeps its saws for history but takes no new ones.
+ */
+async function assertSiteTakesSaws(ability: AppAbility, siteId: string): Promise<void> {
   const site = await Site.findOne({
     where: scopedWhere(ability, 'read', 'Site', Site, { id: siteId }),
-    attributes: ['id'],
+    attributes: ['id', 'name', 'retiredAt'],
   });
   if (!site)
     throw AppError.validation('That site does not exist', [{ path: 'siteId', message: 'choose one of your sites' }]);
+  if (site.retiredAt)
+    throw new AppError(
+      'CONFLICT',
+      `${site.name} is retired, so it takes no saws; an administrator can bring the site back first`,
+    );
 }
 
 export async function getSaw(ability: AppAbility, id: string): Promise<SawDto> {
@@ -130,7 +138,7 @@ const auditValues = (saw: Saw): Record<string, unknown> => {
 };
 
 export async function createSaw({ ability, userId }: Actor, input: SawCreateParsed): Promise<SawDto> {
-  await assertSiteReadable(ability, input.siteId);
+  await assertSiteTakesSaws(ability, input.siteId);
   ForbiddenError.from(ability)
     .setMessage('You cannot add saws at this site')
     .throwUnlessCan('create', subject('Saw', { id: '', ...input }));
@@ -156,7 +164,7 @@ export async function updateSaw({ ability, userId }: Actor, id: string, patch: S
   const issues = sawRangeIssues(merged);
   if (issues.length > 0) throw AppError.validation('Some fields need fixing', issues);
   if (patch.siteId && patch.siteId !== current.siteId) {
-    await assertSiteReadable(ability, patch.siteId);
+    await assertSiteTakesSaws(ability, patch.siteId);
     await assertNoRecords(saw.id);
   }
   // Check the record as it will be, so nobody can move a saw into a site they do not manage.

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { startTestApp, signedInAgent, type TestContext } from '../../test-support/test-db.js';
-import { buildWorld, PASSWORD, type World } from '../../test-support/fixtures.js';
+import { buildWorld, sawBody, PASSWORD, type World } from '../../test-support/fixtures.js';
 
 let ctx: TestContext;
 let world: World;
@@ -144,7 +144,14 @@ describe('retiring sites and renaming regions', () => {
     expect((await lead.get(`/api/saws?siteId=${world.sites.B.id}`)).body.total).toBe(2);
     expect((await admin.patch(`/api/sites/${world.sites.B.id}`).send({ name: 'x' })).status).toBe(409);
     expect((await admin.post(`/api/sites/${world.sites.B.id}/retire`)).status).toBe(409);
+    // A retired site takes no saws, new or moved there; the answer says how to bring it back.
+    const added = await admin.post('/api/saws').send(sawBody(world.sites.B.id, { assetTag: 'B-NEW' }));
+    expect(added.status).toBe(409);
+    expect(added.body.error.message).toMatch(/retired, so it takes no saws; an administrator can bring the site back/);
+    const movedThere = await admin.patch(`/api/saws/${world.saws.A![0]!.id}`).send({ siteId: world.sites.B.id });
+    expect(movedThere.status).toBe(409);
     await admin.post(`/api/sites/${world.sites.B.id}/restore`).expect(200);
+    expect((await admin.post('/api/saws').send(sawBody(world.sites.B.id, { assetTag: 'B-NEW' }))).status).toBe(201);
     expect(codes((await admin.get('/api/sites')).body)).toEqual(['A', 'B', 'C']);
     const history = (await admin.get(`/api/audit?entity=Site&entityId=${world.sites.B.id}`)).body.items;
     expect(history.map((e: { action: string }) => e.action)).toEqual(['restore', 'retire']);
