@@ -103,11 +103,13 @@ beforeAll(async () => {
   await admin.patch(`/api/saws/${world.saws.C![1]!.id}`).send({ name: 'Ünïcödé saw – 7' }).expect(200);
   await dropRestored();
 });
+// Dropping the restored database waits for its connections to close: on a loaded machine that takes longer than
+// vitest's 30 s default for a hook.
 afterAll(async () => {
   await ctx.close();
   await dropRestored();
   rmSync(dir, { recursive: true, force: true });
-});
+}, 120_000);
 
 describe('backup.sh and restore.sh', () => {
   it('round-trip every table: the same rows, byte for byte, in a freshly restored database', async () => {

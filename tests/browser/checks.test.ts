@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Locator, Page } from 'playwright-core';
-import { DEMO, DESKTOP, PHONE, launch, newPage, shot, signIn } from './support.js';
+import { DEMO, DESKTOP, PHONE, SCREENSHOTS, launch, newPage, shot, signIn } from './support.js';
 
 let browser: Browser;
 
@@ -143,5 +143,67 @@ describe('maintenance checks on the shop floor', () => {
     await expect.poll(() => page.getByRole('article', { name: 'Guide bearing clearance' }).count()).toBe(1);
     expect(await page.getByRole('button', { name: /^Change / }).count()).toBe(0);
     await context.close();
+  });
+
+  it('a site admin gives a spring-fed saw its own head-force limit, and its head-force check is judged by it', async () => {
+    const { context, page } = await newPage(browser, PHONE);
+    await signIn(page, DEMO.siteAdmin);
+    const sawId = await page.evaluate(async () => {
+      const saws = (await (await fetch('/api/saws?limit=100')).json()) as { items: { id: string; assetTag: string }[] };
+      return saws.items.find((s) => s.assetTag === 'HAM-S05')!.id;
+    });
+    await page.goto(`/saws/${sawId}/edit`);
+    // HAM-S05's head feeds by gravity against a spring: the form asks for its limits, in lbf at this imperial site.
+    const largest = page.getByRole('textbox', { name: /Largest head force/ });
+    await expect.poll(() => largest.count()).toBe(1);
+    expect(await largest.getAttribute('aria-describedby')).toBeTruthy();
+    await largest.fill('6');
+    await largest.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SCREENSHOTS}/saw-head-force-edit-phone.png` });
+    await page.getByRole('button', { name: 'Save changes' }).click();
+    await page.waitForURL((url) => url.pathname === `/saws/${sawId}`);
+    const machine = page.getByRole('region', { name: 'Machine' });
+    await expect.poll(async () => textOf(machine)).toMatch(/Largest head force\s*6 lbf/);
+    expect(await textOf(machine)).toContain(`This saw’s limit, set by Ines Carvalho on ${todayAtHammerfield()}.`);
+    expect(await fitsWidth(page)).toBe(true);
+
+    // The saw's head-force check reads the saw's own 6 lbf (26.7 N), and says whose figure it is.
+    const target = await page.evaluate(async (id) => {
+      const checks = (await (await fetch(`/api/saws/${id}/checks`)).json()) as {
+        items: {
+          check: { targetRule: string };
+          target: { max: number; basis: { kind: string; setByName?: string } };
+        }[];
+      };
+      return checks.items.find((i) => i.check.targetRule === 'feed_pressure')!.target;
+    }, sawId);
+    expect(target.max).toBeCloseTo(26.689, 3);
+    expect(target.basis).toMatchObject({ kind: 'record', setByName: 'Ines Carvalho' });
+    await context.close();
+  });
+
+  it('a lead looks back over a site’s recorded checks, failed ones first filtered, as cards on a phone', async () => {
+    const { context, page } = await newPage(browser, PHONE);
+    await signIn(page, DEMO.lead);
+    const siteId = await hammerfieldId(page);
+    await page.goto(`/sites/${siteId}`);
+    await page.getByRole('link', { name: 'Checks recorded' }).click();
+    const table = page.getByRole('region', { name: 'Checks recorded' });
+    await expect.poll(() => table.count()).toBe(1);
+    await page.getByRole('combobox', { name: 'Verdict' }).selectOption('failed');
+    await page.waitForURL((url) => url.searchParams.get('verdict') === 'failed');
+    await expect.poll(async () => table.locator('span[data-shape="square"]').count()).toBeGreaterThan(0);
+    expect(await table.locator('span[data-shape="circle"]').count()).toBe(0);
+    expect(await textOf(table)).toMatch(/of [\d,]+ recorded checks/);
+    expect(await fitsWidth(page)).toBe(true);
+    await shot(page, 'check-records-phone');
+    await context.close();
+
+    const desk = await newPage(browser, DESKTOP);
+    await signIn(desk.page, DEMO.lead);
+    await desk.page.goto(`/sites/${siteId}/check-records`);
+    await expect.poll(() => desk.page.getByRole('table', { name: 'Checks recorded' }).count()).toBe(1);
+    await shot(desk.page, 'check-records-desktop');
+    await desk.context.close();
   });
 });

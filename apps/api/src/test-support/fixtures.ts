@@ -156,168 +156,173 @@ export async function buildRecords(world: World) {
     currency: 'EUR',
     supplier: 'Test supplier',
   });
-  const day = 86_400_000;
-  const now = Date.now();
-  const records: Record<
-    'A' | 'C',
-    { receipt: StockReceipt; run: BladeRun; openRun: BladeRun; stop: Stop; checkRecord: CheckRecord }
-  > = {} as never;
-  for (const code of ['A', 'C'] as const) {
-    const site = world.sites[code];
-    const [saw1, saw2] = world.saws[code]!;
-    const receipt = await StockReceipt.create({
-      siteId: site.id,
-      bladeSpecId: fleetSpec.id,
-      quantity: 5,
-      unitCostMinor: 6100,
-      currency: 'EUR',
-      receivedOn: new Date(now - 40 * day).toISOString().slice(0, 10),
-      reference: code === 'A' ? 'LOT-1' : null,
-      notes: null,
-      createdById: null,
-    });
-    const run = await BladeRun.create({
-      siteId: site.id,
-      sawId: saw1!.id,
-      bladeSpecId: fleetSpec.id,
-      stockReceiptId: receipt.id,
-      installedAt: new Date(now - 30 * day),
-      installedById: null,
-      tensionMpa: null,
-      materialGroup: null,
-      breakInFollowed: null,
-      installNotes: null,
-      costMinor: 6100,
-      currency: 'EUR',
-      removedAt: new Date(now - 20 * day),
-      removalReason: 'worn_out',
-    });
-    const openRun = await BladeRun.create({
-      siteId: site.id,
-      sawId: saw1!.id,
-      bladeSpecId: fleetSpec.id,
-      stockReceiptId: null,
-      installedAt: new Date(now - 20 * day),
-      installedById: null,
-      tensionMpa: 220,
-      materialGroup: 'carbon_steel',
-      breakInFollowed: true,
-      installNotes: null,
-      costMinor: 6000,
-      currency: 'EUR',
-    });
-    const stop = await Stop.create({
-      siteId: site.id,
-      sawId: saw2!.id,
-      startedAt: new Date(now - 3 * day),
-      endedAt: new Date(now - 2 * day),
-      category: 'mechanical',
-      planned: false,
-      notes: null,
-      createdById: null,
-      endedById: null,
-    });
-    await Stop.create({
-      siteId: site.id,
-      sawId: saw2!.id,
-      startedAt: new Date(now - day),
-      endedAt: null,
-      category: 'hydraulic',
-      planned: false,
-      notes: 'Open',
-      createdById: null,
-      endedById: null,
-    });
-    await CutLog.create({
-      siteId: site.id,
-      sawId: saw1!.id,
-      bladeRunId: code === 'A' ? openRun.id : null,
-      cutAt: new Date(now - 5 * day),
-      shape: { kind: 'round_bar', diameterMm: 100 },
-      pieceCount: 1,
-      piecesAcross: 1,
-      materialGroup: 'carbon_steel',
-      quantity: 10,
-      bandSpeedMPerMin: null,
-      feedMmPerMin: null,
-      cutTimeS: null,
-      areaPerCutMm2: 7854,
-      areaCutMm2: 78540,
-      teethInWorkMin: null,
-      teethInWorkMax: null,
-      warnings: [],
-      notes: null,
-      createdById: null,
-    });
-    await Photo.create({
-      siteId: site.id,
-      bladeRunId: run.id,
-      contentType: 'image/png',
-      byteSize: 10,
-      widthPx: 1,
-      heightPx: 1,
-      caption: null,
-      uploadedById: null,
-    });
-    await StockLevel.create({
-      siteId: site.id,
-      bladeSpecId: fleetSpec.id,
-      leadTimeDays: 10,
-      safetyStock: 1,
-      updatedById: null,
-    });
-    // A check recorded on the open run, with a photo of it; and a retired fixed check with no records.
-    const guide = await SiteCheck.findOne({ where: { siteId: site.id, targetRule: 'guide_clearance' } });
-    const checkRecord = await CheckRecord.create({
-      siteId: site.id,
-      sawId: saw1!.id,
-      siteCheckId: guide!.id,
-      bladeRunId: openRun.id,
-      checkedAt: new Date(now - 19 * day),
-      checkedById: null,
-      targetRule: 'guide_clearance',
-      quantity: 'length',
-      reading: 1.13,
-      answers: null,
-      target: 1.1254,
-      minValue: 1.1254,
-      maxValue: 1.1508,
-      passed: true,
-      basis: null,
-      explanation: 'Fixture',
-      notes: null,
-    });
-    await Photo.create({
-      siteId: site.id,
-      bladeRunId: null,
-      checkRecordId: checkRecord.id,
-      contentType: 'image/png',
-      byteSize: 10,
-      widthPx: 1,
-      heightPx: 1,
-      caption: null,
-      uploadedById: null,
-    });
-    await SiteCheck.create({
-      siteId: site.id,
-      name: 'Old coolant check',
-      measures: null,
-      quantity: 'stress',
-      targetRule: 'fixed',
-      fixedTarget: 0.3,
-      fixedMin: 0.2,
-      fixedMax: null,
-      schedule: 'periodic',
-      intervalDays: 7,
-      graceHours: 24,
-      position: 10,
-      retiredAt: new Date(),
-      updatedById: null,
-    });
-    records[code] = { receipt, run, openRun, stop, checkRecord };
-  }
+  const records = {} as Record<'A' | 'C', SiteRecords>;
+  for (const code of ['A', 'C'] as const) records[code] = await buildSiteRecords(world, code, fleetSpec);
   return { fleetSpec, siteSpec, ...records };
 }
+
+/**
+ * One site's records (see `buildRecords`): a stock receipt of the fleet spec, a removed run and an open run on its
+ * first saw, an ended and an open stop on its second, a cut log, a photo of the run, stock levels, a recorded check
+ * with a photo of it, and a retired check. Site A's cut log belongs to its open run; other sites' to none.
+ */
+export async function buildSiteRecords(world: World, code: 'A' | 'B' | 'C', fleetSpec: BladeSpec) {
+  const day = 86_400_000;
+  const now = Date.now();
+  const site = world.sites[code];
+  const [saw1, saw2] = world.saws[code]!;
+  const receipt = await StockReceipt.create({
+    siteId: site.id,
+    bladeSpecId: fleetSpec.id,
+    quantity: 5,
+    unitCostMinor: 6100,
+    currency: 'EUR',
+    receivedOn: new Date(now - 40 * day).toISOString().slice(0, 10),
+    reference: code === 'A' ? 'LOT-1' : null,
+    notes: null,
+    createdById: null,
+  });
+  const run = await BladeRun.create({
+    siteId: site.id,
+    sawId: saw1!.id,
+    bladeSpecId: fleetSpec.id,
+    stockReceiptId: receipt.id,
+    installedAt: new Date(now - 30 * day),
+    installedById: null,
+    tensionMpa: null,
+    materialGroup: null,
+    breakInFollowed: null,
+    installNotes: null,
+    costMinor: 6100,
+    currency: 'EUR',
+    removedAt: new Date(now - 20 * day),
+    removalReason: 'worn_out',
+  });
+  const openRun = await BladeRun.create({
+    siteId: site.id,
+    sawId: saw1!.id,
+    bladeSpecId: fleetSpec.id,
+    stockReceiptId: null,
+    installedAt: new Date(now - 20 * day),
+    installedById: null,
+    tensionMpa: 220,
+    materialGroup: 'carbon_steel',
+    breakInFollowed: true,
+    installNotes: null,
+    costMinor: 6000,
+    currency: 'EUR',
+  });
+  const stop = await Stop.create({
+    siteId: site.id,
+    sawId: saw2!.id,
+    startedAt: new Date(now - 3 * day),
+    endedAt: new Date(now - 2 * day),
+    category: 'mechanical',
+    planned: false,
+    notes: null,
+    createdById: null,
+    endedById: null,
+  });
+  await Stop.create({
+    siteId: site.id,
+    sawId: saw2!.id,
+    startedAt: new Date(now - day),
+    endedAt: null,
+    category: 'hydraulic',
+    planned: false,
+    notes: 'Open',
+    createdById: null,
+    endedById: null,
+  });
+  await CutLog.create({
+    siteId: site.id,
+    sawId: saw1!.id,
+    bladeRunId: code === 'A' ? openRun.id : null,
+    cutAt: new Date(now - 5 * day),
+    shape: { kind: 'round_bar', diameterMm: 100 },
+    pieceCount: 1,
+    piecesAcross: 1,
+    materialGroup: 'carbon_steel',
+    quantity: 10,
+    bandSpeedMPerMin: null,
+    feedMmPerMin: null,
+    cutTimeS: null,
+    areaPerCutMm2: 7854,
+    areaCutMm2: 78540,
+    teethInWorkMin: null,
+    teethInWorkMax: null,
+    warnings: [],
+    notes: null,
+    createdById: null,
+  });
+  await Photo.create({
+    siteId: site.id,
+    bladeRunId: run.id,
+    contentType: 'image/png',
+    byteSize: 10,
+    widthPx: 1,
+    heightPx: 1,
+    caption: null,
+    uploadedById: null,
+  });
+  await StockLevel.create({
+    siteId: site.id,
+    bladeSpecId: fleetSpec.id,
+    leadTimeDays: 10,
+    safetyStock: 1,
+    updatedById: null,
+  });
+  // A check recorded on the open run, with a photo of it; and a retired fixed check with no records.
+  const guide = await SiteCheck.findOne({ where: { siteId: site.id, targetRule: 'guide_clearance' } });
+  const checkRecord = await CheckRecord.create({
+    siteId: site.id,
+    sawId: saw1!.id,
+    siteCheckId: guide!.id,
+    bladeRunId: openRun.id,
+    checkedAt: new Date(now - 19 * day),
+    checkedById: null,
+    targetRule: 'guide_clearance',
+    quantity: 'length',
+    reading: 1.13,
+    answers: null,
+    target: 1.1254,
+    minValue: 1.1254,
+    maxValue: 1.1508,
+    passed: true,
+    basis: null,
+    explanation: 'Fixture',
+    notes: null,
+  });
+  await Photo.create({
+    siteId: site.id,
+    bladeRunId: null,
+    checkRecordId: checkRecord.id,
+    contentType: 'image/png',
+    byteSize: 10,
+    widthPx: 1,
+    heightPx: 1,
+    caption: null,
+    uploadedById: null,
+  });
+  await SiteCheck.create({
+    siteId: site.id,
+    name: 'Old coolant check',
+    measures: null,
+    quantity: 'stress',
+    targetRule: 'fixed',
+    fixedTarget: 0.3,
+    fixedMin: 0.2,
+    fixedMax: null,
+    schedule: 'periodic',
+    intervalDays: 7,
+    graceHours: 24,
+    position: 10,
+    retiredAt: new Date(),
+    updatedById: null,
+  });
+  return { receipt, run, openRun, stop, checkRecord };
+}
+export type SiteRecords = Awaited<ReturnType<typeof buildSiteRecords>>;
 export type Records = Awaited<ReturnType<typeof buildRecords>>;
 export type World = Awaited<ReturnType<typeof buildWorld>>;
 

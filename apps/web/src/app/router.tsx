@@ -217,6 +217,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: 'sites/:siteId/check-records',
+              lazy: async () => {
+                const page = await import('./routes/checks/site-check-records-page');
+                return { loader: page.siteCheckRecordsPageLoader(queryClient), Component: page.SiteCheckRecordsPage };
+              },
+            },
+            {
               path: 'sites/:siteId/stock',
               lazy: async () => {
                 const page = await import('./routes/sites/site-stock-page');

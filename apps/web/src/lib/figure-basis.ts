@@ -19,7 +19,12 @@ export function basisWords(basis: FigureBasis, timeZone?: string): string {
       const zone = timeZone ?? Intl.DateTimeFormat().resolvedOptions().timeZone;
       return `your site’s setting, changed by ${who} on ${formatDate(basis.changedAt, zone)}`;
     }
-    case 'record':
+    case 'record': {
+      if (basis.setAt === undefined) return basis.note;
+      const who = basis.setByName ?? 'someone no longer listed';
+      const zone = timeZone ?? Intl.DateTimeFormat().resolvedOptions().timeZone;
+      return `${basis.note}, set by ${who} on ${formatDate(basis.setAt, zone)}`;
+    }
     case 'measured':
       return basis.note;
   }

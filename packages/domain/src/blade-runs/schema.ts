@@ -12,6 +12,7 @@ import {
   recordTimeSchema,
   refineDateRange,
   type RecordWarning,
+  exportUnitsField,
 } from '../records/schema.js';
 
 /**
@@ -137,20 +138,26 @@ export type BladeRunUpdate = z.infer<typeof bladeRunUpdateSchema>;
 
 export const BLADE_RUN_SORTS = ['installedAt', '-installedAt', 'removedAt', '-removedAt'] as const;
 
-export const bladeRunListQuerySchema = pageQuerySchema
-  .extend({
-    siteId: idSchema.optional(),
-    sawId: idSchema.optional(),
-    bladeSpecId: idSchema.optional(),
-    reason: z.enum(REMOVAL_REASONS).optional(),
-    /** true: blades on saws now; false: removed blades only. */
-    open: queryFlagSchema.optional(),
-    /** On installedAt. */
-    ...dateRangeQueryFields,
-    sort: z.enum(BLADE_RUN_SORTS).default('-installedAt'),
-  })
-  .superRefine(refineDateRange);
+const bladeRunFilterFields = {
+  siteId: idSchema.optional(),
+  sawId: idSchema.optional(),
+  bladeSpecId: idSchema.optional(),
+  reason: z.enum(REMOVAL_REASONS).optional(),
+  /** true: blades on saws now; false: removed blades only. */
+  open: queryFlagSchema.optional(),
+  /** On installedAt. */
+  ...dateRangeQueryFields,
+  sort: z.enum(BLADE_RUN_SORTS).default('-installedAt'),
+};
+
+export const bladeRunListQuerySchema = pageQuerySchema.extend(bladeRunFilterFields).superRefine(refineDateRange);
 export type BladeRunListQuery = z.infer<typeof bladeRunListQuerySchema>;
+
+/** The list's filters without paging, and the units: the CSV export of the same table. */
+export const bladeRunExportQuerySchema = z
+  .object({ ...bladeRunFilterFields, ...exportUnitsField })
+  .superRefine(refineDateRange);
+export type BladeRunExportQuery = z.infer<typeof bladeRunExportQuerySchema>;
 
 /** The ranked likely causes for a run; `reason` defaults to the run's removal reason. */
 export const likelyCausesQuerySchema = z.object({ reason: failureModeSchema.optional() });

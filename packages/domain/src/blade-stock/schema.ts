@@ -168,7 +168,13 @@ export const stockMovementSchema = z.object({
 });
 export type StockMovement = z.infer<typeof stockMovementSchema>;
 
+const stockMovementFilterFields = { bladeSpecId: idSchema.optional(), ...dateRangeQueryFields };
+
 export const stockMovementListQuerySchema = pageQuerySchema
-  .extend({ bladeSpecId: idSchema.optional(), ...dateRangeQueryFields })
+  .extend(stockMovementFilterFields)
   .superRefine(refineDateRange);
 export type StockMovementListQuery = z.infer<typeof stockMovementListQuerySchema>;
+
+/** The list's filters without paging: the CSV export of the same table (movements carry no unit to choose). */
+export const stockMovementExportQuerySchema = z.object(stockMovementFilterFields).superRefine(refineDateRange);
+export type StockMovementExportQuery = z.infer<typeof stockMovementExportQuerySchema>;

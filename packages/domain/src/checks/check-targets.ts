@@ -184,8 +184,9 @@ export function feedPressureTarget(
     };
   }
   const setting = effectiveSetting(context.settings, 'head_force');
-  const min = v.minHeadForceN ?? settingValue(setting, 'minN');
   const max = v.maxHeadForceN ?? settingValue(setting, 'maxN');
+  // A saw's own greatest below the site's least takes the least down with it, so the range never turns over.
+  const min = Math.min(v.minHeadForceN ?? settingValue(setting, 'minN'), max);
   const measured = v.measuredN ?? null;
   const passed = measured === null ? null : within(measured, min, max);
   let explanation = `Hook a spring balance on the head directly above the band, midway between the guide arms (leverage changes the reading anywhere else), pull straight up and read it over the last inch (25.4 mm) of travel: ${bothUnitsRange('force', min, max, system)} passes.`;

@@ -21,7 +21,13 @@ export const figureBasisSchema = z.discriminatedUnion('kind', [
     /** For a shipped value: why it has no printed source; for a changed one, the shipped value's own basis. */
     note: z.string(),
   }),
-  z.object({ kind: z.literal('record'), note: z.string().min(1) }),
+  z.object({
+    kind: z.literal('record'),
+    note: z.string().min(1),
+    /** A figure kept on one record (a saw's own limit): who set it and when, from the audit trail. */
+    setByName: z.string().nullable().optional(),
+    setAt: z.iso.datetime().optional(),
+  }),
   z.object({ kind: z.literal('measured'), note: z.string().min(1) }),
 ]);
 export type FigureBasis = z.infer<typeof figureBasisSchema>;
@@ -50,8 +56,11 @@ export function describeBasis(basis: FigureBasis): string {
         return `Your site's setting, changed${who} on ${basis.changedAt.slice(0, 10)}`;
       }
       return `Kerfline's starting value for your site's setting (a site admin can change it): ${basis.note}`;
-    case 'record':
-      return `From your records: ${basis.note}`;
+    case 'record': {
+      if (basis.setAt === undefined) return `From your records: ${basis.note}`;
+      const who = basis.setByName ? ` by ${basis.setByName}` : '';
+      return `From your records: ${basis.note}, set${who} on ${basis.setAt.slice(0, 10)}`;
+    }
     case 'measured':
       return `Measured: ${basis.note}`;
   }

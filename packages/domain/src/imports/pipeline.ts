@@ -150,6 +150,7 @@ export async function readRows(
     async function* text() {
       for await (const chunk of source.chunks()) {
         const t = decoder.write(chunk);
+        if (t.includes('\u0000')) throw new TableError(NUL_IN_FILE);
         done += chunk.length;
         onProgress(source.size === 0 ? 1 : done / source.size);
         if (t) yield t;
@@ -173,6 +174,13 @@ export async function readRows(
   }
   return { format: 'csv', encoding, delimiter, sheet: null, sheets: null, ...read, notes };
 }
+
+/**
+ * The sniffing looks at the first 64 KiB only, so a NUL character further on is found while reading. It is never
+ * text a spreadsheet writes, and PostgreSQL's text and JSON cannot hold it (the rejected rows keep their cells).
+ */
+export const NUL_IN_FILE =
+  'This file holds NUL characters, so it is not plain text: save it again from the spreadsheet as CSV or .xlsx';
 
 /** A compact row kept for the whole file: its record, or the reason it is not written, and its cells. */
 export type CollectedRow = {
@@ -233,6 +241,8 @@ export class ImportCollector {
   }
 
   add(cells: Cell[], rowNumber: number): void {
+    // A workbook's cell can hold U+0000 too (written as _x0000_); no record or rejected row can keep it.
+    if (cells.some((c) => typeof c === 'string' && c.includes('\u0000'))) throw new TableError(NUL_IN_FILE);
     let built: BuiltRow;
     const extra = cells.slice(this.width).filter((c) => cellText(c) !== null).length;
     if (extra > 0) {

@@ -9,15 +9,22 @@ import { UNITS } from './units.js';
 export { IMPORT_KINDS, type ImportKind };
 
 /** One column of the file as the user mapped it: the field it fills (null: left out) and its unit. */
+/** Text of the plan as stored (JSON in PostgreSQL, which cannot hold U+0000). */
+const planText = (max: number) =>
+  z
+    .string()
+    .max(max)
+    .refine((s) => !s.includes('\u0000'), 'must not hold a NUL character');
+
 export const columnPlanSchema = z.object({
-  header: z.string().max(200),
+  header: planText(200),
   field: z.string().max(60).nullable(),
   unit: z.string().max(20).nullable(),
 });
 export type ColumnPlan = z.infer<typeof columnPlanSchema>;
 
 /** Written value (normalised) → what it means: a category's value, a saw's or a spec's id; per field. */
-export const valueMapSchema = z.record(z.string().max(60), z.record(z.string().max(200), z.string().max(100)));
+export const valueMapSchema = z.record(planText(60), z.record(planText(200), planText(100)));
 export type ValueMap = z.infer<typeof valueMapSchema>;
 
 /**
@@ -35,7 +42,7 @@ export const importPlanSchema = z
     /** Null: detect from the first lines. */
     delimiter: z.enum(DELIMITERS).nullable().default(null),
     /** The workbook's sheet; null for the first. */
-    sheet: z.string().max(200).nullable().default(null),
+    sheet: planText(200).nullable().default(null),
     columns: z.array(columnPlanSchema).min(1, { message: 'The file must have at least one column' }).max(200),
     decimalMark: z.enum(DECIMAL_MARKS, { message: 'Decimal mark must be . or ,' }),
     dateOrder: z.enum(DATE_ORDERS, { message: 'Date order must be dmy, mdy or ymd' }),

@@ -82,3 +82,11 @@ export const moneyMinorSchema = (label: string) =>
     .int({ message: `${label} must be a whole number of minor units (e.g. cents)` })
     .min(0, { message: `${label} must not be negative` })
     .max(100_000_000, { message: `${label} must be at most 100,000,000 minor units (1,000,000.00)` });
+
+/**
+ * `?units=` on a record table's CSV export: the numbers' unit system. Left out, the export uses the site's own
+ * (metric for an export across several sites, as the SI the records keep).
+ */
+export const exportUnitsField = {
+  units: z.enum(['metric', 'imperial'], { message: 'Units must be metric or imperial' }).optional(),
+};

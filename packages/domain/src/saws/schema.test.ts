@@ -29,6 +29,21 @@ describe('saw inputs', () => {
     expect(sawUpdateSchema.parse({ name: 'Renamed' })).toEqual({ name: 'Renamed' });
   });
 
+  it('keeps a saw’s own head-force limits optional (null: the site’s setting) and refuses crossed or negative ones', () => {
+    expect(sawCreateSchema.parse(base)).toMatchObject({ minHeadForceN: null, maxHeadForceN: null });
+    expect(sawUpdateSchema.parse({ maxHeadForceN: 30 })).toEqual({ maxHeadForceN: 30 });
+    expect(sawUpdateSchema.parse({ maxHeadForceN: null })).toEqual({ maxHeadForceN: null });
+    const crossed = sawCreateSchema.safeParse({ ...base, minHeadForceN: 20, maxHeadForceN: 10 });
+    expect(crossed.error?.issues.map((i) => [i.path.join('.'), i.message])).toEqual([
+      ['maxHeadForceN', 'Largest head force must not be below the least'],
+    ]);
+    const negative = sawUpdateSchema.safeParse({ minHeadForceN: -1 });
+    expect(negative.error?.issues[0]?.message).toBe('Least head force must not be negative');
+    expect(sawUpdateSchema.safeParse({ maxHeadForceN: 0 }).error?.issues[0]?.message).toBe(
+      'Largest head force must be greater than 0',
+    );
+  });
+
   it('refuses unknown fields on update and crossed ranges on both', () => {
     expect(sawUpdateSchema.safeParse({ colour: 'red' }).success).toBe(false);
     const crossed = sawCreateSchema.safeParse({ ...base, bandSpeedMinMPerMin: 200 });

@@ -43,11 +43,28 @@ export const sawBladeOnSchema = z.object({
 });
 export type SawBladeOn = z.infer<typeof sawBladeOnSchema>;
 
+/** Who last set a saw's own head-force limits and when, from the audit trail. */
+export const sawHeadForceSetSchema = z.object({
+  byName: z.string().nullable(),
+  at: z.string(),
+});
+export type SawHeadForceSet = z.infer<typeof sawHeadForceSetSchema>;
+
 const positiveMm = (label: string, max: number) =>
   z
     .number({ message: `${label} must be a number` })
     .positive({ message: `${label} must be greater than 0` })
     .max(max, { message: `${label} must be at most ${max} mm` });
+
+/** A spring-balance limit in newtons; 1,000 N (about 225 lbf) is far above any head a balance can weigh. */
+const headForceN = (label: string, least: 'zero' | 'positive') => {
+  const base = z.number({ message: `${label} must be a number` });
+  return (
+    least === 'zero'
+      ? base.min(0, { message: `${label} must not be negative` })
+      : base.positive({ message: `${label} must be greater than 0` })
+  ).max(1000, { message: `${label} must be at most 1000 N` });
+};
 
 /**
  * A saw as the API returns it. All lengths in millimetres, band speeds in metres per minute (SI inside;
@@ -72,6 +89,14 @@ export const sawSchema = z.object({
   capacityRoundMm: z.number().nullable(),
   capacityRectWidthMm: z.number().nullable(),
   capacityRectHeightMm: z.number().nullable(),
+  /**
+   * This saw's own spring-balance limits on head down-force (N, over the last inch of travel); null means the
+   * site's `head_force` setting. Read only for a gravity- or spring-fed head.
+   */
+  minHeadForceN: z.number().nullable(),
+  maxHeadForceN: z.number().nullable(),
+  /** Who set this saw's own head-force limits and when; null while it has none. */
+  headForceSet: sawHeadForceSetSchema.nullable(),
   /** Retired, else down while a stop is open, else in service. */
   status: z.enum(SAW_STATUSES),
   /** The open stop, when the saw is down. */
@@ -106,6 +131,9 @@ const sawFieldShapes = {
   capacityRoundMm: positiveMm('Round capacity', 3000).nullable(),
   capacityRectWidthMm: positiveMm('Rectangle capacity width', 5000).nullable(),
   capacityRectHeightMm: positiveMm('Rectangle capacity height', 5000).nullable(),
+  /** Null: the site's setting. Below the least the head is not feeding. */
+  minHeadForceN: headForceN('Least head force', 'zero').nullable(),
+  maxHeadForceN: headForceN('Largest head force', 'positive').nullable(),
 };
 
 /** On create, optional details default to "not recorded". A saw is down only through a stop. */
@@ -118,6 +146,8 @@ const sawFields = z.object({
   capacityRoundMm: sawFieldShapes.capacityRoundMm.default(null),
   capacityRectWidthMm: sawFieldShapes.capacityRectWidthMm.default(null),
   capacityRectHeightMm: sawFieldShapes.capacityRectHeightMm.default(null),
+  minHeadForceN: sawFieldShapes.minHeadForceN.default(null),
+  maxHeadForceN: sawFieldShapes.maxHeadForceN.default(null),
 });
 
 type SawRanges = {
@@ -125,6 +155,8 @@ type SawRanges = {
   bandSpeedMaxMPerMin?: number;
   bandWidthMm?: number;
   bandThicknessMm?: number;
+  minHeadForceN?: number | null;
+  maxHeadForceN?: number | null;
 };
 
 /** Cross-field rules shared by create and update (update checks them against the merged record in the API). */
@@ -139,6 +171,15 @@ export function sawRangeIssues(v: SawRanges): { path: string; message: string }[
   }
   if (v.bandWidthMm !== undefined && v.bandThicknessMm !== undefined && v.bandThicknessMm >= v.bandWidthMm) {
     issues.push({ path: 'bandThicknessMm', message: 'Band thickness must be smaller than the band width' });
+  }
+  if (
+    v.minHeadForceN !== undefined &&
+    v.minHeadForceN !== null &&
+    v.maxHeadForceN !== undefined &&
+    v.maxHeadForceN !== null &&
+    v.minHeadForceN > v.maxHeadForceN
+  ) {
+    issues.push({ path: 'maxHeadForceN', message: 'Largest head force must not be below the least' });
   }
   return issues;
 }

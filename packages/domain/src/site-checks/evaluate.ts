@@ -16,6 +16,11 @@ export interface CheckSaw {
   bandThicknessMm: number;
   bandWidthMm: number;
   headFeed: HeadFeed;
+  /** This saw's own spring-balance limits (N); null or left out: the site's `head_force` setting. */
+  minHeadForceN?: number | null;
+  maxHeadForceN?: number | null;
+  /** Where the saw's own limits come from (who set them, when), shown as their basis. */
+  headForceBasis?: FigureBasis;
 }
 
 /** The blade on the saw, when one is recorded: its spec's figures win over the saw's usual band. */
@@ -82,6 +87,25 @@ function fixedResult(check: TargetedCheck, reading: number | null, context: Site
   };
 }
 
+/**
+ * The basis of a saw's own head-force limits: "this saw's limit" (or limits), and who set them and when when the
+ * audit trail says. A limit the saw leaves empty is the site's setting, and the words say so.
+ */
+export function sawHeadForceBasis(
+  saw: Pick<CheckSaw, 'minHeadForceN' | 'maxHeadForceN'>,
+  set: { byName: string | null; at: string } | null,
+): FigureBasis {
+  const hasMin = saw.minHeadForceN != null;
+  const hasMax = saw.maxHeadForceN != null;
+  const note =
+    hasMin && hasMax
+      ? 'this saw’s own head-force limits'
+      : hasMax
+        ? 'this saw’s own largest head force (the least is your site’s setting)'
+        : 'this saw’s own least head force (the largest is your site’s setting)';
+  return set ? { kind: 'record', note, setByName: set.byName, setAt: set.at } : { kind: 'record', note };
+}
+
 const NO_BLADE_TENSION =
   'No blade is recorded on this saw: put the blade on first (change blade), since the tension range depends on the blade’s material.';
 
@@ -109,9 +133,18 @@ export function siteCheckResult(
     case 'tracking':
       input = { kind: 'tracking', bandWidthMm: width, measuredOverhangMm: value };
       break;
-    case 'feed_pressure':
-      input = { kind: 'feed_pressure', headFeed: saw.headFeed, measuredN: value };
-      break;
+    case 'feed_pressure': {
+      const own = {
+        ...(saw.minHeadForceN != null ? { minHeadForceN: saw.minHeadForceN } : {}),
+        ...(saw.maxHeadForceN != null ? { maxHeadForceN: saw.maxHeadForceN } : {}),
+      };
+      const result = evaluateCheck(
+        { kind: 'feed_pressure', headFeed: saw.headFeed, measuredN: value, ...own },
+        context,
+      );
+      if (!result.applicable || Object.keys(own).length === 0) return result;
+      return { ...result, basis: saw.headForceBasis ?? sawHeadForceBasis(saw, null) };
+    }
     case 'bearing_wear':
       input = { kind: 'bearing_wear', measuredGapMm: value };
       break;

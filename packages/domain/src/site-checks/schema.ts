@@ -7,6 +7,7 @@ import {
   queryFlagSchema,
   recordTimeSchema,
   refineDateRange,
+  exportUnitsField,
 } from '../records/schema.js';
 import { CHECK_KIND_IDS, CHECK_KINDS, type CheckKindId } from '../checks/schema.js';
 import { DEFAULT_BLADE_CHANGE_GRACE_HOURS, DEFAULT_PERIODIC_GRACE_HOURS, DUE_STATES } from '../checks/check-due.js';
@@ -316,18 +317,24 @@ export type CheckRecord = z.infer<typeof checkRecordSchema>;
 
 export const CHECK_RECORD_SORTS = ['checkedAt', '-checkedAt'] as const;
 
-export const checkRecordListQuerySchema = pageQuerySchema
-  .extend({
-    siteId: idSchema.optional(),
-    sawId: idSchema.optional(),
-    siteCheckId: idSchema.optional(),
-    passed: queryFlagSchema.optional(),
-    /** On checkedAt. */
-    ...dateRangeQueryFields,
-    sort: z.enum(CHECK_RECORD_SORTS).default('-checkedAt'),
-  })
-  .superRefine(refineDateRange);
+const checkRecordFilterFields = {
+  siteId: idSchema.optional(),
+  sawId: idSchema.optional(),
+  siteCheckId: idSchema.optional(),
+  passed: queryFlagSchema.optional(),
+  /** On checkedAt. */
+  ...dateRangeQueryFields,
+  sort: z.enum(CHECK_RECORD_SORTS).default('-checkedAt'),
+};
+
+export const checkRecordListQuerySchema = pageQuerySchema.extend(checkRecordFilterFields).superRefine(refineDateRange);
 export type CheckRecordListQuery = z.infer<typeof checkRecordListQuerySchema>;
+
+/** The list's filters without paging, and the units: the CSV export of the same table. */
+export const checkRecordExportQuerySchema = z
+  .object({ ...checkRecordFilterFields, ...exportUnitsField })
+  .superRefine(refineDateRange);
+export type CheckRecordExportQuery = z.infer<typeof checkRecordExportQuerySchema>;
 
 /** One check on one saw that needs doing: due now, or overdue. */
 export const dueCheckSchema = z.object({

@@ -8,7 +8,7 @@ import {
   siteCheckValuesSchema,
   type SiteCheckValues,
 } from './schema.js';
-import { judgeCheckReading, siteCheckResult, type CheckBlade, type CheckSaw } from './evaluate.js';
+import { judgeCheckReading, sawHeadForceBasis, siteCheckResult, type CheckBlade, type CheckSaw } from './evaluate.js';
 
 const saw: CheckSaw = { bandThicknessMm: 0.9, bandWidthMm: 27, headFeed: 'hydraulic' };
 const blade: CheckBlade = { thicknessMm: inToMm(0.035), widthMm: inToMm(1), material: 'bimetal' };
@@ -159,6 +159,51 @@ describe('a check’s target for a saw and the blade on it', () => {
     expect(judgeCheckReading(check, spring, null, { reading: lbfToN(10) })).toMatchObject({
       ok: true,
       result: { passed: false },
+    });
+  });
+
+  it('head down-force uses the saw’s own limits when set, and says whose they are', () => {
+    // 8 lbf greatest over the last inch of travel: common practice, no source (the site's shipped setting).
+    const check = byRule('feed_pressure');
+    const spring: CheckSaw = { ...saw, headFeed: 'gravity_spring' };
+    const siteOnly = siteCheckResult(check, { ...spring, minHeadForceN: null, maxHeadForceN: null }, null);
+    expect(siteOnly.max).toBeCloseTo(lbfToN(8), 9);
+    expect(siteOnly.basis).toMatchObject({ kind: 'site_setting', settingKey: 'head_force' });
+    // This saw's own 6 lbf greatest: 7 lbf passes on the site's setting but fails on the saw's.
+    const own: CheckSaw = {
+      ...spring,
+      maxHeadForceN: lbfToN(6),
+      headForceBasis: sawHeadForceBasis(
+        { maxHeadForceN: lbfToN(6) },
+        { byName: 'Ana Ruiz', at: '2026-11-03T09:00:00.000Z' },
+      ),
+    };
+    expect(judgeCheckReading(check, spring, null, { reading: lbfToN(7) })).toMatchObject({
+      ok: true,
+      result: { passed: true },
+    });
+    const judged = judgeCheckReading(check, own, null, { reading: lbfToN(7) });
+    expect(judged).toMatchObject({ ok: true, result: { passed: false, min: lbfToN(2) } });
+    if (judged.ok) {
+      expect(judged.result.max).toBeCloseTo(26.689, 3); // 6 lbf = 6 × 4.4482216152605 N (NIST SP 811, B.8)
+      expect(judged.result.basis).toEqual({
+        kind: 'record',
+        note: 'this saw’s own largest head force (the least is your site’s setting)',
+        setByName: 'Ana Ruiz',
+        setAt: '2026-11-03T09:00:00.000Z',
+      });
+    }
+    // Its own least: 3 lbf read under a 4 lbf least is too light (the head is not feeding).
+    const light = judgeCheckReading(check, { ...spring, minHeadForceN: lbfToN(4) }, null, { reading: lbfToN(3) });
+    expect(light).toMatchObject({ ok: true, result: { passed: false, basis: { kind: 'record' } } });
+    if (light.ok) expect(light.result.explanation).toContain('the head is not feeding');
+    // A saw's greatest below the site's least takes the least down with it: the range never turns over.
+    const low = siteCheckResult(check, { ...spring, maxHeadForceN: lbfToN(1) }, null);
+    expect(low.min).toBeCloseTo(lbfToN(1), 9);
+    // A hydraulic head ignores any limits it carries: the check does not apply.
+    expect(siteCheckResult(check, { ...saw, maxHeadForceN: lbfToN(6) }, null)).toMatchObject({
+      applicable: false,
+      basis: null,
     });
   });
 

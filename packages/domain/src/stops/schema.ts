@@ -94,17 +94,21 @@ export type StopUpdate = z.infer<typeof stopUpdateSchema>;
 
 export const STOP_SORTS = ['startedAt', '-startedAt'] as const;
 
-export const stopListQuerySchema = pageQuerySchema
-  .extend({
-    siteId: idSchema.optional(),
-    sawId: idSchema.optional(),
-    category: z.enum(DOWNTIME_CATEGORIES).optional(),
-    planned: queryFlagSchema.optional(),
-    /** true: stops still going on. */
-    open: queryFlagSchema.optional(),
-    /** On startedAt. */
-    ...dateRangeQueryFields,
-    sort: z.enum(STOP_SORTS).default('-startedAt'),
-  })
-  .superRefine(refineDateRange);
+const stopFilterFields = {
+  siteId: idSchema.optional(),
+  sawId: idSchema.optional(),
+  category: z.enum(DOWNTIME_CATEGORIES).optional(),
+  planned: queryFlagSchema.optional(),
+  /** true: stops still going on. */
+  open: queryFlagSchema.optional(),
+  /** On startedAt. */
+  ...dateRangeQueryFields,
+  sort: z.enum(STOP_SORTS).default('-startedAt'),
+};
+
+export const stopListQuerySchema = pageQuerySchema.extend(stopFilterFields).superRefine(refineDateRange);
 export type StopListQuery = z.infer<typeof stopListQuerySchema>;
+
+/** The list's filters without paging: the CSV export of the same table (stops carry no unit to choose). */
+export const stopExportQuerySchema = z.object(stopFilterFields).superRefine(refineDateRange);
+export type StopExportQuery = z.infer<typeof stopExportQuerySchema>;

@@ -3,6 +3,7 @@ import { z } from 'zod';
 import {
   siteStockQuerySchema,
   stockLevelsInputSchema,
+  stockMovementExportQuerySchema,
   stockMovementListQuerySchema,
   stockReceiptCreateSchema,
   stockReceiptListQuerySchema,
@@ -21,6 +22,8 @@ import {
   putStockLevels,
   updateStockReceipt,
 } from './blade-stock.service.js';
+import { exportName, exportScope, streamListCsv } from '../records/record-export.js';
+import { STOCK_MOVEMENT_HEADER, stockMovementCells } from '../records/record-csv.js';
 
 const params = z.object({ id: idSchema });
 const levelParams = z.object({ id: idSchema, bladeSpecId: idSchema });
@@ -65,6 +68,24 @@ export function bladeStockRouter(): Router {
     async (_req, res) => {
       const { id } = parsed(res, 'params', params);
       res.json(await listStockMovements(abilityOf(res), id, parsed(res, 'query', stockMovementListQuerySchema)));
+    },
+  );
+  router.get(
+    '/sites/:id/stock/movements/export',
+    validate('params', params),
+    validate('query', stockMovementExportQuerySchema),
+    async (_req, res) => {
+      const ability = abilityOf(res);
+      const { id } = parsed(res, 'params', params);
+      const filters = parsed(res, 'query', stockMovementExportQuerySchema);
+      const scope = await exportScope(ability, id);
+      await streamListCsv(
+        res,
+        exportName(scope, 'stock-movements'),
+        STOCK_MOVEMENT_HEADER,
+        (limit, offset) => listStockMovements(ability, id, { ...filters, limit, offset }),
+        stockMovementCells,
+      );
     },
   );
   router.put(

@@ -28,6 +28,9 @@ import type { CsvTable } from '../../http/csv.js';
 
 /** Every site in an export must be one the caller may export (managers, leads and site admins, in their scope). */
 export function assertExportable(ability: AppAbility, sites: readonly Pick<FleetSite, 'id' | 'regionId'>[]): void {
+  // A role that exports nothing is refused even when the filters leave no site (an empty file is still an answer).
+  if (!ability.can('export', 'Site'))
+    throw new AppError('FORBIDDEN', 'Your role does not export figures; ask a manager or your site admin');
   for (const site of sites)
     if (!ability.can('export', subject('Site', { id: site.id, regionId: site.regionId })))
       throw new AppError('FORBIDDEN', 'Your role does not export figures; ask a manager or your site admin');

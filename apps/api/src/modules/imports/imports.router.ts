@@ -12,6 +12,7 @@ import {
 import { abilityOf, actorOf } from '../../http/authenticate.js';
 import { parsed, validate } from '../../http/validate.js';
 import { AppError } from '../../errors.js';
+import { unreadableForm } from '../../http/multipart.js';
 import {
   checkImport,
   commitImport,
@@ -43,7 +44,7 @@ function receiveFile(limits: ImportLimits): RequestHandler {
           ]),
         );
       }
-      next(err);
+      next(err ? unreadableForm(err, 'the file') : undefined);
     });
   };
 }
@@ -64,8 +65,13 @@ function fileAndPlan(req: Parameters<RequestHandler>[0]): { file: ReceivedFile; 
       'The column mapping needs fixing',
       detailsFromZodError(plan.error).map((d) => ({ ...d, path: `plan.${d.path}` })),
     );
-  // Browsers send the name in Latin-1 bytes through multer; names are read back as UTF-8.
-  const fileName = Buffer.from(req.file.originalname, 'latin1').toString('utf8').slice(0, 255) || 'file';
+  // Browsers send the name in Latin-1 bytes through multer; names are read back as UTF-8. Control characters
+  // (U+0000 among them, which PostgreSQL's text cannot hold) are left out: a name is shown, never run.
+  const fileName =
+    Buffer.from(req.file.originalname, 'latin1')
+      .toString('utf8')
+      .replace(/\p{Cc}/gu, '')
+      .slice(0, 255) || 'file';
   return { file: { bytes: req.file.buffer, fileName }, plan: plan.data };
 }
 

@@ -6,6 +6,7 @@ import { MAX_PHOTO_BYTES, photoUploadFieldsSchema } from '@kerfline/domain/photo
 import { abilityOf, actorOf } from '../../http/authenticate.js';
 import { parsed, validate } from '../../http/validate.js';
 import { AppError } from '../../errors.js';
+import { unreadableForm } from '../../http/multipart.js';
 import type { PhotoStorage } from './photo-storage.js';
 import {
   addCheckPhoto,
@@ -42,7 +43,7 @@ function uploadOnePhoto(): RequestHandler {
           ]),
         );
       }
-      next(err);
+      next(err ? unreadableForm(err, 'the photo') : undefined);
     });
   };
 }

@@ -9,11 +9,12 @@ import {
   type SawUpdate,
   type SawDown,
   type SawBladeOn,
+  type SawHeadForceSet,
 } from '@kerfline/domain/saws/schema';
 import type { Page } from '@kerfline/domain/common/schema';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
-import { BLADE_ON_SQL, HAS_OPEN_STOP_SQL, OPEN_STOP_SQL, Saw } from './saw.model.js';
+import { BLADE_ON_SQL, HAS_OPEN_STOP_SQL, HEAD_FORCE_SET_SQL, OPEN_STOP_SQL, Saw } from './saw.model.js';
 import { Site } from '../sites/site.model.js';
 import { writeAudit, type Actor } from '../../audit/write-audit.js';
 import { inTransaction } from '../../db/models.js';
@@ -23,6 +24,7 @@ export const sawDerivedAttributes = {
   include: [
     [literal(OPEN_STOP_SQL), 'down'],
     [literal(BLADE_ON_SQL), 'bladeOn'],
+    [literal(HEAD_FORCE_SET_SQL), 'headForceSet'],
   ] as [ReturnType<typeof literal>, string][],
 };
 
@@ -32,6 +34,7 @@ export function toSawDto(saw: Saw): SawDto {
   const s = saw.get({ plain: true });
   const down = saw.get('down') as (Omit<SawDown, 'since'> & { since: string }) | null | undefined;
   const bladeOn = saw.get('bladeOn') as (Omit<SawBladeOn, 'since'> & { since: string }) | null | undefined;
+  const headForceSet = saw.get('headForceSet') as SawHeadForceSet | null | undefined;
   return {
     id: s.id,
     siteId: s.siteId,
@@ -51,6 +54,9 @@ export function toSawDto(saw: Saw): SawDto {
     capacityRoundMm: s.capacityRoundMm,
     capacityRectWidthMm: s.capacityRectWidthMm,
     capacityRectHeightMm: s.capacityRectHeightMm,
+    minHeadForceN: s.minHeadForceN ?? null,
+    maxHeadForceN: s.maxHeadForceN ?? null,
+    headForceSet: headForceSet ? { byName: headForceSet.byName, at: iso(headForceSet.at) } : null,
     status: s.status === 'retired' ? 'retired' : down ? 'down' : 'in_service',
     down: down ? { ...down, since: iso(down.since) } : null,
     bladeOn: bladeOn ? { ...bladeOn, since: iso(bladeOn.since) } : null,
@@ -114,7 +120,12 @@ export async function getSaw(ability: AppAbility, id: string): Promise<SawDto> {
  * instance's own value object, which the update would then change under us.
  */
 const auditValues = (saw: Saw): Record<string, unknown> => {
-  const { down: _down, bladeOn: _bladeOn, ...stored } = saw.get({ plain: true }) as Record<string, unknown>;
+  const {
+    down: _down,
+    bladeOn: _bladeOn,
+    headForceSet: _headForceSet,
+    ...stored
+  } = saw.get({ plain: true }) as Record<string, unknown>;
   return { ...stored };
 };
 
@@ -158,7 +169,8 @@ export async function updateSaw({ ability, userId }: Actor, id: string, patch: S
       { siteId: saw.siteId, entity: 'Saw', entityId: saw.id, action: 'update', before, after: auditValues(saw) },
     ]);
   });
-  return toSawDto(saw);
+  // Read again: who set the head-force limits comes from the audit entry just written.
+  return getSaw(ability, id);
 }
 
 /**

@@ -8,6 +8,7 @@ import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import type { EffectiveSettings } from '@kerfline/domain/settings/effective';
 import {
   judgeCheckReading,
+  sawHeadForceBasis,
   siteCheckResult,
   type CheckBlade,
   type CheckSaw,
@@ -27,7 +28,7 @@ import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
 import { writeAudit, type Actor } from '../../audit/write-audit.js';
 import { inTransaction } from '../../db/models.js';
-import { Saw } from '../saws/saw.model.js';
+import { HEAD_FORCE_SET_SQL, Saw } from '../saws/saw.model.js';
 import { Site } from '../sites/site.model.js';
 import { Photo } from '../photos/photo.model.js';
 import { auditCopy, namesOf, orderOf, sawForWrite, select, siteEffectiveSettings } from '../records/record-support.js';
@@ -167,11 +168,21 @@ const contextFor = (check: SiteCheck, ctx: TargetContext): SiteCheckContext => (
   fixedBasis: fixedBasisOf(check, ctx.names),
 });
 
-const checkSawOf = (saw: Saw): CheckSaw => ({
-  bandThicknessMm: saw.bandThicknessMm,
-  bandWidthMm: saw.bandWidthMm,
-  headFeed: saw.headFeed,
-});
+/**
+ * The saw's figures a target needs, with its own head-force limits when it has any and their basis: "this saw's
+ * limit, set by … on …" from the audit trail.
+ */
+async function checkSawOf(saw: Saw): Promise<CheckSaw> {
+  const own = { minHeadForceN: saw.minHeadForceN ?? null, maxHeadForceN: saw.maxHeadForceN ?? null };
+  const base = { bandThicknessMm: saw.bandThicknessMm, bandWidthMm: saw.bandWidthMm, headFeed: saw.headFeed, ...own };
+  if (own.minHeadForceN === null && own.maxHeadForceN === null) return base;
+  const [row] = await select<{ set: { byName: string | null; at: string } | null }>(
+    `SELECT ${HEAD_FORCE_SET_SQL} AS set FROM saws "Saw" WHERE "Saw".id = :sawId`,
+    { sawId: saw.id },
+  );
+  const set = row?.set ? { byName: row.set.byName, at: new Date(row.set.at).toISOString() } : null;
+  return { ...base, headForceBasis: sawHeadForceBasis(own, set) };
+}
 
 /**
  * Records a check on a saw. The target, limits and verdict are worked out here with the domain, for this saw and
@@ -194,7 +205,7 @@ export async function recordCheck({ ability, userId }: Actor, input: CheckRecord
   const ctx = await targetContext(saw.siteId, [check]);
   const judged = judgeCheckReading(
     check,
-    checkSawOf(saw),
+    await checkSawOf(saw),
     blade,
     { reading: input.reading, answers: input.answers },
     contextFor(check, ctx),
@@ -296,11 +307,14 @@ export async function sawChecks(ability: AppAbility, sawId: string, asOf = new D
     bladeAt(saw.id, null),
     saw.status === 'retired' ? Promise.resolve([]) : statusRows({ siteIds: [saw.siteId], sawId: saw.id, asOf }),
   ]);
-  const ctx = await targetContext(saw.siteId, checks);
-  const dtos = await siteCheckDtos(checks);
+  const [ctx, dtos, checkSaw] = await Promise.all([
+    targetContext(saw.siteId, checks),
+    siteCheckDtos(checks),
+    checkSawOf(saw),
+  ]);
   const byCheck = new Map(rows.map((r) => [r.site_check_id, r]));
   const items: SawCheck[] = checks.map((check, i) => {
-    const result = siteCheckResult(check, checkSawOf(saw), blade, {}, contextFor(check, ctx));
+    const result = siteCheckResult(check, checkSaw, blade, {}, contextFor(check, ctx));
     const row = byCheck.get(check.id);
     return {
       check: dtos[i]!,

@@ -4,6 +4,7 @@ import { idSchema } from '@kerfline/domain/common/schema';
 import {
   checkCountsQuerySchema,
   checkRecordCreateSchema,
+  checkRecordExportQuerySchema,
   checkRecordListQuerySchema,
   dueCheckListQuerySchema,
   siteCheckCreateSchema,
@@ -29,6 +30,8 @@ import {
   sawChecks,
   siteDueChecks,
 } from './check-records.service.js';
+import { exportName, exportScope, exportUnits, streamListCsv } from '../records/record-export.js';
+import { CHECK_RECORD_HEADER, checkRecordCells } from '../records/record-csv.js';
 
 const params = z.object({ id: idSchema });
 const siteParams = z.object({ siteId: idSchema });
@@ -102,6 +105,20 @@ export function siteChecksRouter(): Router {
 
   router.get('/check-records', validate('query', checkRecordListQuerySchema), async (_req, res) => {
     res.json(await listCheckRecords(abilityOf(res), parsed(res, 'query', checkRecordListQuerySchema)));
+  });
+  // The checks recorded, as CSV: the same filters and scope, paged through the same list a thousand at a time.
+  router.get('/check-records/export', validate('query', checkRecordExportQuerySchema), async (_req, res) => {
+    const ability = abilityOf(res);
+    const { units, ...filters } = parsed(res, 'query', checkRecordExportQuerySchema);
+    const scope = await exportScope(ability, filters.siteId);
+    const system = exportUnits(units, scope);
+    await streamListCsv(
+      res,
+      exportName(scope, 'checks-recorded'),
+      CHECK_RECORD_HEADER,
+      (limit, offset) => listCheckRecords(ability, { ...filters, limit, offset }),
+      (record) => checkRecordCells(record, system),
+    );
   });
   router.get('/check-records/:id', validate('params', params), async (_req, res) => {
     res.json(await getCheckRecord(abilityOf(res), parsed(res, 'params', params).id));

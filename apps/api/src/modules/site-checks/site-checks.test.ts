@@ -255,6 +255,66 @@ describe('recording a check', () => {
     expect(res.body.basis).toMatchObject({ kind: 'site_setting', changedByName: 'siteadmin-a' });
   });
 
+  it('judges head down-force by the saw’s own limit when it has one, else the site’s, and says which', async () => {
+    const [saw, other] = [world.saws.A![0]!, world.saws.A![1]!];
+    const siteAdmin = await as('siteadmin-a@test.example');
+    // Both heads fed by a spring; the site keeps its shipped 2–8 lbf (8 lbf: common practice, no source).
+    for (const s of [saw, other])
+      expect((await siteAdmin.patch(`/api/saws/${s.id}`).send({ headFeed: 'gravity_spring' })).status).toBe(200);
+    // This saw's own greatest: 6 lbf = 26.689 N (1 lbf = 4.4482216152605 N, NIST SP 811 B.8); least: the site's.
+    const set = await siteAdmin.patch(`/api/saws/${saw.id}`).send({ maxHeadForceN: 26.689 });
+    expect(set.status).toBe(200);
+    expect(set.body).toMatchObject({
+      maxHeadForceN: 26.689,
+      minHeadForceN: null,
+      headForceSet: { byName: 'siteadmin-a', at: expect.any(String) },
+    });
+    const force = await checkByRule(siteAdmin, world.sites.A.id, 'feed_pressure');
+    const tech = await as('tech-a@test.example');
+    // 7 lbf = 31.138 N: over this saw's 6 lbf, within the site's 8 lbf on the other saw.
+    const own = await tech.post('/api/check-records').send({ sawId: saw.id, siteCheckId: force.id, reading: 31.138 });
+    expect(own.status).toBe(201);
+    expect(own.body).toMatchObject({ passed: false, max: 26.689, min: expect.closeTo(8.896, 3) });
+    expect(own.body.basis).toMatchObject({
+      kind: 'record',
+      note: 'this saw’s own largest head force (the least is your site’s setting)',
+      setByName: 'siteadmin-a',
+      setAt: set.body.headForceSet.at,
+    });
+    const site = await tech
+      .post('/api/check-records')
+      .send({ sawId: other.id, siteCheckId: force.id, reading: 31.138 });
+    expect(site.body).toMatchObject({ passed: true, max: expect.closeTo(35.586, 3) });
+    expect(site.body.basis).toMatchObject({ kind: 'site_setting', settingKey: 'head_force' });
+    // The saw's page of checks shows the same target before anything is read.
+    const checks = await tech.get(`/api/saws/${saw.id}/checks`);
+    const target = checks.body.items.find(
+      (i: { check: { targetRule: string } }) => i.check.targetRule === 'feed_pressure',
+    );
+    expect(target.target).toMatchObject({ applicable: true, max: 26.689, basis: { kind: 'record' } });
+
+    // A least above the greatest, or a negative least, is refused naming the field; nothing changes.
+    const crossed = await siteAdmin.patch(`/api/saws/${saw.id}`).send({ minHeadForceN: 30 });
+    expect(crossed.status).toBe(400);
+    expect(crossed.body.error.details).toEqual([
+      { path: 'maxHeadForceN', message: 'Largest head force must not be below the least' },
+    ]);
+    const negative = await siteAdmin.patch(`/api/saws/${saw.id}`).send({ minHeadForceN: -1 });
+    expect(negative.status).toBe(400);
+    expect(negative.body.error.details[0]).toMatchObject({
+      path: 'minHeadForceN',
+      message: 'Least head force must not be negative',
+    });
+    const stored = await rows<{ min: number | null; max: number }>(
+      'SELECT min_head_force_n AS min, max_head_force_n AS max FROM saws WHERE id = :id',
+      { id: saw.id },
+    );
+    expect(stored).toEqual([{ min: null, max: 26.689 }]);
+    // Back to the site's setting: null.
+    const cleared = await siteAdmin.patch(`/api/saws/${saw.id}`).send({ maxHeadForceN: null });
+    expect(cleared.body).toMatchObject({ maxHeadForceN: null, headForceSet: null });
+  });
+
   it('refuses a check that does not apply to the saw, saying why, and bad input naming the field', async () => {
     const saw = world.saws.A![0]!; // hydraulic feed, as saws are recorded by default
     const tech = await as('tech-a@test.example');

@@ -1,10 +1,18 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { stopCreateSchema, stopEndSchema, stopListQuerySchema, stopUpdateSchema } from '@kerfline/domain/stops/schema';
+import {
+  stopCreateSchema,
+  stopEndSchema,
+  stopExportQuerySchema,
+  stopListQuerySchema,
+  stopUpdateSchema,
+} from '@kerfline/domain/stops/schema';
 import { idSchema } from '@kerfline/domain/common/schema';
 import { abilityOf, actorOf } from '../../http/authenticate.js';
 import { parsed, validate } from '../../http/validate.js';
 import { createStop, deleteStop, endStop, getStop, listStops, updateStop } from './stops.service.js';
+import { exportName, exportScope, streamListCsv } from '../records/record-export.js';
+import { STOP_HEADER, stopCells } from '../records/record-csv.js';
 
 const params = z.object({ id: idSchema });
 
@@ -12,6 +20,19 @@ export function stopsRouter(): Router {
   const router = Router();
   router.get('/stops', validate('query', stopListQuerySchema), async (_req, res) => {
     res.json(await listStops(abilityOf(res), parsed(res, 'query', stopListQuerySchema)));
+  });
+  // The table as CSV: the same filters and scope, paged through the same list a thousand rows at a time.
+  router.get('/stops/export', validate('query', stopExportQuerySchema), async (_req, res) => {
+    const ability = abilityOf(res);
+    const filters = parsed(res, 'query', stopExportQuerySchema);
+    const scope = await exportScope(ability, filters.siteId);
+    await streamListCsv(
+      res,
+      exportName(scope, 'stops'),
+      STOP_HEADER,
+      (limit, offset) => listStops(ability, { ...filters, limit, offset }),
+      stopCells,
+    );
   });
   router.get('/stops/:id', validate('params', params), async (_req, res) => {
     res.json(await getStop(abilityOf(res), parsed(res, 'params', params).id));

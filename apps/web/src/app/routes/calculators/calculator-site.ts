@@ -29,6 +29,8 @@ export function calculatorSaw(saw: Saw): CalculatorSaw {
     bandWidthMm: saw.bandWidthMm,
     bandSpeedMinMPerMin: saw.bandSpeedMinMPerMin,
     bandSpeedMaxMPerMin: saw.bandSpeedMaxMPerMin,
+    minHeadForceN: saw.minHeadForceN,
+    maxHeadForceN: saw.maxHeadForceN,
   };
 }
 

@@ -4,6 +4,8 @@ import { subject } from '@casl/ability';
 import { useAppAbility } from '../../../lib/ability';
 import { SiteRecordsNav } from '../sites/site-records-nav';
 import { LinkButton } from '../../../lib/ui/button';
+import { ExportButton } from '../../../lib/ui/export-button';
+import { useCanExportSite } from '../../../lib/record-export';
 import { siteDetailQuery } from '../../../features/sites/api/queries';
 import { siteSettingsQuery } from '../../../features/site-settings/api/queries';
 import { checkCountsQuery, siteChecksQuery } from '../../../features/checks/api/queries';
@@ -35,6 +37,7 @@ export function SiteChecksPage() {
   const add = useAddSiteCheck(siteId);
   const change = useChangeSiteCheck(siteId);
   const action = useSiteCheckAction(siteId);
+  const canExport = useCanExportSite(site);
   const overdue = counts?.items[0]?.overdue ?? 0;
   const due = counts?.items[0]?.due ?? 0;
 
@@ -61,9 +64,17 @@ export function SiteChecksPage() {
             falls due at each blade change or every so many days.
           </p>
         </div>
-        <LinkButton to={`/sites/${site.id}/checks/overdue`} variant={overdue > 0 ? 'primary' : 'secondary'}>
-          {overdue > 0 ? `${overdue} overdue` : due > 0 ? `${due} due now` : 'Due and overdue'}
-        </LinkButton>
+        <div className="flex flex-wrap items-center gap-3">
+          <LinkButton to={`/sites/${site.id}/checks/overdue`} variant={overdue > 0 ? 'primary' : 'secondary'}>
+            {overdue > 0 ? `${overdue} overdue` : due > 0 ? `${due} due now` : 'Due and overdue'}
+          </LinkButton>
+          {canExport ? (
+            <ExportButton
+              path={`/check-records/export?siteId=${encodeURIComponent(site.id)}`}
+              label="Export checks recorded"
+            />
+          ) : null}
+        </div>
       </header>
       <SiteChecksList
         checks={list.items}

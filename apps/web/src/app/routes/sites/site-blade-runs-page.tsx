@@ -10,6 +10,8 @@ import { BladeRunsTable } from '../../../features/blade-runs/components/blade-ru
 import { offsetOf, parseListQuery, searchValue, TABLE_PAGE_SIZE } from '../../../lib/list-search';
 import { FilterBar, FilterDate, FilterSelect } from '../../../lib/ui/filters';
 import { Pager } from '../../../lib/ui/pager';
+import { ExportButton } from '../../../lib/ui/export-button';
+import { recordExportPath, useCanExportSite } from '../../../lib/record-export';
 import { SiteRecordsNav } from './site-records-nav';
 import { useTableUrl } from './table-url';
 
@@ -58,6 +60,7 @@ export function SiteBladeRunsPage() {
   const { sorting, onSortingChange } = sortingFor(q.sort);
   const { data: runs } = useSuspenseQuery(bladeRunListQuery(q));
   const filtered = Boolean(q.sawId || q.reason || q.open !== undefined || q.from || q.to);
+  const canExport = useCanExportSite(site);
   return (
     <div className="space-y-5">
       <title>{`Blade runs · ${site.name} · Kerfline`}</title>
@@ -71,6 +74,7 @@ export function SiteBladeRunsPage() {
         sorting={sorting}
         onSortingChange={onSortingChange}
         busy={busy}
+        actions={canExport ? <ExportButton path={recordExportPath('/blade-runs/export', q)} /> : null}
         emptyMessage={filtered ? 'No blade runs match these filters.' : 'No blade runs are recorded at this site yet.'}
         toolbar={
           <FilterBar>

@@ -9,7 +9,7 @@ const linkClass = ({ isActive }: { isActive: boolean }) =>
 
 /**
  * The site's records, one tap each: its saws, the work of today, stock, blade runs, stops, and (for those who may
- * read it) the history of changes; the list of checks and those due.
+ * read it) the history of changes; the list of checks, those due and those recorded.
  */
 export function SiteRecordsNav({ siteId }: { siteId: string }) {
   const ability = useAppAbility();
@@ -40,6 +40,9 @@ export function SiteRecordsNav({ siteId }: { siteId: string }) {
       </NavLink>
       <NavLink to={`${base}/checks/overdue`} className={linkClass}>
         Checks due
+      </NavLink>
+      <NavLink to={`${base}/check-records`} className={linkClass}>
+        Checks recorded
       </NavLink>
       {canReadHistory ? (
         <NavLink to={`${base}/history`} className={linkClass}>

@@ -7,6 +7,8 @@ import { StopsTable } from '../../../features/stops/components/stops-table';
 import { offsetOf, parseListQuery, searchValue, TABLE_PAGE_SIZE } from '../../../lib/list-search';
 import { FilterBar, FilterDate, FilterSelect } from '../../../lib/ui/filters';
 import { Pager } from '../../../lib/ui/pager';
+import { ExportButton } from '../../../lib/ui/export-button';
+import { recordExportPath, useCanExportSite } from '../../../lib/record-export';
 import { siteSawsForFilter } from './site-blade-runs-page';
 import { SiteRecordsNav } from './site-records-nav';
 import { useTableUrl } from './table-url';
@@ -52,6 +54,7 @@ export function SiteStopsPage() {
   const q = stopsQueryOf(siteId, search);
   const { sorting, onSortingChange } = sortingFor(q.sort);
   const { data: stops } = useSuspenseQuery(stopListQuery(q));
+  const canExport = useCanExportSite(site);
   const filtered = Boolean(q.sawId || q.category || q.planned !== undefined || q.open !== undefined || q.from || q.to);
   return (
     <div className="space-y-5">
@@ -65,6 +68,7 @@ export function SiteStopsPage() {
         sorting={sorting}
         onSortingChange={onSortingChange}
         busy={busy}
+        actions={canExport ? <ExportButton path={recordExportPath('/stops/export', q)} /> : null}
         emptyMessage={filtered ? 'No stops match these filters.' : 'No stops are recorded at this site yet.'}
         toolbar={
           <FilterBar>

@@ -8,6 +8,8 @@ import { MovementsTable } from '../../../features/blade-stock/components/movemen
 import { offsetOf, parseListQuery, searchValue, TABLE_PAGE_SIZE } from '../../../lib/list-search';
 import { FilterBar, FilterDate, FilterSelect } from '../../../lib/ui/filters';
 import { Pager } from '../../../lib/ui/pager';
+import { ExportButton } from '../../../lib/ui/export-button';
+import { recordExportPath, useCanExportSite } from '../../../lib/record-export';
 import { SiteRecordsNav } from './site-records-nav';
 import { useTableUrl } from './table-url';
 
@@ -44,6 +46,7 @@ export function StockMovementsPage() {
   const { search, setFilters, busy } = useTableUrl('');
   const q = movementsQueryOf(search);
   const { data: movements } = useSuspenseQuery(stockMovementsQuery(siteId, q));
+  const canExport = useCanExportSite(site);
   return (
     <div className="space-y-5">
       <title>{`Stock movements · ${site.name} · Kerfline`}</title>
@@ -53,6 +56,11 @@ export function StockMovementsPage() {
         movements={movements.items}
         timeZone={site.timeZone}
         busy={busy}
+        actions={
+          canExport ? (
+            <ExportButton path={recordExportPath(`/sites/${encodeURIComponent(site.id)}/stock/movements/export`, q)} />
+          ) : null
+        }
         emptyMessage={
           q.bladeSpecId || q.from || q.to
             ? 'No movements match these filters.'

@@ -53,6 +53,22 @@ function renderForm(onDone = vi.fn()) {
 }
 
 describe('taking a blade off', () => {
+  it('shows the safety caution before the work: lock out, gloves and eyes, the band’s stored energy, and who comes first', () => {
+    renderForm();
+    const caution = screen.getByRole('region', { name: 'Caution: work on the saw safely' });
+    expect(caution).toHaveTextContent('Isolate and lock out the power before reaching into the saw.');
+    expect(caution).toHaveTextContent('Wear gloves and eye protection');
+    expect(caution).toHaveTextContent('A coiled or broken band stores energy and can spring.');
+    expect(caution).toHaveTextContent('Put the guards back before running the saw.');
+    expect(caution).toHaveTextContent(
+      'Your employer’s procedures, local regulations (such as lockout/tagout rules) and the saw maker’s manual come first.',
+    );
+    // The warning triangle is drawn beside the words, and the caution comes before the button that records the work.
+    expect(caution.querySelector('svg path')).toHaveAttribute('fill', '#F6C64A');
+    const submit = screen.getByRole('button', { name: 'Take blade off' });
+    expect(caution.compareDocumentPosition(submit) & Node.DOCUMENT_POSITION_FOLLOWING).toBeTruthy();
+  });
+
   it('asks why before anything is sent', async () => {
     const { user, requests, onDone } = renderForm();
     await user.click(screen.getByRole('button', { name: 'Take blade off' }));

@@ -37,6 +37,7 @@ export function BladeRunsTable({
   busy,
   emptyMessage,
   toolbar,
+  actions,
   footer,
   headingLevel,
 }: {
@@ -48,6 +49,8 @@ export function BladeRunsTable({
   busy: boolean;
   emptyMessage: string;
   toolbar?: React.ReactNode;
+  /** Beside the heading: the table's export, for those who may export the site. */
+  actions?: React.ReactNode;
   footer?: React.ReactNode;
   headingLevel?: 1 | 2;
 }) {
@@ -126,6 +129,7 @@ export function BladeRunsTable({
       busy={busy}
       emptyMessage={emptyMessage}
       toolbar={toolbar}
+      actions={actions}
       footer={footer}
     />
   );

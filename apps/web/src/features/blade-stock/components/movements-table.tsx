@@ -20,6 +20,7 @@ export function MovementsTable({
   busy,
   emptyMessage,
   toolbar,
+  actions,
   footer,
 }: {
   movements: StockMovement[];
@@ -27,6 +28,8 @@ export function MovementsTable({
   busy: boolean;
   emptyMessage: string;
   toolbar?: React.ReactNode;
+  /** Beside the heading: the table's export, for those who may export the site. */
+  actions?: React.ReactNode;
   footer?: React.ReactNode;
 }) {
   const columns = useMemo(
@@ -98,6 +101,7 @@ export function MovementsTable({
       busy={busy}
       emptyMessage={emptyMessage}
       toolbar={toolbar}
+      actions={actions}
       footer={footer}
     />
   );

@@ -76,6 +76,27 @@ describe('CheckTargetsCalculator', () => {
     expect(check('Guide bearing clearance')).toHaveTextContent('Target0.043 in');
   });
 
+  it('starts from a spring-fed saw’s own head-force limits, and asks for none on a hydraulic head', async () => {
+    // 6 lbf greatest and 3 lbf least, as the saw page's link carries them (1 lbf = 4.448 N, NIST SP 811, B.8).
+    const spring = { ...saw, headFeed: 'gravity_spring' as const, maxHeadForceN: 26.6893, minHeadForceN: 13.3447 };
+    const view = render(
+      <CheckTargetsCalculator
+        system="imperial"
+        saws={[spring]}
+        saw={spring}
+        start={{ maxForce: '6', minForce: '3' }}
+      />,
+    );
+    expect(field(/Largest head force/)).toHaveValue('6');
+    expect(field(/Least head force/)).toHaveValue('3');
+    expect(check('Head down-force')).toHaveTextContent('Passes3–6 lbf');
+    expect(check('Head down-force')).toHaveTextContent("Source: This saw's own head-force limits.");
+    view.unmount();
+    const hydraulic = { ...saw, headFeed: 'hydraulic' as const };
+    render(<CheckTargetsCalculator system="imperial" saws={[hydraulic]} saw={hydraulic} />);
+    expect(screen.queryByRole('textbox', { name: /head force/ })).not.toBeInTheDocument();
+  });
+
   it('puts the schema’s message beside the band thickness', async () => {
     const { user } = renderCalculator('metric');
     await user.type(field(/Band thickness/), '9');

@@ -202,6 +202,7 @@ export function CheckTargetsCalculator({
       width: '',
       material: 'bimetal',
       maxForce: '',
+      minForce: '',
       guideMeasured: '',
       trackingMeasured: '',
       forceMeasured: '',
@@ -226,6 +227,10 @@ export function CheckTargetsCalculator({
   const passed = checks.filter((outcome) => outcome.result?.passed === true).length;
   const headForce = effectiveSetting(effective, 'head_force');
   const usualForce = figure('force', settingValue(headForce, 'maxN') ?? CHECK_DEFAULTS.maxHeadForceN, system).text;
+  const usualLeast = figure('force', settingValue(headForce, 'minN') ?? CHECK_DEFAULTS.minHeadForceN, system).text;
+  const forceOrigin = headForce.changedAt === null ? 'Kerfline’s starting value' : 'the site’s setting';
+  // The spring-balance limits are for a head fed by gravity or a spring; a saw typed in by hand may be either.
+  const springFed = current?.headFeed !== 'hydraulic';
 
   const pick = (saw: CalculatorSaw) => {
     setCurrent(saw);
@@ -233,6 +238,9 @@ export function CheckTargetsCalculator({
       // The saw's record is in millimetres; the fields show them in the user's unit.
       thickness: { text: String(saw.bandThicknessMm), system: 'metric' },
       width: { text: String(saw.bandWidthMm), system: 'metric' },
+      // The saw's own head-force limits, or empty for the site's setting.
+      maxForce: { text: saw.maxHeadForceN != null ? String(saw.maxHeadForceN) : '', system: 'metric' },
+      minForce: { text: saw.minHeadForceN != null ? String(saw.minHeadForceN) : '', system: 'metric' },
     });
   };
 
@@ -255,11 +263,20 @@ export function CheckTargetsCalculator({
         field={form.bind('material', null, errors)}
         options={BLADE_MATERIAL_OPTIONS}
       />
-      <EntryField
-        label="Largest head force"
-        hint={`This saw's maximum; leave empty to use ${headForce.changedAt === null ? 'Kerfline’s starting value' : 'the site’s setting'}, ${usualForce}.`}
-        field={form.bind('maxForce', 'force', errors)}
-      />
+      {springFed ? (
+        <>
+          <EntryField
+            label="Largest head force"
+            hint={`This saw's maximum; leave empty to use ${forceOrigin}, ${usualForce}.`}
+            field={form.bind('maxForce', 'force', errors)}
+          />
+          <EntryField
+            label="Least head force"
+            hint={`Below this the head is not feeding; leave empty to use ${forceOrigin}, ${usualLeast}.`}
+            field={form.bind('minForce', 'force', errors)}
+          />
+        </>
+      ) : null}
     </FieldGroup>
   );
 

@@ -32,6 +32,7 @@ export type CheckTargetsKey =
   | 'width'
   | 'material'
   | 'maxForce'
+  | 'minForce'
   | 'guideMeasured'
   | 'trackingMeasured'
   | 'forceMeasured'
@@ -127,6 +128,7 @@ export function evaluateCheckTargets(
   const thicknessMm = take(readQuantity(entries.thickness, 'length'), 'thickness', 'Band thickness', errors);
   const widthMm = take(readQuantity(entries.width, 'length'), 'width', 'Band width', errors);
   const maxForceN = optional(entries.maxForce, 'force', 'maxForce', 'Largest head force', errors);
+  const minForceN = optional(entries.minForce, 'force', 'minForce', 'Least head force', errors);
   const measured = {
     guide: optional(entries.guideMeasured, 'length', 'guideMeasured', 'Measured opening', errors) ?? null,
     // A negative overhang (the tooth edge back on the wheel face) is a reading like any other.
@@ -136,6 +138,7 @@ export function evaluateCheckTargets(
     tensionPa: optional(entries.tensionMeasured, 'stress', 'tensionMeasured', 'Tension meter reading', errors) ?? null,
   };
   const maxForceReading = readNumber(entries.maxForce.text);
+  const minForceReading = readNumber(entries.minForce.text);
 
   const guide =
     thicknessMm === undefined
@@ -160,7 +163,7 @@ export function evaluateCheckTargets(
           (input) => trackingTarget(input, context),
         );
   const feed =
-    maxForceReading.kind === 'invalid'
+    maxForceReading.kind === 'invalid' || minForceReading.kind === 'invalid'
       ? null
       : runCheck(
           feedPressureInputSchema,
@@ -169,9 +172,10 @@ export function evaluateCheckTargets(
             kind: 'feed_pressure',
             headFeed: site.headFeed ?? 'gravity_spring',
             maxHeadForceN: maxForceN,
+            minHeadForceN: minForceN,
             measuredN: measured.force,
           },
-          { maxHeadForceN: 'maxForce', measuredN: 'forceMeasured' },
+          { maxHeadForceN: 'maxForce', minHeadForceN: 'minForce', measuredN: 'forceMeasured' },
           errors,
           system,
           (input) => feedPressureTarget(input, context),

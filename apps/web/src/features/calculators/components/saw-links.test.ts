@@ -42,4 +42,13 @@ describe('a calculator opened for a saw', () => {
     const search = new URL(href, 'http://kerfline.test').searchParams;
     expect(startTextsFromSearch(search)).toEqual(sawStartTexts(saw, 'imperial'));
   });
+
+  it('carries a spring-fed saw’s own head-force limits, and none for a hydraulic head or a limit left to the site', () => {
+    // 6 lbf = 26.689 N (1 lbf = 4.4482216152605 N, NIST SP 811 (2008), B.8).
+    const spring = { ...saw, headFeed: 'gravity_spring' as const, maxHeadForceN: 26.6893, minHeadForceN: null };
+    expect(sawStartTexts(spring, 'imperial')).toMatchObject({ maxForce: '6' });
+    expect(sawStartTexts(spring, 'imperial')).not.toHaveProperty('minForce');
+    expect(sawStartTexts(spring, 'metric')).toMatchObject({ maxForce: '26.6893' });
+    expect(sawStartTexts({ ...spring, headFeed: 'hydraulic' }, 'imperial')).not.toHaveProperty('maxForce');
+  });
 });

@@ -4,6 +4,11 @@ import { calculatorHref } from './calculator-nav';
 import { entryText, type Quantity } from './quantities';
 import type { CalculatorSaw } from './saw-picker';
 
+/** A head-force limit that applies: the saw's own, on a head fed by gravity or a spring. */
+function headForce(saw: CalculatorSaw, newtons: number | null | undefined): number | undefined {
+  return saw.headFeed === 'gravity_spring' && newtons !== null && newtons !== undefined ? newtons : undefined;
+}
+
 /**
  * A saw's figures under the names the calculators' fields share, each with its quantity: a calculator opened
  * with them starts from that saw. A calculator takes the names it has fields for and ignores the rest.
@@ -14,6 +19,9 @@ const SAW_FIGURES: readonly { name: string; quantity: Quantity; of: (saw: Calcul
   { name: 'wheel', quantity: 'length', of: (saw) => saw.wheelDiameterMm },
   { name: 'sawMin', quantity: 'bandSpeed', of: (saw) => saw.bandSpeedMinMPerMin },
   { name: 'sawMax', quantity: 'bandSpeed', of: (saw) => saw.bandSpeedMaxMPerMin },
+  // A gravity- or spring-fed head's own limits; without them the calculator reads the site's setting.
+  { name: 'maxForce', quantity: 'force', of: (saw) => headForce(saw, saw.maxHeadForceN) },
+  { name: 'minForce', quantity: 'force', of: (saw) => headForce(saw, saw.minHeadForceN) },
 ];
 
 /** A saw's figures as a calculator's starting texts, in `system`'s units (plain digits, as a person types). */

@@ -17,6 +17,9 @@ export interface CalculatorSaw {
   bandWidthMm: number;
   bandSpeedMinMPerMin: number;
   bandSpeedMaxMPerMin: number;
+  /** The saw's own spring-balance limits (N); null or left out: the site's setting. */
+  minHeadForceN?: number | null;
+  maxHeadForceN?: number | null;
 }
 
 /** Fills a calculator's fields from one of the user's saws; the figures can still be changed by hand. */

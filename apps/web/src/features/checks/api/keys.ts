@@ -1,4 +1,4 @@
-import type { DueCheckListQuery } from '@kerfline/domain/site-checks/schema';
+import type { CheckRecordListQuery, DueCheckListQuery } from '@kerfline/domain/site-checks/schema';
 
 /**
  * Query keys for maintenance checks, first segment the API path segment: a site's list and its overdue list
@@ -14,5 +14,6 @@ export const checkKeys = {
   counts: (siteId?: string) => ['check-counts', siteId ?? 'all'] as const,
   countsAll: () => ['check-counts'] as const,
   records: () => ['check-records'] as const,
+  recordList: (q: CheckRecordListQuery) => ['check-records', 'list', q] as const,
   recordDetail: (id: string) => ['check-records', 'detail', id] as const,
 };

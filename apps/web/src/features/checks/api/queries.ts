@@ -7,6 +7,7 @@ import {
   dueCheckSchema,
   sawChecksSchema,
   siteCheckSchema,
+  type CheckRecordListQuery,
   type DueCheckListQuery,
 } from '@kerfline/domain/site-checks/schema';
 import { api } from '../../../lib/api-client';
@@ -57,5 +58,22 @@ export function checkRecordQuery(id: string) {
   return queryOptions({
     queryKey: checkKeys.recordDetail(id),
     queryFn: ({ signal }) => api.get(`/check-records/${encodeURIComponent(id)}`, checkRecordSchema, { signal }),
+  });
+}
+
+/** A page of recorded checks (a site's, a saw's), sorted and filtered on the server. */
+export function checkRecordListQuery(q: CheckRecordListQuery) {
+  return queryOptions({
+    queryKey: checkKeys.recordList(q),
+    queryFn: ({ signal }) =>
+      api.get('/check-records', pageOf(checkRecordSchema), {
+        query: {
+          ...q,
+          passed: q.passed === undefined ? undefined : String(q.passed),
+          from: q.from?.toISOString(),
+          to: q.to?.toISOString(),
+        },
+        signal,
+      }),
   });
 }

@@ -71,7 +71,8 @@ export function FleetFilters({
   };
   const selected = new Set(selectedSiteIds ?? []);
   const toggleSite = (siteId: string) => {
-    const next = new Set(selected);
+    // No `sites` in the address means every site is shown (and ticked): unticking one starts from all of them.
+    const next = new Set(selected.size === 0 ? (siteOptions ?? []).map((s) => s.id) : selected);
     if (next.has(siteId)) next.delete(siteId);
     else next.add(siteId);
     update({ sites: next.size === 0 || next.size === siteOptions?.length ? null : [...next].join(',') });

@@ -1,7 +1,14 @@
 import type { ReactNode } from 'react';
 import type { Saw } from '@kerfline/domain/saws/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
-import { formatDateTime, formatLength, formatSmallLength, formatSpeed } from '../../../lib/format';
+import {
+  formatDate,
+  formatDateTime,
+  formatForce,
+  formatLength,
+  formatSmallLength,
+  formatSpeed,
+} from '../../../lib/format';
 import { Card } from '../../../lib/ui/card';
 import { HEAD_FEED_LABELS, SAW_KIND_LABELS } from './saws-table';
 
@@ -23,6 +30,35 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
+const siteSetting = <span className="text-base font-normal text-ink-muted">The site’s setting</span>;
+
+/**
+ * A gravity- or spring-fed head's spring-balance limits: this saw's own where set (who set them, when), else the
+ * site's setting. A hydraulic head has none.
+ */
+function HeadForceFacts({ saw, unitSystem, timeZone }: { saw: Saw; unitSystem: UnitSystem; timeZone: string }) {
+  if (saw.headFeed !== 'gravity_spring') return null;
+  const own = saw.minHeadForceN !== null || saw.maxHeadForceN !== null;
+  return (
+    <>
+      <Fact label="Largest head force">
+        {saw.maxHeadForceN !== null ? formatForce(saw.maxHeadForceN, unitSystem) : siteSetting}
+      </Fact>
+      <Fact label="Least head force">
+        {saw.minHeadForceN !== null ? formatForce(saw.minHeadForceN, unitSystem) : siteSetting}
+      </Fact>
+      {own ? (
+        <p className="pb-3 text-sm text-ink-muted">
+          {saw.headForceSet
+            ? `This saw’s limit, set by ${saw.headForceSet.byName ?? 'someone no longer listed'} on ${formatDate(saw.headForceSet.at, timeZone)}.`
+            : 'This saw’s limit.'}{' '}
+          Read on a spring balance over the last inch of head travel.
+        </p>
+      ) : null}
+    </>
+  );
+}
+
 const notRecorded = <span className="text-base font-normal text-ink-muted">Not recorded</span>;
 
 /** Everything recorded about one saw, in its site's units and time zone (named, as viewers may be elsewhere). */
@@ -36,6 +72,7 @@ export function SawDetailPanel({ saw, unitSystem, timeZone }: { saw: Saw; unitSy
       <Section title="Machine">
         <Fact label="Kind">{SAW_KIND_LABELS[saw.kind]}</Fact>
         <Fact label="Head feed">{HEAD_FEED_LABELS[saw.headFeed]}</Fact>
+        <HeadForceFacts saw={saw} unitSystem={unitSystem} timeZone={timeZone} />
         <Fact label="Make">{saw.make ?? notRecorded}</Fact>
         <Fact label="Model">{saw.model ?? notRecorded}</Fact>
         <Fact label="Wheel diameter">{formatLength(saw.wheelDiameterMm, unitSystem)}</Fact>

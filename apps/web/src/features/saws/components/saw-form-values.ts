@@ -1,5 +1,6 @@
 import type { HeadFeed, Saw, SawCreate, SawCreateParsed, SawKind } from '@kerfline/domain/saws/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
+import { lbfToN, nToLbf } from '@kerfline/domain/units/units';
 import { lengthFromMm, lengthToMm, speedFromMPerMin, speedToMPerMin } from '../../../lib/format';
 
 /**
@@ -23,9 +24,26 @@ export const SPEED_FIELDS = {
   bandSpeedMax: 'bandSpeedMaxMPerMin',
 } as const satisfies Record<string, keyof SawCreateParsed>;
 
+/** A gravity- or spring-fed head's own spring-balance limits; blank means the site's `head_force` setting. */
+export const FORCE_FIELDS = {
+  minHeadForce: 'minHeadForceN',
+  maxHeadForce: 'maxHeadForceN',
+} as const satisfies Record<string, keyof SawCreateParsed>;
+
 export type LengthField = keyof typeof LENGTH_FIELDS;
 export type SpeedField = keyof typeof SPEED_FIELDS;
-export type MeasureField = LengthField | SpeedField;
+export type ForceField = keyof typeof FORCE_FIELDS;
+export type MeasureField = LengthField | SpeedField | ForceField;
+
+/** Newtons to the site's force unit (N or lbf), unrounded. */
+export function forceFromN(newtons: number, system: UnitSystem): number {
+  return system === 'imperial' ? nToLbf(newtons) : newtons;
+}
+
+/** A force typed in the site's unit, in newtons, rounded to 0.0001 N (so 8 lbf reads back as 8). */
+export function forceToN(value: number, system: UnitSystem): number {
+  return Math.round((system === 'imperial' ? lbfToN(value) : value) * 10_000) / 10_000;
+}
 
 export const MEASURE_LABELS: Record<MeasureField, string> = {
   wheelDiameter: 'Wheel diameter',
@@ -38,10 +56,18 @@ export const MEASURE_LABELS: Record<MeasureField, string> = {
   capacityRectHeight: 'Rectangle capacity, height',
   bandSpeedMin: 'Lowest band speed',
   bandSpeedMax: 'Highest band speed',
+  minHeadForce: 'Least head force',
+  maxHeadForce: 'Largest head force',
 };
 
 /** Capacity may be left blank; every other measurement is required. */
-const OPTIONAL_FIELDS = new Set<MeasureField>(['capacityRound', 'capacityRectWidth', 'capacityRectHeight']);
+const OPTIONAL_FIELDS = new Set<MeasureField>([
+  'capacityRound',
+  'capacityRectWidth',
+  'capacityRectHeight',
+  'minHeadForce',
+  'maxHeadForce',
+]);
 
 export type SawFormValues = {
   assetTag: string;
@@ -60,6 +86,7 @@ const FORM_FIELD_BY_PATH: Record<string, SawFormField> = Object.fromEntries([
   ...TEXT_FIELDS.map((field) => [field, field]),
   ...Object.entries(LENGTH_FIELDS).map(([form, si]) => [si, form]),
   ...Object.entries(SPEED_FIELDS).map(([form, si]) => [si, form]),
+  ...Object.entries(FORCE_FIELDS).map(([form, si]) => [si, form]),
 ]);
 
 /** The form field an error path of the domain schema (or of the server's answer) belongs to. */
@@ -71,6 +98,7 @@ export function formFieldForPath(path: string): SawFormField | undefined {
 export function schemaFieldFor(field: SawFormField): keyof SawCreateParsed {
   if (field in LENGTH_FIELDS) return LENGTH_FIELDS[field as LengthField];
   if (field in SPEED_FIELDS) return SPEED_FIELDS[field as SpeedField];
+  if (field in FORCE_FIELDS) return FORCE_FIELDS[field as ForceField];
   return field as keyof SawCreateParsed;
 }
 
@@ -93,6 +121,8 @@ export function emptySawFormValues(): SawFormValues {
     capacityRound: '',
     capacityRectWidth: '',
     capacityRectHeight: '',
+    minHeadForce: '',
+    maxHeadForce: '',
   };
 }
 
@@ -116,6 +146,10 @@ export function sawFormValuesFromSaw(saw: Saw, system: UnitSystem): SawFormValue
   }
   for (const [field, si] of Object.entries(SPEED_FIELDS) as [SpeedField, (typeof SPEED_FIELDS)[SpeedField]][]) {
     values[field] = plain(speedFromMPerMin(saw[si], system), 3);
+  }
+  for (const [field, si] of Object.entries(FORCE_FIELDS) as [ForceField, (typeof FORCE_FIELDS)[ForceField]][]) {
+    const newtons = saw[si];
+    values[field] = newtons === null ? '' : plain(forceFromN(newtons, system), 3);
   }
   return values;
 }
@@ -161,6 +195,9 @@ export function sawInputFromForm(
   }
   for (const [field, si] of Object.entries(SPEED_FIELDS) as [SpeedField, keyof SawCreateParsed][]) {
     read(field, (value) => speedToMPerMin(value, system), si);
+  }
+  for (const [field, si] of Object.entries(FORCE_FIELDS) as [ForceField, keyof SawCreateParsed][]) {
+    read(field, (value) => forceToN(value, system), si);
   }
 
   const optionalText = (text: string) => (text.trim() === '' ? null : text);

@@ -77,6 +77,7 @@ describe('SawForm', () => {
     const onSubmit = vi.fn<Submit>().mockResolvedValue(undefined);
     const user = renderForm(onSubmit);
     await fillValidImperialSaw(user);
+    await user.type(field(/Largest head force/), '6');
     await user.click(screen.getByRole('button', { name: 'Save saw' }));
 
     expect(onSubmit).toHaveBeenCalledTimes(1);
@@ -101,7 +102,34 @@ describe('SawForm', () => {
       capacityRoundMm: 254,
       capacityRectWidthMm: null,
       capacityRectHeightMm: null,
+      // 6 lbf × 4.4482216152605 N/lbf (NIST SP 811 (2008), B.8) = 26.6893 N; the least left empty: the site's.
+      maxHeadForceN: 26.6893,
+      minHeadForceN: null,
     });
+  });
+
+  it('asks for the head-force limits only on a head fed by gravity or a spring, in the site’s force unit', async () => {
+    const user = renderForm(vi.fn<Submit>(), 'imperial');
+    // A new saw starts hydraulic: no spring-balance limits.
+    expect(screen.queryByRole('textbox', { name: /head force/ })).not.toBeInTheDocument();
+    await user.selectOptions(screen.getByRole('combobox', { name: 'Head feed' }), 'Gravity or spring');
+    expect(field(/Largest head force/)).toHaveAccessibleName(/^Largest head force\s?\(lbf\)$/);
+    expect(field(/Largest head force/)).toHaveAccessibleDescription(/leave empty to use the site’s setting/);
+    expect(field(/Least head force/)).toHaveAccessibleDescription(/Below this the head is not feeding/);
+    await user.selectOptions(screen.getByRole('combobox', { name: 'Head feed' }), 'Hydraulic');
+    expect(screen.queryByRole('textbox', { name: /head force/ })).not.toBeInTheDocument();
+  });
+
+  it('refuses a least head force above the largest, and shows a saw’s own limits in newtons on a metric site', async () => {
+    const onSubmit = vi.fn<Submit>();
+    const user = renderForm(onSubmit, 'metric', makeSaw({ maxHeadForceN: 26.6893, minHeadForceN: 8.8964 }));
+    expect(field(/Largest head force/)).toHaveValue('26.689');
+    expect(field(/Largest head force/)).toHaveAccessibleName(/\(N\)$/);
+    await user.clear(field(/Least head force/));
+    await user.type(field(/Least head force/), '30');
+    await user.click(screen.getByRole('button', { name: 'Save saw' }));
+    expect(await screen.findByText('Largest head force must not be below the least')).toBeInTheDocument();
+    expect(onSubmit).not.toHaveBeenCalled();
   });
 
   it("puts the server's 400 details beside their fields", async () => {

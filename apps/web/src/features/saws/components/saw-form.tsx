@@ -1,5 +1,5 @@
 import { useMemo, type ReactNode } from 'react';
-import { useForm, type Resolver } from 'react-hook-form';
+import { useForm, useWatch, type Resolver } from 'react-hook-form';
 import { domainSchemaResolver } from '../../../lib/form-errors';
 import { HEAD_FEEDS, sawCreateSchema, type Saw, type SawCreateParsed } from '@kerfline/domain/saws/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
@@ -11,6 +11,7 @@ import { Field, inputClass } from '../../../lib/ui/field';
 import { Notice } from '../../../lib/ui/notice';
 import { HEAD_FEED_LABELS } from './saws-table';
 import {
+  FORCE_FIELDS,
   MEASURE_LABELS,
   SPEED_FIELDS,
   emptySawFormValues,
@@ -71,6 +72,7 @@ export function SawForm({ siteId, unitSystem, saw, submitLabel, onSubmit, cancel
     register,
     handleSubmit,
     setError,
+    control,
     formState: { errors, isSubmitting, dirtyFields },
   } = useForm<SawFormValues, unknown, SawCreateParsed>({ resolver, defaultValues });
 
@@ -100,13 +102,13 @@ export function SawForm({ siteId, unitSystem, saw, submitLabel, onSubmit, cancel
 
   const lengthUnitLabel = lengthUnit(unitSystem);
   const speedUnitLabel = speedUnit(unitSystem);
+  const forceUnitLabel = unitSystem === 'imperial' ? 'lbf' : 'N';
+  const unitOf = (field: MeasureField) =>
+    field in SPEED_FIELDS ? speedUnitLabel : field in FORCE_FIELDS ? forceUnitLabel : lengthUnitLabel;
+  // The spring-balance limits mean something only for a head fed by gravity or a spring.
+  const springFed = useWatch({ control, name: 'headFeed' }) === 'gravity_spring';
   const measure = (field: MeasureField, hint?: string) => (
-    <Field
-      label={MEASURE_LABELS[field]}
-      unit={field in SPEED_FIELDS ? speedUnitLabel : lengthUnitLabel}
-      hint={hint}
-      error={errors[field]?.message}
-    >
+    <Field label={MEASURE_LABELS[field]} unit={unitOf(field)} hint={hint} error={errors[field]?.message}>
       {(props) => (
         <input
           {...props}
@@ -164,6 +166,19 @@ export function SawForm({ siteId, unitSystem, saw, submitLabel, onSubmit, cancel
           {(props) => <input {...props} {...register('model')} autoComplete="off" className={inputClass} />}
         </Field>
       </fieldset>
+
+      {springFed ? (
+        <fieldset className="grid gap-4 sm:grid-cols-2">
+          <legend className="mb-2 text-sm font-bold tracking-wider text-ink-muted uppercase">
+            Head down-force (optional)
+          </legend>
+          {measure(
+            'maxHeadForce',
+            'This saw’s greatest spring-balance reading over the last inch of head travel; leave empty to use the site’s setting.',
+          )}
+          {measure('minHeadForce', 'Below this the head is not feeding; leave empty to use the site’s setting.')}
+        </fieldset>
+      ) : null}
 
       <fieldset className="grid gap-4 sm:grid-cols-2">
         <legend className="mb-2 text-sm font-bold tracking-wider text-ink-muted uppercase">Wheels and band</legend>

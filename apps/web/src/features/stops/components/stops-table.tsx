@@ -31,6 +31,7 @@ export function StopsTable({
   busy,
   emptyMessage,
   toolbar,
+  actions,
   footer,
   headingLevel,
 }: {
@@ -41,6 +42,8 @@ export function StopsTable({
   busy: boolean;
   emptyMessage: string;
   toolbar?: React.ReactNode;
+  /** Beside the heading: the table's export, for those who may export the site. */
+  actions?: React.ReactNode;
   footer?: React.ReactNode;
   headingLevel?: 1 | 2;
 }) {
@@ -109,6 +112,7 @@ export function StopsTable({
       busy={busy}
       emptyMessage={emptyMessage}
       toolbar={toolbar}
+      actions={actions}
       footer={footer}
     />
   );
