@@ -97,7 +97,7 @@ describe('scale-out: nginx, two API processes, a streaming replica', () => {
     for (const base of [...PROCESSES, BALANCER, BALANCER]) {
       const res = await get(base, '/api/me', cookie);
       expect(res.status).toBe(200);
-      expect(((await res.json()) as { email: string }).email).toBe('grace.okafor@corvane.example');
+      expect(((await res.json()) as { user: { email: string } }).user.email).toBe('grace.okafor@corvane.example');
     }
   });
 

@@ -148,8 +148,9 @@ export function createApp(deps: AppDeps): Express {
   class SessionStore extends PgStore {
     override touch(sid: string, sess: session.SessionData, done?: (err?: unknown) => void): void {
       if (!/^[\w-]+$/.test(sid)) return super.touch(sid, sess, done);
-      const maxAge = sess.cookie?.maxAge;
-      const expire = Math.ceil(Date.now() / 1000 + (typeof maxAge === 'number' ? maxAge / 1000 : 86_400));
+      // The same expiry the library's own touch writes: the cookie's, else a day from now.
+      const expires = sess.cookie?.expires;
+      const expire = Math.ceil(expires ? new Date(expires).valueOf() / 1000 : Date.now() / 1000 + 86_400);
       deps.sessionPool
         .query(
           `SET LOCAL synchronous_commit = off; UPDATE sessions SET expire = to_timestamp(${expire}) WHERE sid = '${sid}'`,

@@ -99,9 +99,9 @@ const endpoints: Endpoint[] = [
   { name: 'outliers', who: 'manager', path: '/api/outliers', dashboard: true },
   { name: 'outliers of the lead’s region', who: 'regionalLead', path: '/api/outliers', dashboard: true },
   { name: 'budgets', who: 'manager', path: '/api/budgets', dashboard: true },
-  { name: 'CSV: fleet overview', who: 'manager', path: '/api/fleet/overview/export', dashboard: true },
-  { name: 'CSV: one site', who: 'manager', path: `/api/fleet/sites/${site1}/export`, dashboard: true },
-  { name: 'CSV: one saw', who: 'manager', path: `/api/fleet/saws/${sawId}/export`, dashboard: true },
+  { name: 'CSV: fleet overview', who: 'manager', path: '/api/fleet/overview/export?table=sites', dashboard: true },
+  { name: 'CSV: one site', who: 'manager', path: `/api/fleet/sites/${site1}/export?table=saws`, dashboard: true },
+  { name: 'CSV: one saw', who: 'manager', path: `/api/fleet/saws/${sawId}/export?table=runs`, dashboard: true },
   { name: 'CSV: practice', who: 'manager', path: '/api/fleet/practice/export', dashboard: true },
   { name: 'CSV: outliers', who: 'manager', path: '/api/outliers/export', dashboard: true },
   { name: 'CSV: budgets', who: 'manager', path: '/api/budgets/export', dashboard: true },
@@ -247,7 +247,9 @@ const results: EndpointResult[] = [];
 const statementsOf = new Map<string, Statement[]>();
 const key = (s: Statement) => s.text.replace(/\s+/g, ' ').trim();
 
-for (const endpoint of loadOnly ? [] : endpoints) {
+/** BENCH_ONLY (a pattern on the names) measures those endpoints alone and puts them into the existing results. */
+const only = process.env.BENCH_ONLY ? new RegExp(process.env.BENCH_ONLY, 'i') : null;
+for (const endpoint of loadOnly ? [] : endpoints.filter((e) => !only || only.test(e.name))) {
   // Statements every signed-in request of this person sends (session, person, ability), to leave out.
   const baseline = await captured(captureBase, captureCookies[endpoint.who]!, '/api/me');
   const common = new Set(endpoint.floor ? [] : baseline.statements.map(key));
@@ -361,11 +363,11 @@ async function loadTest(base: string, label: string) {
   return out;
 }
 console.log('');
-const loadResults = [await loadTest(api, 'one API process')];
+const loadResults = only ? [] : [await loadTest(api, 'one API process')];
 // Let the answers still on their way finish before the process stops.
 await new Promise((r) => setTimeout(r, 2000));
 stopApi();
-if (args.has('--scale-out')) {
+if (args.has('--scale-out') && !only) {
   try {
     await waitUp(scaleOutUrl);
     loadResults.push(await loadTest(scaleOutUrl, 'scale-out: nginx, two API processes, reads on the replica'));
@@ -379,7 +381,7 @@ if (args.has('--scale-out')) {
 // ---------------------------------------------------------------------------------------------------------------
 // (b) import beside COPY: bench-import.ts as it is, its figures read from its output.
 let importResult: Record<string, unknown> | null = null;
-if (!args.has('--skip-import') && !loadOnly) {
+if (!args.has('--skip-import') && !loadOnly && !only) {
   console.log('\nimport of 100 000 rows (npm run bench:import):');
   const run = spawnSync('npx', ['tsx', '--conditions=source', 'apps/api/src/db/bench-import.ts'], {
     cwd: ROOT,
@@ -408,7 +410,7 @@ if (!args.has('--skip-import') && !loadOnly) {
 
 // ---------------------------------------------------------------------------------------------------------------
 // (d) the web app
-const web = loadOnly ? null : await measureWeb();
+const web = loadOnly || only ? null : await measureWeb();
 
 async function measureWeb() {
   const dist = path.join(ROOT, 'dist/web');
@@ -541,9 +543,16 @@ const report = {
 };
 mkdirSync(path.join(ROOT, 'bench'), { recursive: true });
 const resultsFile = path.join(ROOT, 'bench/results.json');
+const previous = () => JSON.parse(readFileSync(resultsFile, 'utf8')) as typeof report;
 const written = loadOnly
-  ? { ...(JSON.parse(readFileSync(resultsFile, 'utf8')) as object), load: loadResults, loadMeasuredAt: report.date }
-  : report;
+  ? { ...previous(), load: loadResults, loadMeasuredAt: report.date }
+  : only
+    ? {
+        ...previous(),
+        endpoints: previous().endpoints.map((e) => results.find((r) => r.name === e.name) ?? e),
+        endpointsRemeasuredAt: report.date,
+      }
+    : report;
 writeFileSync(resultsFile, JSON.stringify(written, null, 2) + '\n');
 console.log(`\nwritten to bench/results.json (load average at the end ${load().join(' / ')})`);
 process.exit(0);
