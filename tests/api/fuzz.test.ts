@@ -24,7 +24,7 @@ import { User } from '../../apps/api/src/modules/users/user.model.js';
  * Then the importer, fed random, truncated, wrongly encoded and pathological files.
  *
  * FUZZ_RUNS sets the cases per route and role (default 4) and scales the importer's random files; the default
- * run takes about half a minute.
+ * run takes about a minute on the 2-core development machine.
  */
 
 const RUNS = Number(process.env.FUZZ_RUNS ?? 4);
