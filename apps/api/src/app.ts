@@ -44,6 +44,7 @@ import { sawTimelineRouter } from './modules/saw-timeline/saw-timeline.router.js
 import { siteSummariesRouter } from './modules/site-summaries/site-summaries.router.js';
 import { DatabasePhotoStorage, type PhotoStorage } from './modules/photos/photo-storage.js';
 import { importsRouter } from './modules/imports/imports.router.js';
+import { removedRecordsRouter } from './modules/removed-records/removed-records.router.js';
 import { DEFAULT_IMPORT_LIMITS, type ImportLimits } from './modules/imports/imports.service.js';
 
 export type AppDeps = {
@@ -235,14 +236,16 @@ export function createApp(deps: AppDeps): Express {
   );
   api.use(bladeSpecsRouter());
   api.use(bladeStockRouter());
-  api.use(bladeRunsRouter());
+  const photoStorage = deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize);
+  api.use(bladeRunsRouter(photoStorage));
   api.use(stopsRouter());
   api.use(cutLogsRouter());
-  api.use(photosRouter(deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize)));
-  api.use(siteChecksRouter());
+  api.use(photosRouter(photoStorage));
+  api.use(siteChecksRouter(photoStorage));
   api.use(sawTimelineRouter());
   api.use(siteSummariesRouter());
   api.use(importsRouter(deps.importLimits ?? DEFAULT_IMPORT_LIMITS));
+  api.use(removedRecordsRouter(photoStorage));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -17,6 +17,7 @@ import { Photo } from '../modules/photos/photo.model.js';
 import { SiteCheck } from '../modules/site-checks/site-check.model.js';
 import { CheckRecord } from '../modules/site-checks/check-record.model.js';
 import { ImportBatch, ImportMapping } from '../modules/imports/import-batch.model.js';
+import { RemovedRecord } from '../modules/removed-records/removed-record.model.js';
 
 /** Binds every model to this Sequelize instance. Model names equal the CASL subject names. */
 export function initModels(sequelize: Sequelize): void {
@@ -43,6 +44,7 @@ export function initModels(sequelize: Sequelize): void {
   CheckRecord.initModel(sequelize);
   ImportBatch.initModel(sequelize);
   ImportMapping.initModel(sequelize);
+  RemovedRecord.initModel(sequelize);
 }
 
 let bound: Sequelize | undefined;

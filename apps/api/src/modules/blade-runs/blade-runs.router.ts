@@ -12,6 +12,8 @@ import {
 import { idSchema } from '@kerfline/domain/common/schema';
 import { abilityOf, actorOf } from '../../http/authenticate.js';
 import { parsed, validate } from '../../http/validate.js';
+import { removalOf, requireRemovalReason } from '../../http/removal-reason.js';
+import type { PhotoStorage } from '../photos/photo-storage.js';
 import {
   confirmCause,
   deleteBladeRun,
@@ -26,7 +28,8 @@ import {
 
 const params = z.object({ id: idSchema });
 
-export function bladeRunsRouter(): Router {
+/** `storage` keeps the photos of a run that is removed. */
+export function bladeRunsRouter(storage: PhotoStorage): Router {
   const router = Router();
   router.get('/blade-runs', validate('query', bladeRunListQuerySchema), async (_req, res) => {
     res.json(await listBladeRuns(abilityOf(res), parsed(res, 'query', bladeRunListQuerySchema)));
@@ -55,8 +58,8 @@ export function bladeRunsRouter(): Router {
       res.json(await updateBladeRun(actorOf(res), id, parsed(res, 'body', bladeRunUpdateSchema)));
     },
   );
-  router.delete('/blade-runs/:id', validate('params', params), async (_req, res) => {
-    await deleteBladeRun(actorOf(res), parsed(res, 'params', params).id);
+  router.delete('/blade-runs/:id', validate('params', params), requireRemovalReason(), async (_req, res) => {
+    await deleteBladeRun(storage, actorOf(res), parsed(res, 'params', params).id, removalOf(res));
     res.status(204).end();
   });
   router.get(

@@ -4,6 +4,7 @@ import { stopCreateSchema, stopEndSchema, stopListQuerySchema, stopUpdateSchema 
 import { idSchema } from '@kerfline/domain/common/schema';
 import { abilityOf, actorOf } from '../../http/authenticate.js';
 import { parsed, validate } from '../../http/validate.js';
+import { removalOf, requireRemovalReason } from '../../http/removal-reason.js';
 import { createStop, deleteStop, endStop, getStop, listStops, updateStop } from './stops.service.js';
 
 const params = z.object({ id: idSchema });
@@ -27,8 +28,8 @@ export function stopsRouter(): Router {
     const { id } = parsed(res, 'params', params);
     res.json(await updateStop(actorOf(res), id, parsed(res, 'body', stopUpdateSchema)));
   });
-  router.delete('/stops/:id', validate('params', params), async (_req, res) => {
-    await deleteStop(actorOf(res), parsed(res, 'params', params).id);
+  router.delete('/stops/:id', validate('params', params), requireRemovalReason(), async (_req, res) => {
+    await deleteStop(actorOf(res), parsed(res, 'params', params).id, removalOf(res));
     res.status(204).end();
   });
   return router;
