@@ -386,7 +386,15 @@ describe('who may see and write blade runs', () => {
       .send({ sawId, stock: { shape: { kind: 'square_bar', sideMm: 50 } }, materialGroup: 'carbon_steel' })
       .expect(201);
     expect((await tech.delete(`/api/blade-runs/${run.id}`).send({ reason: 'Entered by mistake' })).status).toBe(403);
-    expect((await (await as('siteadmin-a@test.example')).delete(`/api/blade-runs/${run.id}`).send({ reason: 'Entered by mistake' })).status).toBe(204);
+    expect(
+      (
+        await (
+          await as('siteadmin-a@test.example')
+        )
+          .delete(`/api/blade-runs/${run.id}`)
+          .send({ reason: 'Entered by mistake' })
+      ).status,
+    ).toBe(204);
     expect(await count('blade_runs')).toBe(0);
     expect(await count('cut_logs WHERE blade_run_id IS NULL')).toBe(1);
     expect(await count(`removed_records WHERE subject = 'BladeRun'`)).toBe(1);

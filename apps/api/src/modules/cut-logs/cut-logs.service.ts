@@ -128,7 +128,11 @@ export async function createCutLog({ ability, userId }: Actor, input: CutLogCrea
 }
 
 /** Removes a cut log entered by mistake to the kept records (it can be put back); site admins only. */
-export async function deleteCutLog({ ability, userId }: Actor, id: string, { reason }: RemoveRecordInput): Promise<void> {
+export async function deleteCutLog(
+  { ability, userId }: Actor,
+  id: string,
+  { reason }: RemoveRecordInput,
+): Promise<void> {
   const log = await findReadableLog(ability, id);
   ForbiddenError.from(ability)
     .setMessage('You cannot delete this cut log')

@@ -153,7 +153,15 @@ describe('attaching photos to a blade run', () => {
     const tech = await as('tech-a@test.example');
     const photo = (await tech.post(`/api/blade-runs/${runA}/photos`).attach('photo', await image('png'), 'a.png')).body;
     expect((await tech.delete(`/api/photos/${photo.id}`).send({ reason: 'Entered by mistake' })).status).toBe(403);
-    expect((await (await as('siteadmin-a@test.example')).delete(`/api/photos/${photo.id}`).send({ reason: 'Entered by mistake' })).status).toBe(204);
+    expect(
+      (
+        await (
+          await as('siteadmin-a@test.example')
+        )
+          .delete(`/api/photos/${photo.id}`)
+          .send({ reason: 'Entered by mistake' })
+      ).status,
+    ).toBe(204);
     expect(await count('photo_blobs')).toBe(0);
     expect(await count('removed_photo_blobs')).toBe(1);
     expect(await count(`audit_entries WHERE entity = 'Photo'`)).toBe(2);

@@ -77,7 +77,11 @@ export async function removeToKept(
   if (subject === 'BladeRun') {
     const ids = async (from: string) =>
       (
-        await select<{ id: string }>(`SELECT id FROM ${from} WHERE blade_run_id = :recordId ORDER BY id`, { recordId }, transaction)
+        await select<{ id: string }>(
+          `SELECT id FROM ${from} WHERE blade_run_id = :recordId ORDER BY id`,
+          { recordId },
+          transaction,
+        )
       ).map((r) => r.id);
     relinks.cutLogIds = await ids('cut_logs');
     relinks.checkRecordIds = await ids('check_records');

@@ -72,7 +72,8 @@ async function toDtos(records: RemovedRecord[]): Promise<RemovedRecordDto[]> {
   const names = await namesOf(records.map((r) => r.removedById));
   return records.map((r) => {
     const row = r.keptRow;
-    const endedAt = r.subject === 'BladeRun' ? str(row, 'removed_at') : r.subject === 'Stop' ? str(row, 'ended_at') : null;
+    const endedAt =
+      r.subject === 'BladeRun' ? str(row, 'removed_at') : r.subject === 'Stop' ? str(row, 'ended_at') : null;
     const related = r.get('relatedName');
     const tag = r.get('sawAssetTag');
     return {

@@ -55,7 +55,10 @@ async function runWithEverything() {
       .expect(201)
   ).body;
   const photo = (
-    await tech.post(`/api/blade-runs/${run.id}/photos`).field('caption', 'Teeth gone').attach('photo', await png(), 'a.png')
+    await tech
+      .post(`/api/blade-runs/${run.id}/photos`)
+      .field('caption', 'Teeth gone')
+      .attach('photo', await png(), 'a.png')
   ).body;
   await tech
     .post(`/api/blade-runs/${run.id}/remove`)
@@ -103,7 +106,13 @@ describe('removing a record keeps it, and putting it back restores it whole', ()
 
     const back = await siteAdmin.post(`/api/removed-records/${kept.id}/restore`).send({});
     expect(back.status).toBe(200);
-    expect(back.body).toEqual({ subject: 'BladeRun', recordId: run.id, siteId: world.sites.A.id, sawId, photoCount: 1 });
+    expect(back.body).toEqual({
+      subject: 'BladeRun',
+      recordId: run.id,
+      siteId: world.sites.A.id,
+      sawId,
+      photoCount: 1,
+    });
     const again = (await tech.get(`/api/blade-runs/${run.id}`)).body;
     expect(again).toMatchObject({
       id: run.id,
@@ -192,7 +201,9 @@ describe('removing a record keeps it, and putting it back restores it whole', ()
       await tech.post('/api/blade-runs').send({ sawId: saw, bladeSpecId: specId }).expect(201);
     const drawn = await restore();
     expect(drawn.status).toBe(409);
-    expect(drawn.body.error.message).toMatch(/Every blade of the delivery it was drawn from \(received 2026-01-05, 2 blades\)/);
+    expect(drawn.body.error.message).toMatch(
+      /Every blade of the delivery it was drawn from \(received 2026-01-05, 2 blades\)/,
+    );
     expect(await count(`removed_records`)).toBe(1);
   });
 
@@ -204,7 +215,12 @@ describe('removing a record keeps it, and putting it back restores it whole', ()
     const [keptRun, keptPhoto] = page;
     expect(keptRun.subject).toBe('BladeRun');
     expect(keptRun.photoCount).toBe(0);
-    expect(keptPhoto).toMatchObject({ subject: 'Photo', recordId: photo.id, sawId, what: 'Photo of a blade run: Teeth gone' });
+    expect(keptPhoto).toMatchObject({
+      subject: 'Photo',
+      recordId: photo.id,
+      sawId,
+      what: 'Photo of a blade run: Teeth gone',
+    });
     const early = await siteAdmin.post(`/api/removed-records/${keptPhoto.id}/restore`).send({});
     expect(early.status).toBe(409);
     expect(early.body.error.message).toMatch(/The blade run it belongs to was removed too .*; put that back first/);
@@ -223,7 +239,10 @@ describe('removing a record keeps it, and putting it back restores it whole', ()
       })
     ).body;
     expect(record.id).toBeDefined();
-    await tech.post(`/api/check-records/${record.id}/photos`).attach('photo', await png(), 'b.png').expect(201);
+    await tech
+      .post(`/api/check-records/${record.id}/photos`)
+      .attach('photo', await png(), 'b.png')
+      .expect(201);
     await siteAdmin.delete(`/api/check-records/${record.id}`).send(REASON).expect(204);
     expect((await tech.get(`/api/check-records/${record.id}`)).status).toBe(404);
     const keptCheck = (await siteAdmin.get('/api/removed-records?subject=CheckRecord')).body.items[0];
@@ -236,7 +255,8 @@ describe('removing a record keeps it, and putting it back restores it whole', ()
   it('gives one success and one 409 when two people put the same record back at once', async () => {
     const siteAdmin = await as('siteadmin-a@test.example');
     const admin = await as('admin@test.example');
-    const stop = (await siteAdmin.post('/api/stops').send({ sawId: world.saws.A![1]!.id, category: 'mechanical' })).body;
+    const stop = (await siteAdmin.post('/api/stops').send({ sawId: world.saws.A![1]!.id, category: 'mechanical' }))
+      .body;
     await siteAdmin.delete(`/api/stops/${stop.id}`).send(REASON).expect(204);
     const kept = (await siteAdmin.get('/api/removed-records')).body.items[0];
     const answers = await Promise.all([
@@ -277,7 +297,10 @@ describe('who sees and puts back removed records', () => {
       expect((await agent.post(`/api/removed-records/${keptA.id}/restore`).send({})).status, email).toBe(404);
     }
     expect(await count('stops')).toBe(0);
-    expect((await siteAdmin.get(`/api/removed-records/${keptA.id}`)).body).toMatchObject({ subject: 'Stop', what: 'Other' });
+    expect((await siteAdmin.get(`/api/removed-records/${keptA.id}`)).body).toMatchObject({
+      subject: 'Stop',
+      what: 'Other',
+    });
     expect((await admin.get('/api/removed-records?subject=Nothing')).status).toBe(400);
   });
 
@@ -290,7 +313,10 @@ describe('who sees and puts back removed records', () => {
           .post('/api/stops')
           .send({ sawId, startedAt: minutesAgo(n * 60), endedAt: minutesAgo(n * 60 - 10), category: 'other' })
       ).body;
-      await siteAdmin.delete(`/api/stops/${stop.id}`).send({ reason: `slip ${n}` }).expect(204);
+      await siteAdmin
+        .delete(`/api/stops/${stop.id}`)
+        .send({ reason: `slip ${n}` })
+        .expect(204);
     }
     const first = (await siteAdmin.get('/api/removed-records?limit=2')).body;
     expect(first).toMatchObject({ total: 3, limit: 2, offset: 0 });

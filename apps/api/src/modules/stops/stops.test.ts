@@ -230,8 +230,19 @@ describe('who may log and see stops', () => {
         .post('/api/stops')
         .send({ sawId: world.saws.A![0]!.id, category: 'other' })
     ).body;
-    expect((await (await as('tech-a@test.example')).delete(`/api/stops/${stop.id}`).send({ reason: 'Entered by mistake' })).status).toBe(403);
-    expect((await (await as('siteadmin-a@test.example')).delete(`/api/stops/${stop.id}`).send({ reason: 'Entered by mistake' })).status).toBe(204);
+    expect(
+      (await (await as('tech-a@test.example')).delete(`/api/stops/${stop.id}`).send({ reason: 'Entered by mistake' }))
+        .status,
+    ).toBe(403);
+    expect(
+      (
+        await (
+          await as('siteadmin-a@test.example')
+        )
+          .delete(`/api/stops/${stop.id}`)
+          .send({ reason: 'Entered by mistake' })
+      ).status,
+    ).toBe(204);
     expect(await count('stops')).toBe(0);
     expect(await count(`removed_records WHERE subject = 'Stop' AND reason = 'Entered by mistake'`)).toBe(1);
     expect(await count(`audit_entries WHERE entity = 'Stop' AND action = 'delete'`)).toBe(1);
