@@ -19,6 +19,8 @@ export const HISTORY_ENTITIES: Record<string, string> = {
   StockLevel: 'Stock levels',
   CutLog: 'Cut log',
   Photo: 'Photo',
+  CheckRecord: 'Recorded check',
+  RemovedRecord: 'Removed entry',
   SiteSetting: 'Site setting',
   Saw: 'Saw',
   Site: 'Site',
@@ -52,15 +54,17 @@ export function siteHistoryPageLoader(queryClient: QueryClient) {
 function entityLabel(entry: AuditEntry) {
   const name = HISTORY_ENTITIES[entry.entity] ?? entry.entity;
   const href =
-    entry.action === 'delete'
-      ? null
-      : entry.entity === 'BladeRun'
-        ? `/blade-runs/${entry.entityId}`
-        : entry.entity === 'Stop'
-          ? `/stops/${entry.entityId}`
-          : entry.entity === 'Saw'
-            ? `/saws/${entry.entityId}`
-            : null;
+    entry.entity === 'RemovedRecord' && entry.action === 'create'
+      ? `/sites/${entry.siteId}/removed`
+      : entry.action === 'delete'
+        ? null
+        : entry.entity === 'BladeRun'
+          ? `/blade-runs/${entry.entityId}`
+          : entry.entity === 'Stop'
+            ? `/stops/${entry.entityId}`
+            : entry.entity === 'Saw'
+              ? `/saws/${entry.entityId}`
+              : null;
   return href ? (
     <Link to={href} className="underline decoration-accent decoration-2 underline-offset-4">
       {name}
