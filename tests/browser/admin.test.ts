@@ -95,8 +95,11 @@ describe('an administrator sets up a new plant', () => {
     await page.getByLabel('E-mail').fill(techEmail);
     await page.getByLabel('Password').fill(techPassword);
     await page.getByRole('button', { name: /sign in/i }).click();
-    // One site: the new technician lands on it.
-    await page.waitForURL((url) => url.pathname === siteUrl);
+    // One site: the new technician starts from its day's work, which has no saws yet.
+    await page.waitForURL('**/today');
+    await expect.poll(() => page.getByText(siteName, { exact: true }).count()).toBeGreaterThan(0);
+    await expect.poll(() => page.getByText('No saw is running.').count()).toBe(1);
+    await page.goto(siteUrl);
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe(siteName);
     await expect.poll(() => page.getByText('No saws are recorded at this site yet.').count()).toBe(1);
     expect(await page.getByRole('link', { name: /add saw/i }).count()).toBe(0);
@@ -117,7 +120,7 @@ describe('an administrator sets up a new plant', () => {
     await page.getByLabel('E-mail').fill(techEmail);
     await page.getByLabel('Password').fill('my-own-secret-2026');
     await page.getByRole('button', { name: /sign in/i }).click();
-    await page.waitForURL((url) => url.pathname === siteUrl);
+    await page.waitForURL('**/today');
     await context.close();
   });
 });

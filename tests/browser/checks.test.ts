@@ -44,7 +44,7 @@ describe('maintenance checks on the shop floor', () => {
       .click();
     await page.getByRole('link', { name: 'HAM-S02', exact: true }).first().click();
     await expect.poll(() => page.getByRole('heading', { level: 1, name: /HAM-S02/ }).count()).toBe(1);
-    // The state card says whether checks are due on this saw.
+    // The state card says whether checks are due on this saw (the list below it shows only when some are).
     const state = page.getByRole('region', { name: 'State of HAM-S02' });
     await expect.poll(async () => /check/i.test(await textOf(state))).toBe(true);
     await shot(page, 'checks-saw-phone');

@@ -38,8 +38,9 @@ describe('the foundation, as people use it', () => {
     await page.keyboard.press('Tab');
     await page.keyboard.type(DEMO.password);
     await page.keyboard.press('Enter');
-    await page.waitForURL('**/sites');
-    await page.getByRole('heading', { level: 1, name: 'Sites' }).waitFor();
+    // A manager starts from the fleet overview.
+    await page.waitForURL('**/fleet');
+    await page.getByRole('heading', { level: 1, name: 'Fleet overview' }).waitFor();
     // The first Tab on a signed-in page offers the skip link, which lands on the main content.
     await page.keyboard.press('Tab');
     expect(await page.evaluate(() => document.activeElement?.textContent)).toContain('Skip to content');
@@ -51,7 +52,8 @@ describe('the foundation, as people use it', () => {
   it('lets a manager see every site, open one and open a saw', async () => {
     const { context, page } = await newPage(browser, DESKTOP);
     await signIn(page, DEMO.manager);
-    await page.waitForURL('**/sites');
+    await page.waitForURL('**/fleet');
+    await page.goto('/sites');
     await expect.poll(() => page.getByText('Hammerfield Service Centre').count()).toBeGreaterThan(0);
     for (const name of [
       'Riverbend Tube Works',
@@ -112,11 +114,11 @@ describe('the foundation, as people use it', () => {
   it('shows a technician only their site, on a phone', async () => {
     const { context, page } = await newPage(browser, PHONE);
     await signIn(page, DEMO.technician);
-    // One site: the technician lands on it, with its saws one tap away.
-    await page.waitForURL('**/sites/*');
-    await expect
-      .poll(() => page.getByRole('heading', { level: 1 }).textContent())
-      .toContain('Hammerfield Service Centre');
+    // One site: the technician starts from its day's work, with its saws one tap away.
+    await page.waitForURL('**/today');
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Today');
+    await expect.poll(() => page.getByText('Hammerfield Service Centre').count()).toBeGreaterThan(0);
+    expect(await page.getByRole('link', { name: /HAM-S0/ }).count()).toBeGreaterThan(0);
     await shot(page, 'technician-home-phone');
     await page.goto('/sites');
     await expect.poll(() => page.getByText('Hammerfield Service Centre').count()).toBeGreaterThan(0);

@@ -48,10 +48,12 @@ describe('a site admin brings a new technician in by e-mail', () => {
     await tech.page.getByLabel('Choose a password').fill(password);
     await shot(tech.page, 'technician-accept-invitation-phone');
     await tech.page.getByRole('button', { name: 'Set up my account' }).click();
-    await tech.page.waitForURL((url) => /^\/sites\/[0-9a-f-]{36}$/.test(url.pathname));
+    // In at once, on the start screen of their site's day.
+    await tech.page.waitForURL('**/today');
+    await expect.poll(() => tech.page.getByRole('heading', { level: 1 }).textContent()).toBe('Today');
     await expect
-      .poll(() => tech.page.getByRole('heading', { level: 1 }).textContent())
-      .toBe('Hammerfield Service Centre');
+      .poll(() => tech.page.getByText('Hammerfield Service Centre', { exact: true }).count())
+      .toBeGreaterThan(0);
     await shot(tech.page, 'technician-first-sign-in-phone');
 
     // The link works once.
@@ -68,7 +70,7 @@ describe('a site admin brings a new technician in by e-mail', () => {
     await tech.page.getByLabel('E-mail').fill(email);
     await tech.page.getByLabel('Password').fill(password);
     await tech.page.getByRole('button', { name: /sign in/i }).click();
-    await tech.page.waitForURL((url) => /^\/sites\//.test(url.pathname));
+    await tech.page.waitForURL('**/today');
 
     // The invitation now reads as accepted on the site admin's list.
     await admin.page.goto('/people?invitations=accepted');

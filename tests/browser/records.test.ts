@@ -101,6 +101,22 @@ describe('a technician’s shift on a phone', () => {
     expect(await textOf(page.getByRole('region', { name: 'Taken off' }))).toContain(firstCause);
     await shot(page, 'records-blade-run-phone');
 
+    // A cut on the new blade: the answer gives the area and the teeth in the work, and any warning.
+    await page.goto(sawPath);
+    await page.getByRole('link', { name: 'Log a cut' }).click();
+    await page.waitForURL(`**${sawPath}/cut-logs/new`);
+    expect(await page.getByLabel('Material').inputValue()).toBe('carbon_steel');
+    await page.getByRole('textbox', { name: /Diameter/ }).fill('4');
+    await page.getByRole('textbox', { name: /Band speed/ }).fill('180');
+    await page.getByRole('button', { name: 'Log the cut' }).click();
+    const answer = page.getByRole('region', { name: /Logged: 1 × 4 in round bar/ });
+    await expect.poll(() => answer.count()).toBe(1);
+    // A 4 in round bar's face is π·4²/4 = 12.57 in² (geometry).
+    expect(await textOf(answer)).toContain('12.57 in²');
+    expect(await textOf(answer)).toMatch(/Teeth in the work\s+\d/);
+    await fitsWidth(page);
+    await shot(page, 'records-cut-log-phone');
+
     // Log a stop, then a second one over it: the server's refusal is shown in words, naming the other stop.
     await page.goto(sawPath);
     await page.getByRole('link', { name: 'Log a stop' }).click();

@@ -72,6 +72,12 @@ describe('a site admin keeps the site’s own settings', () => {
   it('shows a technician the settings without a way to change them or their history', async () => {
     const { context, page } = await newPage(browser, PHONE);
     await signIn(page, DEMO.technician);
+    await page.waitForURL('**/today');
+    await page.goto('/sites');
+    await page
+      .getByRole('link', { name: /Hammerfield Service Centre/ })
+      .first()
+      .click();
     await page.waitForURL('**/sites/*');
     await page.getByRole('link', { name: 'Site settings' }).click();
     await expect.poll(() => page.getByRole('heading', { level: 1, name: 'Site settings' }).count()).toBe(1);
@@ -86,7 +92,8 @@ describe('from a saw to its figures, on a phone', () => {
   it('opens the check targets for the band on the saw, in inches, with the answer above the cautions', async () => {
     const { context, page } = await newPage(browser, PHONE);
     await signIn(page, DEMO.technician);
-    await page.waitForURL('**/sites/*');
+    // From the technician's start screen, where every saw in service is one tap away.
+    await page.waitForURL('**/today');
     // The offcut saw: a 1 x .035 band, its head fed by gravity against a spring.
     await page
       .getByRole('link', { name: /HAM-S05/ })

@@ -36,6 +36,7 @@ import { QUEUES, type Jobs } from './jobs/jobs.js';
 import { bladeSpecsRouter } from './modules/blade-specs/blade-specs.router.js';
 import { bladeStockRouter } from './modules/blade-stock/blade-stock.router.js';
 import { bladeRunsRouter } from './modules/blade-runs/blade-runs.router.js';
+import { noticeIfBelowReorderPoint } from './jobs/low-stock.js';
 import { stopsRouter } from './modules/stops/stops.router.js';
 import { cutLogsRouter } from './modules/cut-logs/cut-logs.router.js';
 import { photosRouter } from './modules/photos/photos.router.js';
@@ -46,6 +47,11 @@ import { DatabasePhotoStorage, type PhotoStorage } from './modules/photos/photo-
 import { importsRouter } from './modules/imports/imports.router.js';
 import { removedRecordsRouter } from './modules/removed-records/removed-records.router.js';
 import { DEFAULT_IMPORT_LIMITS, type ImportLimits } from './modules/imports/imports.service.js';
+import { fleetRouter } from './modules/fleet/fleet.router.js';
+import { exchangeRatesRouter } from './modules/exchange-rates/exchange-rates.router.js';
+import { budgetsRouter } from './modules/budgets/budgets.router.js';
+import { outliersRouter } from './modules/outliers/outliers.router.js';
+import { followUpsRouter } from './modules/follow-ups/follow-ups.router.js';
 
 export type AppDeps = {
   sequelize: Sequelize;
@@ -237,7 +243,11 @@ export function createApp(deps: AppDeps): Express {
   api.use(bladeSpecsRouter());
   api.use(bladeStockRouter());
   const photoStorage = deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize);
-  api.use(bladeRunsRouter(photoStorage));
+  api.use(
+    bladeRunsRouter(photoStorage, (actor, siteId, specId) =>
+      noticeIfBelowReorderPoint(deps.jobs, actor.ability, siteId, specId),
+    ),
+  );
   api.use(stopsRouter());
   api.use(cutLogsRouter());
   api.use(photosRouter(photoStorage));
@@ -245,6 +255,11 @@ export function createApp(deps: AppDeps): Express {
   api.use(sawTimelineRouter());
   api.use(siteSummariesRouter());
   api.use(importsRouter(deps.importLimits ?? DEFAULT_IMPORT_LIMITS));
+  api.use(fleetRouter());
+  api.use(exchangeRatesRouter());
+  api.use(budgetsRouter());
+  api.use(outliersRouter());
+  api.use(followUpsRouter());
   api.use(removedRecordsRouter(photoStorage));
   api.use(notFoundHandler);
   app.use('/api', api);

@@ -2,9 +2,10 @@ import '@testing-library/jest-dom/vitest';
 import { cleanup, configure } from '@testing-library/react';
 import { afterEach, vi } from 'vitest';
 
-// Routes load lazily and the machine that runs CI may be busy: give findBy* and waitFor up to 5 s (the default is
-// 1 s) before a missing element counts as missing.
-configure({ asyncUtilTimeout: 5000 });
+// Routes load lazily and the machine that runs CI may be busy: give findBy* and waitFor up to 10 s (the default is
+// 1 s) before a missing element counts as missing: on a loaded two-core machine a lazy page's first render can take
+// several seconds.
+configure({ asyncUtilTimeout: 10_000 });
 
 // vitest runs without globals, so Testing Library cannot register its own cleanup: unmount after every test,
 // and take away any fake network a test installed.
@@ -12,7 +13,3 @@ afterEach(() => {
   cleanup();
   vi.unstubAllGlobals();
 });
-
-// Pages load their code and data lazily; on a busy two-core machine the first render of a page can take longer
-// than Testing Library's default second. Three seconds keeps the tests about behaviour, not the machine's load.
-configure({ asyncUtilTimeout: 3000 });

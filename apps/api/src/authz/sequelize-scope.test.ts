@@ -20,11 +20,15 @@ import { BladeRun } from '../modules/blade-runs/blade-run.model.js';
 import { Stop } from '../modules/stops/stop.model.js';
 import { CutLog } from '../modules/cut-logs/cut-log.model.js';
 import { Photo } from '../modules/photos/photo.model.js';
+import { Budget } from '../modules/budgets/budget.model.js';
+import { FollowUp } from '../modules/follow-ups/follow-up.model.js';
+import { ExchangeRate } from '../modules/exchange-rates/exchange-rate.model.js';
+import { QueryTypes } from 'sequelize';
 import { SiteCheck } from '../modules/site-checks/site-check.model.js';
 import { CheckRecord } from '../modules/site-checks/check-record.model.js';
 import { ImportBatch, ImportMapping } from '../modules/imports/import-batch.model.js';
 import { RemovedRecord } from '../modules/removed-records/removed-record.model.js';
-import { scopeWhere } from './sequelize-scope.js';
+import { SqlParams, scopeSql, scopeWhere } from './sequelize-scope.js';
 
 let ctx: TestContext;
 let world: World;
@@ -114,6 +118,35 @@ beforeAll(async () => {
       removedById: world.users.admin.id,
     })),
   );
+  // Budgets and follow-ups at sites A and C; exchange rates belong to no site.
+  for (const [code, assignee] of [
+    ['A', world.users.techA],
+    ['C', world.users.techC],
+  ] as const) {
+    await Budget.create({
+      siteId: world.sites[code].id,
+      month: '2026-11-01',
+      amountMinor: 100_000,
+      currency: 'EUR',
+      setById: world.users.admin.id,
+    });
+    await FollowUp.create({
+      siteId: world.sites[code].id,
+      sawId: world.saws[code]![0]!.id,
+      title: `Look at ${code}-1`,
+      flag: null,
+      assigneeId: assignee.id,
+      dueOn: '2026-12-20',
+      createdById: world.users.admin.id,
+    });
+  }
+  await ExchangeRate.create({
+    month: '2026-11-01',
+    currency: 'USD',
+    reportingCurrency: 'EUR',
+    rate: 0.92,
+    setById: null,
+  });
 });
 afterAll(async () => ctx.close());
 
@@ -133,6 +166,9 @@ const MODELS: Record<SubjectName, ModelStatic<Model>> = {
   Stop,
   CutLog,
   Photo,
+  Budget,
+  FollowUp,
+  ExchangeRate,
   SiteCheck,
   CheckRecord,
   ImportBatch,
@@ -154,6 +190,26 @@ async function mismatches(ability: AppAbility, action: (typeof ACTIONS)[number],
     .map((row) => `${type} ${row.id}`);
 }
 
+/** The same check for the SQL rendering used by the aggregate queries (`scopeSql`, bound parameters). */
+async function sqlMismatches(
+  ability: AppAbility,
+  action: (typeof ACTIONS)[number],
+  type: SubjectName,
+): Promise<string[]> {
+  const model = MODELS[type];
+  const all = (await model.findAll()).map((m) => m.get({ plain: true }) as { id: string });
+  const params = new SqlParams();
+  const condition = scopeSql(ability, action, type, model, 't', params);
+  const rows = await ctx.sequelize.query<{ id: string }>(
+    `SELECT t.id FROM ${model.getTableName() as string} t WHERE ${condition}`,
+    { bind: params.values, type: QueryTypes.SELECT },
+  );
+  const scoped = new Set(rows.map((r) => r.id));
+  return all
+    .filter((row) => ability.can(action, subject(type, row) as Parameters<AppAbility['can']>[1]) !== scoped.has(row.id))
+    .map((row) => `${type} ${row.id}`);
+}
+
 describe('CASL rules → SQL where', () => {
   it('returns exactly the rows the ability allows, for every role, action and subject (rows with NULLs included)', async () => {
     let checks = 0;
@@ -162,6 +218,7 @@ describe('CASL rules → SQL where', () => {
       for (const action of ACTIONS) {
         for (const type of Object.keys(MODELS) as SubjectName[]) {
           expect(await mismatches(signedIn.ability, action, type), `${name} ${action} ${type}`).toEqual([]);
+          expect(await sqlMismatches(signedIn.ability, action, type), `SQL: ${name} ${action} ${type}`).toEqual([]);
           checks += 1;
         }
       }
@@ -192,6 +249,7 @@ describe('CASL rules → SQL where', () => {
           rules.map((r) => ({ action: 'read', subject: 'Saw', ...r })) as AppRawRule[],
         ) as AppAbility;
         expect(await mismatches(ability, 'read', 'Saw')).toEqual([]);
+        expect(await sqlMismatches(ability, 'read', 'Saw')).toEqual([]);
       }),
       { numRuns: 60 },
     );
@@ -200,6 +258,18 @@ describe('CASL rules → SQL where', () => {
   it('returns no rows when no rule grants the action', async () => {
     const ability = createMongoAbility([{ action: 'update', subject: 'Saw' }]) as AppAbility;
     expect(await Saw.count({ where: scopeWhere(ability, 'read', 'Saw', Saw) })).toBe(0);
+    expect(scopeSql(ability, 'read', 'Saw', Saw, 't', new SqlParams())).toBe('FALSE');
+  });
+
+  it('binds every rule value as a parameter and refuses an unsafe alias', () => {
+    const ability = createMongoAbility([
+      { action: 'read', subject: 'Saw', conditions: { siteId: { $in: ["x'); DROP TABLE saws; --"] } } },
+    ]) as AppAbility;
+    const params = new SqlParams();
+    const sql = scopeSql(ability, 'read', 'Saw', Saw, 'w', params);
+    expect(sql).toBe('(w."site_id" IS NOT NULL AND w."site_id" IN ($1))');
+    expect(params.values).toEqual(["x'); DROP TABLE saws; --"]);
+    expect(() => scopeSql(ability, 'read', 'Saw', Saw, 'w; DROP', new SqlParams())).toThrow(/Unsafe table alias/);
   });
 
   it('refuses operators and fields it cannot translate, instead of leaking rows', () => {
@@ -211,5 +281,7 @@ describe('CASL rules → SQL where', () => {
       { action: 'read', subject: 'Saw', conditions: { regionId: 'x' } },
     ]) as AppAbility;
     expect(() => scopeWhere(unknown, 'read', 'Saw', Saw)).toThrow(/not a column/);
+    expect(() => scopeSql(gt, 'read', 'Saw', Saw, 't', new SqlParams())).toThrow(/Unsupported CASL operator 'gt'/);
+    expect(() => scopeSql(unknown, 'read', 'Saw', Saw, 't', new SqlParams())).toThrow(/not a column/);
   });
 });

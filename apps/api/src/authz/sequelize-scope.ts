@@ -107,3 +107,93 @@ export function scopedWhere(
 ): WhereOptions {
   return { [Op.and]: [scopeWhere(ability, action, subject, model), filter] };
 }
+
+/**
+ * Bound parameters for a hand-written SQL statement: `add(value)` returns its placeholder (`$1`, `$2`, …) and
+ * `values` goes to `sequelize.query(sql, { bind: values })`, so no value is ever spliced into the SQL text.
+ */
+export class SqlParams {
+  readonly values: unknown[] = [];
+  add(value: unknown): string {
+    this.values.push(value);
+    return `$${this.values.length}`;
+  }
+}
+
+/**
+ * The same CASL rules as `scopeWhere`, rendered as a SQL condition on the table aliased `alias`, with every value
+ * bound through `params`: for the aggregate queries that Sequelize's finders cannot express (GROUP BY over
+ * joins, LATERAL, percentiles). It walks the same AST with the same rules: `null` → FALSE, an empty `and` → TRUE,
+ * each leaf never SQL NULL so `NOT` stays correct, and anything but `$eq`, `$ne`, `$in`, `$nin` on the model's
+ * own columns throws. The parity test checks it row by row against `ability.can`, like `scopeWhere`.
+ */
+export function scopeSql(
+  ability: AppAbility,
+  action: Action,
+  subject: SubjectName,
+  model: ModelStatic<Model>,
+  alias: string,
+  params: SqlParams,
+): string {
+  if (!/^[a-z_][a-z0-9_]*$/.test(alias)) throw new Error(`Unsafe table alias '${alias}'`);
+  const ast = rulesToAST(ability, action, subject) as AstNode | null;
+  if (ast === null) return 'FALSE';
+  const columns = new Map(Object.entries(model.getAttributes()).map(([name, attr]) => [name, attr.field ?? name]));
+  return toSql(ast, columns, subject, alias, params);
+}
+
+function toSql(node: AstNode, columns: Map<string, string>, subject: string, alias: string, params: SqlParams): string {
+  if (node.field === undefined) {
+    const children = node.value as AstNode[];
+    switch (node.operator) {
+      case 'and':
+        return children.length === 0
+          ? 'TRUE'
+          : `(${children.map((c) => toSql(c, columns, subject, alias, params)).join(' AND ')})`;
+      case 'or':
+        return children.length === 0
+          ? 'FALSE'
+          : `(${children.map((c) => toSql(c, columns, subject, alias, params)).join(' OR ')})`;
+      case 'not': {
+        const [only] = children.length === undefined ? [node.value as AstNode] : children;
+        if (!only) throw new Error(`CASL 'not' without a condition on ${subject}`);
+        return `(NOT ${toSql(only, columns, subject, alias, params)})`;
+      }
+      default:
+        throw new Error(`Unsupported CASL compound operator '${node.operator}' on ${subject}`);
+    }
+  }
+  const column = columns.get(node.field);
+  if (column === undefined)
+    throw new Error(`CASL rule on ${subject} uses '${node.field}', which is not a column of the model`);
+  const col = `${alias}."${column}"`;
+  const equalsSql = (value: unknown) => {
+    assertScalar(value, node.field!);
+    if (value === null || value === undefined) return `(${col} IS NULL)`;
+    return `(${col} IS NOT NULL AND ${col} = ${params.add(value)})`;
+  };
+  const inSql = (values: unknown[]) => {
+    values.forEach((v) => assertScalar(v, node.field!));
+    const present = values.filter((v) => v !== null && v !== undefined);
+    const parts: string[] = [];
+    if (present.length > 0)
+      parts.push(`(${col} IS NOT NULL AND ${col} IN (${present.map((v) => params.add(v)).join(', ')}))`);
+    if (present.length < values.length) parts.push(`(${col} IS NULL)`);
+    if (parts.length === 0) return 'FALSE';
+    return parts.length === 1 ? parts[0]! : `(${parts.join(' OR ')})`;
+  };
+  switch (node.operator) {
+    case 'eq':
+      return equalsSql(node.value);
+    case 'ne':
+      return `(NOT ${equalsSql(node.value)})`;
+    case 'in':
+      return inSql(asList(node.value, subject));
+    case 'nin':
+      return `(NOT ${inSql(asList(node.value, subject))})`;
+    default:
+      throw new Error(
+        `Unsupported CASL operator '${node.operator}' on ${subject}.${node.field}; use $eq, $ne, $in or $nin`,
+      );
+  }
+}

@@ -18,6 +18,9 @@ import { listBladeRuns } from '../modules/blade-runs/blade-runs.service.js';
 import { listStops } from '../modules/stops/stops.service.js';
 import { listSaws } from '../modules/saws/saws.service.js';
 import { getSiteStock } from '../modules/blade-stock/blade-stock.service.js';
+import { listSiteSummaries } from '../modules/site-summaries/site-summaries.service.js';
+import { getSawTimeline } from '../modules/saw-timeline/saw-timeline.service.js';
+import { sawTimelineQuerySchema } from '@kerfline/domain/saw-timeline/schema';
 
 const env = loadEnv({ SESSION_SECRET: 'benchmark-not-a-real-secret', PGDATABASE: 'kerfline_bench', ...process.env });
 if (!env.PGDATABASE.endsWith('_bench'))
@@ -137,4 +140,24 @@ await time('manager: saws of every site with down and blade on, 100', () =>
 );
 await time('manager: saws down now', () => listSaws(manager, sawListQuerySchema.parse({ status: 'down' })));
 await time('technician: the site’s blade stock', () => getSiteStock(technician, site.id, { windowDays: 90 }));
+await time('manager: tiles of every site (saws down, stock left)', () =>
+  listSiteSummaries(manager, { includeRetired: false }),
+);
+const [busySaw] = (await sequelize.query(
+  'SELECT saw_id AS id FROM blade_runs WHERE site_id = :siteId GROUP BY saw_id ORDER BY count(*) DESC LIMIT 1',
+  { type: 'SELECT', replacements: { siteId: site.id } },
+)) as { id: string }[];
+await time('technician: a saw’s timeline, first page of 15', () =>
+  getSawTimeline(technician, busySaw!.id, sawTimelineQuerySchema.parse({ limit: 15 })),
+);
+await time('technician: a saw’s timeline, a page four years back', () =>
+  getSawTimeline(
+    technician,
+    busySaw!.id,
+    sawTimelineQuerySchema.parse({
+      limit: 15,
+      before: `${new Date(Date.now() - 4 * 365 * 86_400_000).toISOString()}_ffffffff-ffff-4fff-bfff-ffffffffffff`,
+    }),
+  ),
+);
 await sequelize.close();

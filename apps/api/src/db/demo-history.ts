@@ -173,9 +173,9 @@ const JOBS: Record<string, Job[]> = {
     },
   ],
   'CV-RTM': [
-    { material: 'alloy_steel', shape: round(40, 220), weight: 4 },
+    { material: 'alloy_steel', shape: round(40, 220), weight: 3 },
     { material: 'tool_steel', shape: round(30, 160), weight: 2 },
-    { material: 'carbon_steel', shape: round(30, 250), weight: 4 },
+    { material: 'carbon_steel', shape: round(30, 250), weight: 5 },
   ],
   'CV-HOU': [
     {

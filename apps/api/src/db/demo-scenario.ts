@@ -10,6 +10,7 @@ import { User, UserSite } from '../modules/users/user.model.js';
 import { Saw } from '../modules/saws/saw.model.js';
 import { SiteSetting } from '../modules/site-settings/site-setting.model.js';
 import { AuditEntry } from '../modules/audit/audit-entry.model.js';
+import { loadDemoFleet } from './demo-fleet.js';
 import { loadDemoHistory } from './demo-history.js';
 import { loadDemoChecks } from './demo-checks.js';
 import { seedSiteChecks } from '../modules/site-checks/seed-site-checks.js';
@@ -421,6 +422,7 @@ export async function loadDemoScenario(sequelize: Sequelize): Promise<boolean> {
 
     await loadDemoHistory(sequelize, transaction);
     await loadDemoChecks(sequelize, transaction);
+    await loadDemoFleet(sequelize, transaction);
   });
   return true;
 }

@@ -191,7 +191,12 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const { error, internal, status } = toAppError(err);
   const requestId = typeof req.id === 'string' ? req.id : String(req.id ?? '');
   if (internal) req.log?.error({ err }, 'request failed');
-  if (res.headersSent) return;
+  // A streamed answer (a CSV export) that fails half way: cut the connection, so the download shows as broken
+  // instead of ending like a complete file.
+  if (res.headersSent) {
+    res.destroy();
+    return;
+  }
   res.status(status ?? HTTP_STATUS_BY_CODE[error.code]).json(errorBody(error, requestId));
 };
 

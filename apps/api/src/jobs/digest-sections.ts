@@ -7,6 +7,13 @@ import { HAS_OPEN_STOP_SQL, OPEN_STOP_SQL, Saw } from '../modules/saws/saw.model
 import { appLink, type MailSection } from '../mail/templates.js';
 import { subject } from '@casl/ability';
 import { countsBySite, pendingPage } from '../modules/site-checks/check-status.js';
+import {
+  lowStockSection,
+  newOutlierFlagsSection,
+  openFollowUpsSection,
+  spendAgainstBudgetSection,
+  topFailureReasonsSection,
+} from './fleet-sections.js';
 
 /**
  * What a section of a scheduled mail is built from. `signedIn` is the RECIPIENT's own identity and ability:
@@ -167,21 +174,24 @@ export const overdueChecksSection: SectionBuilder = {
 };
 
 /**
- * The weekly digest to each regional lead, section by section. EXTENSION POINT: the features that add new
- * outlier flags, overdue maintenance checks, open follow-up actions and the week's top failure reasons append
- * their builders here (each scoped through `ctx.signedIn.ability`, as above).
+ * The weekly digest to each regional lead, section by section: the region's sites and saws down, overdue checks,
+ * the saws newly flagged against their peers, open follow-ups and the week's top failure reasons
+ * (`fleet-sections.ts`). Each is scoped through `ctx.signedIn.ability`, as above.
  */
-export const weeklyDigestSections: SectionBuilder[] = [sitesSection, sawsDownSection, overdueChecksSection];
+export const weeklyDigestSections: SectionBuilder[] = [
+  sitesSection,
+  sawsDownSection,
+  overdueChecksSection,
+  newOutlierFlagsSection,
+  openFollowUpsSection,
+  topFailureReasonsSection,
+];
+
+/** The monthly summary to each manager: their sites, and the month's blade spend against budget per site. */
+export const monthlySummarySections: SectionBuilder[] = [sitesSection, spendAgainstBudgetSection];
 
 /**
- * The monthly summary to each manager. EXTENSION POINT: blade spend against budget per site (and cost per
- * area cut, downtime and availability for the month) is added by the feature that adds budgets and spend.
+ * The low-stock notice to a site's admins: the blade specs at or below their reorder point. With nothing below
+ * it, a queued notice is recorded as skipped rather than sent empty.
  */
-export const monthlySummarySections: SectionBuilder[] = [sitesSection];
-
-/**
- * The low-stock notice to a site's admins. EXTENSION POINT: the blade-stock feature adds the section listing
- * the blade specs below their reorder point (with days of stock left). Until then no notice has anything to
- * say, and a queued one is recorded as skipped rather than sent empty.
- */
-export const lowStockSections: SectionBuilder[] = [];
+export const lowStockSections: SectionBuilder[] = [lowStockSection];

@@ -28,12 +28,15 @@ export function safeNextPath(next: string | null): string {
 }
 
 /**
- * The first page after sign-in: a technician starts from the day's work at their site (saws down, blades on
- * saws, with the actions one tap away); a site admin from their site; everyone else from the list of sites.
+ * The first page after sign-in: operations managers start from the fleet overview and regional leads from the
+ * saws that need a look; a technician starts from the day's work at their site (saws down, blades on saws, with
+ * the actions one tap away); a site admin from their site; everyone else from the list of sites.
  */
 export function homeLoader(queryClient: QueryClient) {
   return async () => {
     const me = await queryClient.ensureQueryData(meQuery());
+    if (me.user.role === 'manager') return redirect('/fleet');
+    if (me.user.role === 'regional_lead') return redirect('/outliers');
     const [only, ...others] = me.siteIds;
     if (me.user.role === 'technician' && only) return redirect('/today');
     return redirect(only && others.length === 0 ? `/sites/${only}` : '/sites');

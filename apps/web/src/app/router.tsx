@@ -354,6 +354,83 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
                 },
               ],
             },
+            {
+              path: 'fleet',
+              lazy: async () => {
+                const page = await import('./routes/fleet/overview-page');
+                return { loader: page.overviewLoader(queryClient), Component: page.OverviewPage };
+              },
+            },
+            {
+              path: 'fleet/practice',
+              lazy: async () => {
+                const page = await import('./routes/fleet/practice-page');
+                return { loader: page.practiceLoader(queryClient), Component: page.PracticePage };
+              },
+            },
+            {
+              path: 'fleet/sites/:siteId',
+              lazy: async () => {
+                const page = await import('./routes/fleet/site-figures-page');
+                return { loader: page.siteFiguresLoader(queryClient), Component: page.SiteFiguresPage };
+              },
+            },
+            {
+              path: 'fleet/saws/:sawId',
+              lazy: async () => {
+                const page = await import('./routes/fleet/saw-figures-page');
+                return { loader: page.sawFiguresLoader(queryClient), Component: page.SawFiguresPage };
+              },
+            },
+            {
+              path: 'fleet/runs/:runId',
+              lazy: async () => {
+                const page = await import('./routes/fleet/run-page');
+                return { loader: page.runPageLoader(queryClient), Component: page.RunPage };
+              },
+            },
+            {
+              path: 'outliers',
+              lazy: async () => {
+                const page = await import('./routes/outliers/outliers-page');
+                return { loader: page.outliersLoader(queryClient), Component: page.OutliersPage };
+              },
+            },
+            {
+              path: 'outliers/saws/:sawId',
+              lazy: async () => {
+                const page = await import('./routes/outliers/saw-outlier-page');
+                return { loader: page.sawOutlierLoader(queryClient), Component: page.SawOutlierPage };
+              },
+            },
+            {
+              path: 'follow-ups',
+              lazy: async () => {
+                const page = await import('./routes/follow-ups/follow-ups-page');
+                return { loader: page.followUpsLoader(queryClient), Component: page.FollowUpsPage };
+              },
+            },
+            {
+              path: 'follow-ups/:followUpId',
+              lazy: async () => {
+                const page = await import('./routes/follow-ups/follow-up-page');
+                return { loader: page.followUpLoader(queryClient), Component: page.FollowUpPage };
+              },
+            },
+            {
+              path: 'budgets',
+              lazy: async () => {
+                const page = await import('./routes/money/budgets-page');
+                return { loader: page.budgetsLoader(queryClient), Component: page.BudgetsPage };
+              },
+            },
+            {
+              path: 'exchange-rates',
+              lazy: async () => {
+                const page = await import('./routes/money/exchange-rates-page');
+                return { loader: page.exchangeRatesLoader(queryClient), Component: page.ExchangeRatesPage };
+              },
+            },
             { path: '*', element: <NotFoundPage /> },
           ],
         },

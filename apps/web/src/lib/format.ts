@@ -129,6 +129,11 @@ export function formatArea(mm2: number, system: UnitSystem): string {
   return withUnit(areaToDisplay(mm2, system));
 }
 
+/** A large area (a blade's life, a month's cutting), e.g. `48.4 ft²` or `4.5 m²`. */
+export function formatLargeArea(mm2: number, system: UnitSystem): string {
+  return withUnit(quantityToDisplay('largeArea', mm2, system));
+}
+
 /** A figure in the site's unit first and the other system's second: `0.043 in (1.09 mm)`. */
 export function formatDual(kind: DisplayQuantityKind, si: number, system: UnitSystem): string {
   // A plain space before the bracket: on a narrow screen the second figure may wrap to the next line.

@@ -14,15 +14,21 @@ export function currencyDigits(currency: string): number {
   }
 }
 
-/** Minor units as money, e.g. `$64.50`, `€1,200.00`, `¥6,450`. */
-export function formatMoney(minor: number, currency: string): string {
+/**
+ * Minor units as money, e.g. `$64.50`, `€1,200.00`, `¥6,450`. With `{ cents: 'auto' }` an amount of a thousand or
+ * more drops its cents, as totals on the fleet screens read (`$37,475`, not `$37,475.17`).
+ */
+export function formatMoney(minor: number, currency: string, options: { cents?: boolean | 'auto' } = {}): string {
   const digits = currencyDigits(currency);
+  const major = minor / 10 ** digits;
+  const cents = options.cents ?? true;
+  const keep = cents === 'auto' ? Math.abs(major) < 1000 : cents;
   return new Intl.NumberFormat(APP_LOCALE, {
     style: 'currency',
     currency,
-    minimumFractionDigits: digits,
-    maximumFractionDigits: digits,
-  }).format(minor / 10 ** digits);
+    minimumFractionDigits: keep ? digits : 0,
+    maximumFractionDigits: keep ? digits : 0,
+  }).format(major);
 }
 
 /** Minor units as a person types them in a form: `64.5` for 6450 cents. */
@@ -51,4 +57,14 @@ export function minorFromText(
         digits === 0 ? `${currency} has no decimals` : `${currency} has ${digits} decimals at most, such as 64.50`,
     };
   return { ok: true, value: Math.round(Number(trimmed.replaceAll(',', '')) * 10 ** digits) };
+}
+
+/** Minor units to the plain major-unit number a form shows (12345 cents → 123.45). */
+export function minorToMajor(minor: number, currency: string): number {
+  return minor / 10 ** currencyDigits(currency);
+}
+
+/** A typed major-unit amount to minor units, rounded to the nearest minor unit. */
+export function majorToMinor(major: number, currency: string): number {
+  return Math.round(major * 10 ** currencyDigits(currency));
 }

@@ -34,6 +34,9 @@ const cutLog = (siteId: string) => subject('CutLog', { id: 'l', siteId });
 const photo = (siteId: string) => subject('Photo', { id: 'f', siteId });
 const receipt = (siteId: string) => subject('StockReceipt', { id: 'k', siteId });
 const levels = (siteId: string) => subject('StockLevel', { id: 'v', siteId });
+const budget = (siteId: string) => subject('Budget', { id: 'g', siteId });
+const followUp = (siteId: string) => subject('FollowUp', { id: 'u', siteId });
+const rate = subject('ExchangeRate', { id: 'x', currency: 'CAD' });
 const siteCheck = (siteId: string) => subject('SiteCheck', { id: 'c', siteId });
 const checkRecord = (siteId: string) => subject('CheckRecord', { id: 'x', siteId });
 const batch = (siteId: string) => subject('ImportBatch', { id: 'i', siteId });
@@ -214,6 +217,50 @@ const matrix: [
   ['leadNorth', 'read', receipt(C), false],
   ['admin', 'delete', stop(C), true],
   ['admin', 'create', receipt(C), true],
+  // Blade budgets: administrators and managers set them for their sites; leads and site admins read them.
+  ['admin', 'update', budget(C), true],
+  ['managerAll', 'create', budget(C), true],
+  ['managerAC', 'update', budget(A), true],
+  ['managerAC', 'delete', budget(C), true],
+  ['managerAC', 'update', budget(B), false],
+  ['managerAC', 'read', budget(B), false],
+  ['leadNorth', 'read', budget(B), true],
+  ['leadNorth', 'update', budget(A), false],
+  ['leadNorth', 'read', budget(C), false],
+  ['siteAdminA', 'read', budget(A), true],
+  ['siteAdminA', 'update', budget(A), false],
+  ['siteAdminA', 'read', budget(B), false],
+  ['techA', 'read', budget(A), false],
+  // Follow-ups: leads open and steer them in their region; the site works them; managers read them.
+  ['leadNorth', 'create', followUp(A), true],
+  ['leadNorth', 'update', followUp(B), true],
+  ['leadNorth', 'create', followUp(C), false],
+  ['leadNorth', 'read', followUp(C), false],
+  ['siteAdminA', 'read', followUp(A), true],
+  ['siteAdminA', 'update', followUp(A), true],
+  ['siteAdminA', 'create', followUp(A), false],
+  ['siteAdminA', 'read', followUp(B), false],
+  ['techA', 'read', followUp(A), true],
+  ['techA', 'update', followUp(A), true],
+  ['techA', 'update', followUp(B), false],
+  ['techA', 'create', followUp(A), false],
+  ['managerAC', 'read', followUp(C), true],
+  ['managerAC', 'read', followUp(B), false],
+  ['managerAC', 'update', followUp(A), false],
+  // Exchange rates: everyone reads them; only administrators enter them.
+  ['admin', 'update', rate, true],
+  ['managerAll', 'read', rate, true],
+  ['managerAll', 'update', rate, false],
+  ['leadNorth', 'read', rate, true],
+  ['techA', 'read', rate, true],
+  ['siteAdminA', 'create', rate, false],
+  // Exports: managers of their sites, leads of their region's, site admins of their own; never technicians.
+  ['leadNorth', 'export', site(A, NORTH), true],
+  ['leadNorth', 'export', site(C, SOUTH), false],
+  ['siteAdminA', 'export', site(A, NORTH), true],
+  ['siteAdminA', 'export', site(B, NORTH), false],
+  ['techA', 'export', site(A, NORTH), false],
+  ['managerAC', 'export', site(B, NORTH), false],
   // A site's list of checks: read by whoever reads the site, kept by admins and that site's admin.
   ['admin', 'update', siteCheck(C), true],
   ['siteAdminA', 'create', siteCheck(A), true],
@@ -308,6 +355,18 @@ describe('which fields of a site a site admin may change', () => {
   });
 });
 
+describe('which fields of a follow-up a technician may change', () => {
+  it('lets them move it along and add notes, but not hand it to someone else or change its day', () => {
+    const tech = defineAbilityFor(principals.techA!);
+    expect(tech.can('update', followUp(A), 'state')).toBe(true);
+    expect(tech.can('update', followUp(A), 'note')).toBe(true);
+    expect(tech.can('update', followUp(A), 'assigneeId')).toBe(false);
+    expect(tech.can('update', followUp(A), 'dueOn')).toBe(false);
+    const siteAdmin = defineAbilityFor(principals.siteAdminA!);
+    expect(siteAdmin.can('update', followUp(A), 'assigneeId')).toBe(true);
+  });
+});
+
 describe('rules stay translatable to SQL', () => {
   const allowed = new Set(['$eq', '$ne', '$in', '$nin']);
   const columns: Record<string, Set<string>> = {
@@ -326,6 +385,9 @@ describe('rules stay translatable to SQL', () => {
     Stop: new Set(['id', 'siteId']),
     CutLog: new Set(['id', 'siteId']),
     Photo: new Set(['id', 'siteId']),
+    Budget: new Set(['id', 'siteId']),
+    FollowUp: new Set(['id', 'siteId']),
+    ExchangeRate: new Set(['id', 'currency']),
     SiteCheck: new Set(['id', 'siteId']),
     CheckRecord: new Set(['id', 'siteId']),
     ImportBatch: new Set(['id', 'siteId']),

@@ -28,6 +28,9 @@ export const SUBJECTS = [
   'Stop',
   'CutLog',
   'Photo',
+  'Budget',
+  'FollowUp',
+  'ExchangeRate',
   'SiteCheck',
   'CheckRecord',
   'ImportBatch',
@@ -49,6 +52,8 @@ type MailLogFields = { id: string; userId: string | null };
 type BladeSpecFields = { id: string; siteId: string | null };
 /** The records a site keeps: each row carries its site, so rules test the row's own column. */
 type SiteRecordFields = { id: string; siteId: string };
+/** Exchange rates belong to the company, not to a site. */
+type ExchangeRateFields = { id: string; currency: string };
 
 type Subjects =
   | 'all'
@@ -68,6 +73,9 @@ type Subjects =
   | (SiteRecordFields & ForcedSubject<'Stop'>)
   | (SiteRecordFields & ForcedSubject<'CutLog'>)
   | (SiteRecordFields & ForcedSubject<'Photo'>)
+  | (SiteRecordFields & ForcedSubject<'Budget'>)
+  | (SiteRecordFields & ForcedSubject<'FollowUp'>)
+  | (ExchangeRateFields & ForcedSubject<'ExchangeRate'>)
   | (SiteRecordFields & ForcedSubject<'SiteCheck'>)
   | (SiteRecordFields & ForcedSubject<'CheckRecord'>)
   | (SiteRecordFields & ForcedSubject<'ImportBatch'>)
@@ -128,6 +136,8 @@ export function defineAbilityFor(p: Principal): AppAbility {
   };
 
   can('read', 'User', { id: p.id });
+  // Every figure in money is totalled in the reporting currency: whoever sees one may see the rates behind it.
+  can('read', 'ExchangeRate');
 
   switch (p.role) {
     case 'admin':
@@ -144,19 +154,30 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can('read', ['Saw', 'SiteSetting']);
       }
       readRecords(inSites);
+      // Blade budgets of their sites, and the follow-ups the leads opened there (read only).
+      if (inSites) {
+        can(['read', 'create', 'update', 'delete'], 'Budget', { siteId: inSites });
+        can('read', 'FollowUp', { siteId: inSites });
+      } else {
+        can(['read', 'create', 'update', 'delete'], 'Budget');
+        can('read', 'FollowUp');
+      }
       break;
     case 'regional_lead':
       if (p.regionId) {
         can('read', 'Region', { id: p.regionId });
-        can('read', 'Site', { regionId: p.regionId });
+        can(['read', 'export'], 'Site', { regionId: p.regionId });
       }
       can('read', ['Saw', 'SiteSetting'], { siteId: inSites ?? { $in: [] } });
       readRecords(inSites ?? { $in: [] });
+      can('read', 'Budget', { siteId: inSites ?? { $in: [] } });
+      // Follow-ups are the lead's way of getting a saw looked at: opened, reassigned and closed across the region.
+      can(['create', 'read', 'update'], 'FollowUp', { siteId: inSites ?? { $in: [] } });
       break;
     case 'site_admin':
       if (p.siteId) {
         can('read', 'Region', { id: inRegions ?? { $in: [] } });
-        can('read', 'Site', { id: p.siteId });
+        can(['read', 'export'], 'Site', { id: p.siteId });
         // Their own site's everyday details; its region and retiring it stay with administrators.
         can('update', 'Site', [...SITE_ADMIN_EDITABLE_FIELDS], { id: p.siteId });
         can(['create', 'read', 'update'], 'Saw', { siteId: p.siteId });
@@ -180,6 +201,9 @@ export function defineAbilityFor(p: Principal): AppAbility {
         // The records removed at their own site (kept, not deleted): seeing them and putting them back
         // (update = put back). Nobody else but administrators sees them.
         can(['read', 'update'], 'RemovedRecord', { siteId: p.siteId });
+        can('read', 'Budget', { siteId: p.siteId });
+        // Follow-ups at their site: they work them (state, notes) and may hand them to another person or day.
+        can(['read', 'update'], 'FollowUp', { siteId: p.siteId });
       }
       break;
     case 'technician':
@@ -193,6 +217,9 @@ export function defineAbilityFor(p: Principal): AppAbility {
         can('read', 'BladeSpec', { siteId: { $in: [null, p.siteId] } });
         can(['create', 'update'], ['BladeRun', 'Stop', 'CutLog'], { siteId: p.siteId });
         can('create', ['Photo', 'CheckRecord'], { siteId: p.siteId });
+        // Follow-ups at their site: they move them along and add notes; the person and the day are the site admin's.
+        can('read', 'FollowUp', { siteId: p.siteId });
+        can('update', 'FollowUp', ['state', 'note'], { siteId: p.siteId });
       }
       break;
   }

@@ -3,9 +3,10 @@ import { idSchema } from '../common/schema.js';
 import { REMOVAL_REASONS } from '../diagnosis/schema.js';
 import { CAUSE_IDS } from '../diagnosis/likely-causes.js';
 import { DOWNTIME_CATEGORIES } from '../metrics/schema.js';
+import { CHECK_QUANTITIES } from '../site-checks/schema.js';
 
 /**
- * One saw's history as a single timeline: its blade runs and its stops (and, once recorded, its checks), newest
+ * One saw's history as a single timeline: its blade runs, its stops and its recorded checks, newest
  * first, each entry placed at its start. Paged by a cursor, so page 200 of a ten-year-old saw costs what page 1
  * costs: each page asks every kind of record for the entries that started before the last one shown.
  */
@@ -63,8 +64,24 @@ export const timelineStopSchema = z.object({
   durationMin: z.number(),
 });
 
+/** A check recorded on the saw: a moment (no end), its reading in the check's SI unit and the server's verdict. */
+export const timelineCheckSchema = z.object({
+  kind: z.literal('check'),
+  ...entryBase,
+  siteCheckId: idSchema,
+  checkName: z.string(),
+  quantity: z.enum(CHECK_QUANTITIES),
+  reading: z.number().nullable(),
+  passed: z.boolean(),
+  photoCount: z.number().int(),
+});
+
 /** Add a kind here (and a source in the API's timeline service) to put another record on the timeline. */
-export const timelineEntrySchema = z.discriminatedUnion('kind', [timelineBladeRunSchema, timelineStopSchema]);
+export const timelineEntrySchema = z.discriminatedUnion('kind', [
+  timelineBladeRunSchema,
+  timelineStopSchema,
+  timelineCheckSchema,
+]);
 export type TimelineEntry = z.infer<typeof timelineEntrySchema>;
 export type TimelineEntryKind = TimelineEntry['kind'];
 

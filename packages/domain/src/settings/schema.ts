@@ -161,6 +161,7 @@ const SAME_DIMENSION: Record<DisplayQuantityKind | PlainQuantity, DisplayQuantit
   smallLength: 'length',
   bandSpeed: 'bandSpeed',
   area: 'area',
+  largeArea: 'area',
   areaRate: 'areaRate',
   force: 'force',
   stress: 'stress',

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import {
+  largeAreaFromDisplay,
+  largeAreaToDisplay,
   DISPLAY_UNITS,
   areaFromDisplay,
   areaRateFromDisplay,
@@ -135,6 +137,15 @@ describe('the formatting policy', () => {
     expect(dualText('bandSpeed', 121.92, 'imperial')).toBe('400 ft/min (122 m/min)');
     expect(dualText('stress', 206.84e6, 'imperial')).toBe('30,000 psi (206.8 MPa)');
     expect(dualText('force', 35.585772922084, 'imperial')).toBe('8 lbf (35.6 N)');
+  });
+
+  it('shows a blade’s life or a month’s cutting in square feet or square metres', () => {
+    // 1 ft = 0.3048 m exactly (NIST SP 811 B.8), so 1 ft² = 92 903.04 mm²; worked by hand:
+    // 4 500 000 mm² = 48.4375… ft² → "48.4 ft²"; = 4.5 m² → "4.5 m²"; 250 000 000 mm² = 2 690.97 ft² → "2,691 ft²".
+    expect(largeAreaToDisplay(4_500_000, 'imperial').text).toBe('48.4 ft²');
+    expect(largeAreaToDisplay(4_500_000, 'metric').text).toBe('4.5 m²');
+    expect(largeAreaToDisplay(250_000_000, 'imperial').text).toBe('2,691 ft²');
+    expect(largeAreaFromDisplay(1, 'imperial')).toBe(92_903.04);
   });
 
   it('shows money per area cut per square inch or square centimetre, with two significant digits at least', () => {

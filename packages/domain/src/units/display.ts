@@ -33,6 +33,7 @@ export const DISPLAY_QUANTITIES = [
   'smallLength',
   'bandSpeed',
   'area',
+  'largeArea',
   'areaRate',
   'force',
   'stress',
@@ -56,6 +57,7 @@ export const DISPLAY_UNITS: Record<DisplayQuantityKind, Record<UnitSystem, Displ
   smallLength: { imperial: { unit: 'in', decimals: 3 }, metric: { unit: 'mm', decimals: 2 } },
   bandSpeed: { imperial: { unit: 'ft/min', decimals: 0 }, metric: { unit: 'm/min', decimals: 0 } },
   area: { imperial: { unit: 'in²', decimals: 2 }, metric: { unit: 'cm²', decimals: 1 } },
+  largeArea: { imperial: { unit: 'ft²', decimals: 1 }, metric: { unit: 'm²', decimals: 2 } },
   areaRate: { imperial: { unit: 'in²/min', decimals: 2 }, metric: { unit: 'cm²/min', decimals: 1 } },
   force: { imperial: { unit: 'lbf', decimals: 0 }, metric: { unit: 'N', decimals: 0 } },
   stress: { imperial: { unit: 'psi', decimals: 0 }, metric: { unit: 'MPa', decimals: 1 } },
@@ -126,6 +128,22 @@ const POLICY: Record<DisplayQuantityKind, Record<UnitSystem, Precision>> = {
       steps: [
         [100, 2],
         [10000, 1],
+      ],
+      otherwise: 0,
+    },
+    metric: {
+      steps: [
+        [10, 2],
+        [1000, 1],
+      ],
+      otherwise: 0,
+    },
+  },
+  largeArea: {
+    imperial: {
+      steps: [
+        [10, 2],
+        [1000, 1],
       ],
       otherwise: 0,
     },
@@ -267,6 +285,22 @@ export function areaFromDisplay(value: number, system: UnitSystem): number {
   return system === 'imperial' ? in2ToMm2(value) : cm2ToMm2(value);
 }
 
+/** 1 ft² = 0.3048² m² = 92 903.04 mm² exactly (NIST SP 811 B.8: 1 ft = 0.3048 m). */
+const MM2_PER_FT2 = 92_903.04;
+
+/**
+ * A large area (the area a blade cut in its life, a site's month of cutting) in mm² → ft² (imperial) or m²
+ * (metric): 4 500 000 mm² reads 48.4 ft² or 4.50 m², not 6,975 in² or 45,000 cm².
+ */
+export function largeAreaToDisplay(areaMm2: number, system: UnitSystem, options: DisplayOptions = {}): DisplayValue {
+  return toDisplay('largeArea', system === 'imperial' ? areaMm2 / MM2_PER_FT2 : areaMm2 / 1e6, system, options);
+}
+
+/** A large area typed in ft² or m² → mm². */
+export function largeAreaFromDisplay(value: number, system: UnitSystem): number {
+  return system === 'imperial' ? value * MM2_PER_FT2 : value * 1e6;
+}
+
 /** Cutting rate in mm²/min → in²/min (imperial) or cm²/min (metric). */
 export function areaRateToDisplay(
   rateMm2PerMin: number,
@@ -315,6 +349,7 @@ export const SI_UNITS: Record<DisplayQuantityKind, string> = {
   smallLength: 'mm',
   bandSpeed: 'm/min',
   area: 'mm²',
+  largeArea: 'mm²',
   areaRate: 'mm²/min',
   force: 'N',
   stress: 'Pa',
@@ -328,6 +363,7 @@ const TO_DISPLAY: Record<
   smallLength: smallLengthToDisplay,
   bandSpeed: bandSpeedToDisplay,
   area: areaToDisplay,
+  largeArea: largeAreaToDisplay,
   areaRate: areaRateToDisplay,
   force: forceToDisplay,
   stress: stressToDisplay,
@@ -338,6 +374,7 @@ const FROM_DISPLAY: Record<DisplayQuantityKind, (value: number, system: UnitSyst
   smallLength: smallLengthFromDisplay,
   bandSpeed: bandSpeedFromDisplay,
   area: areaFromDisplay,
+  largeArea: largeAreaFromDisplay,
   areaRate: areaRateFromDisplay,
   force: forceFromDisplay,
   stress: stressFromDisplay,

@@ -145,6 +145,8 @@ export async function up({ sequelize }: MigrationContext): Promise<void> {
     CREATE INDEX check_records_saw_check_checked ON check_records (saw_id, site_check_id, checked_at DESC, id DESC)
       INCLUDE (passed);
     CREATE INDEX check_records_site_checked ON check_records (site_id, checked_at DESC, id);
+    -- A saw's timeline, newest first, paged by (checked_at, id).
+    CREATE INDEX check_records_saw_checked ON check_records (saw_id, checked_at DESC, id DESC);
     CREATE INDEX check_records_check ON check_records (site_check_id);
     CREATE INDEX check_records_run ON check_records (blade_run_id) WHERE blade_run_id IS NOT NULL;
 

@@ -8,6 +8,7 @@ import * as siteRecords from './20261203-0001-site-records.js';
 import * as siteChecks from './20261204-0101-site-checks.js';
 import * as imports from './20261204-0901-imports.js';
 import * as importChecks from './20261204-0902-import-checks.js';
+import * as fleetFigures from './20261204-1001-fleet-figures.js';
 import * as removedRecords from './20261206-0101-removed-records.js';
 
 type Migration = {
@@ -27,5 +28,6 @@ export const migrations: Migration[] = [
   { name: '20261204-0101-site-checks', ...siteChecks },
   { name: '20261204-0901-imports', ...imports },
   { name: '20261204-0902-import-checks', ...importChecks },
+  { name: '20261204-1001-fleet-figures', ...fleetFigures },
   { name: '20261206-0101-removed-records', ...removedRecords },
 ];

@@ -11,6 +11,7 @@ import {
 } from '@kerfline/domain/blade-runs/schema';
 import { idSchema } from '@kerfline/domain/common/schema';
 import { abilityOf, actorOf } from '../../http/authenticate.js';
+import type { Actor } from '../../audit/write-audit.js';
 import { parsed, validate } from '../../http/validate.js';
 import { removalOf, requireRemovalReason } from '../../http/removal-reason.js';
 import type { PhotoStorage } from '../photos/photo-storage.js';
@@ -28,8 +29,11 @@ import {
 
 const params = z.object({ id: idSchema });
 
+/** What follows a blade drawn from a site's stock (the low-stock notice); it never undoes the install. */
+export type AfterStockDrawn = (actor: Actor, siteId: string, bladeSpecId: string) => Promise<unknown>;
+
 /** `storage` keeps the photos of a run that is removed. */
-export function bladeRunsRouter(storage: PhotoStorage): Router {
+export function bladeRunsRouter(storage: PhotoStorage, afterStockDrawn?: AfterStockDrawn): Router {
   const router = Router();
   router.get('/blade-runs', validate('query', bladeRunListQuerySchema), async (_req, res) => {
     res.json(await listBladeRuns(abilityOf(res), parsed(res, 'query', bladeRunListQuerySchema)));
@@ -38,7 +42,13 @@ export function bladeRunsRouter(storage: PhotoStorage): Router {
     res.json(await getBladeRun(abilityOf(res), parsed(res, 'params', params).id));
   });
   router.post('/blade-runs', validate('body', bladeRunInstallSchema), async (_req, res) => {
-    res.status(201).json(await installBladeRun(actorOf(res), parsed(res, 'body', bladeRunInstallSchema)));
+    const actor = actorOf(res);
+    const result = await installBladeRun(actor, parsed(res, 'body', bladeRunInstallSchema));
+    if (afterStockDrawn && result.run.stockReceiptId !== null)
+      await afterStockDrawn(actor, result.run.siteId, result.run.bladeSpecId).catch((err: unknown) =>
+        res.log.error({ err }, 'the low-stock check after a blade was drawn failed; the blade is on the saw'),
+      );
+    res.status(201).json(result);
   });
   router.post(
     '/blade-runs/:id/remove',

@@ -12,6 +12,7 @@ import { namesOf } from '../records/record-support.js';
 import { Saw } from '../saws/saw.model.js';
 import { BladeRun } from '../blade-runs/blade-run.model.js';
 import { Stop } from '../stops/stop.model.js';
+import { CheckRecord } from '../site-checks/check-record.model.js';
 
 type Cursor = NonNullable<SawTimelineQuery['before']>;
 
@@ -100,7 +101,44 @@ const stops: TimelineSource = {
   count: (ability, sawId) => Stop.count({ where: scopedWhere(ability, 'read', 'Stop', Stop, { sawId }) }),
 };
 
-export const TIMELINE_SOURCES: TimelineSource[] = [bladeRuns, stops];
+const checks: TimelineSource = {
+  async page(ability, sawId, before, limit) {
+    const rows = await CheckRecord.findAll({
+      where: scopedWhere(ability, 'read', 'CheckRecord', CheckRecord, {
+        [Op.and]: [{ sawId }, beforeCursor('checkedAt', before)],
+      }),
+      attributes: {
+        include: [
+          [literal(`(SELECT name FROM site_checks c WHERE c.id = "CheckRecord".site_check_id)`), 'checkName'],
+          [literal(`(SELECT count(*)::int FROM photos p WHERE p.check_record_id = "CheckRecord".id)`), 'photoCount'],
+        ],
+      },
+      order: [
+        ['checkedAt', 'DESC'],
+        ['id', 'DESC'],
+      ],
+      limit,
+    });
+    const names = await namesOf(rows.map((r) => r.checkedById));
+    return rows.map((r) => ({
+      kind: 'check' as const,
+      id: r.id,
+      startedAt: r.checkedAt.toISOString(),
+      endedAt: null,
+      byName: r.checkedById ? (names.get(r.checkedById) ?? null) : null,
+      siteCheckId: r.siteCheckId,
+      checkName: String(r.get('checkName') ?? ''),
+      quantity: r.quantity,
+      reading: r.reading,
+      passed: r.passed,
+      photoCount: Number(r.get('photoCount') ?? 0),
+    }));
+  },
+  count: (ability, sawId) =>
+    CheckRecord.count({ where: scopedWhere(ability, 'read', 'CheckRecord', CheckRecord, { sawId }) }),
+};
+
+export const TIMELINE_SOURCES: TimelineSource[] = [bladeRuns, stops, checks];
 
 /** Newest first; entries that start at the same moment are ordered by id, as the cursor is. */
 function newestFirst(a: TimelineEntry, b: TimelineEntry): number {

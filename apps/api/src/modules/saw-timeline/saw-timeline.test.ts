@@ -38,18 +38,21 @@ async function allPages(agent: supertest.Agent, sawId: string, limit: number) {
 }
 
 describe('a saw’s timeline', () => {
-  it('puts its blade runs and stops on one list, newest first, with what each entry needs on screen', async () => {
+  it('puts its blade runs, stops and checks on one list, newest first, with what each entry needs on screen', async () => {
     const tech = await as('tech-a@test.example');
     const [saw1, saw2] = world.saws.A!;
     const res = await tech.get(`/api/saws/${saw1!.id}/timeline`);
     expect(res.status).toBe(200);
-    expect(res.body.total).toBe(2);
+    expect(res.body.total).toBe(3);
     expect(res.body.nextBefore).toBeNull();
+    // The fixture's guide check (19 days ago) came a day after the open run went on (20 days ago).
     expect(res.body.items.map((e: Entry) => [e.kind, e.id])).toEqual([
+      ['check', records.A.checkRecord.id],
       ['blade_run', records.A.openRun.id],
       ['blade_run', records.A.run.id],
     ]);
-    expect(res.body.items[1]).toMatchObject({
+    expect(res.body.items[0]).toMatchObject({ checkName: 'Guide bearing clearance', passed: true, photoCount: 1 });
+    expect(res.body.items[2]).toMatchObject({
       bladeSpecName: 'Fleet 34x1.1 3/4',
       removalReason: 'worn_out',
       photoCount: 1,
@@ -117,7 +120,7 @@ describe('a saw’s timeline', () => {
     const sawA = world.saws.A![0]!.id;
     expect((await (await as('tech-c@test.example')).get(`/api/saws/${sawA}/timeline`)).status).toBe(404);
     const lead = (await (await as('lead-north@test.example')).get(`/api/saws/${sawA}/timeline`)).body;
-    expect(lead.total).toBe(2);
+    expect(lead.total).toBe(3);
     const managerAC = (await (await as('manager-ac@test.example')).get(`/api/saws/${world.saws.B![0]!.id}/timeline`))
       .status;
     expect(managerAC).toBe(404);

@@ -652,3 +652,27 @@ describe('the diagnosis reads the saw’s checks', () => {
     expect(lines).toContain('Last guide bearing clearance check failed.');
   });
 });
+
+describe('the saw’s timeline', () => {
+  it('shows recorded checks among its runs and stops, to readers of the saw only', async () => {
+    const saw = world.saws.A![0]!;
+    await putBladeOn(saw.id, 90);
+    const tech = await as('tech-a@test.example');
+    const guide = await checkByRule(tech, world.sites.A.id, 'guide_clearance');
+    const record = (await tech.post('/api/check-records').send({ sawId: saw.id, siteCheckId: guide.id, reading: 1.0 }))
+      .body;
+    const timeline = await tech.get(`/api/saws/${saw.id}/timeline`);
+    expect(timeline.status).toBe(200);
+    expect(timeline.body.items[0]).toMatchObject({
+      kind: 'check',
+      id: record.id,
+      checkName: 'Guide bearing clearance',
+      reading: 1.0,
+      passed: false,
+      endedAt: null,
+      byName: 'tech-a',
+    });
+    expect(timeline.body.items.map((e: { kind: string }) => e.kind)).toEqual(['check', 'blade_run']);
+    expect((await (await as('tech-c@test.example')).get(`/api/saws/${saw.id}/timeline`)).status).toBe(404);
+  });
+});

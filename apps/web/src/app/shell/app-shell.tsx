@@ -13,6 +13,10 @@ type NavItem = { to: string; label: string; roles?: Role[] };
 
 /** What each role sees in the navigation; the pages themselves are still guarded by the server. */
 const NAV_ITEMS: NavItem[] = [
+  { to: '/fleet', label: 'Fleet', roles: ['admin', 'manager', 'regional_lead'] },
+  { to: '/outliers', label: 'Outliers', roles: ['admin', 'manager', 'regional_lead'] },
+  { to: '/follow-ups', label: 'Follow-ups', roles: ['admin', 'manager', 'regional_lead', 'site_admin'] },
+  { to: '/budgets', label: 'Budgets', roles: ['admin', 'manager'] },
   { to: '/today', label: 'Today', roles: ['technician', 'site_admin'] },
   { to: '/sites', label: 'Sites' },
   { to: '/saws', label: 'Saws' },
@@ -21,6 +25,7 @@ const NAV_ITEMS: NavItem[] = [
   { to: '/imports', label: 'Imports', roles: ['admin', 'site_admin'] },
   { to: '/calculators', label: 'Shop calculators' },
   { to: '/mail', label: 'Mail', roles: ['admin'] },
+  { to: '/exchange-rates', label: 'Rates', roles: ['admin'] },
 ];
 
 const navLinkClass = ({ isActive }: { isActive: boolean }) =>

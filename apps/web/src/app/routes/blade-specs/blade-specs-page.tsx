@@ -78,7 +78,8 @@ export function BladeSpecsPage() {
         <div>
           <h1 className="text-3xl font-extrabold tracking-tight text-ink">Blade specs</h1>
           <p className="mt-1 text-ink-muted">
-            The blades your sites put on their saws: {specs.total} spec{specs.total === 1 ? '' : 's'}.
+            The blades your sites put on their saws: {specs.total} spec{specs.total === 1 ? '' : 's'}, sizes in{' '}
+            {system === 'imperial' ? 'inches' : 'millimetres'}.
           </p>
         </div>
         {canCreate ? (

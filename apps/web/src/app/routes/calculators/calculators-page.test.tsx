@@ -5,6 +5,7 @@ import { createMemoryRouter } from 'react-router-dom';
 import { createQueryClient } from '../../../lib/query-client';
 import { installFakeApi } from '../../../test-support/fake-api';
 import { SAW_ID, SITE_ID, makeMe, makeSaw, makeSite, page } from '../../../test-support/fixtures';
+import { makeRun } from '../../../test-support/records';
 import { shippedSettings } from '@kerfline/domain/settings/schema';
 import { AppProviders } from '../../providers';
 import { appRoutes } from '../../router';
@@ -157,5 +158,31 @@ describe('the shop calculators', () => {
     technicianApi();
     renderApp('/calculators/slide-rule');
     expect(await screen.findByRole('heading', { name: 'No page here' })).toBeInTheDocument();
+  });
+
+  it('opens the break-in plan from a saw with its speeds and the material its blade is cutting', async () => {
+    installFakeApi({
+      'GET /api/me': { status: 200, body: makeMe('technician') },
+      'GET /api/sites': { status: 200, body: page([makeSite({ unitSystem: 'imperial' })]) },
+      [`GET /api/saws/${SAW_ID}`]: { status: 200, body: makeSaw() },
+      [`GET /api/sites/${SITE_ID}`]: { status: 200, body: makeSite({ unitSystem: 'imperial' }) },
+      [`GET /api/sites/${SITE_ID}/settings`]: { status: 200, body: { siteId: SITE_ID, items: shippedSettings() } },
+      'GET /api/blade-runs': (request) => ({
+        status: 200,
+        body: page(
+          request.query.get('sawId') === SAW_ID && request.query.get('open') === 'true'
+            ? [makeRun({ sawId: SAW_ID, materialGroup: 'stainless_steel', removedAt: null })]
+            : [],
+        ),
+      }),
+    });
+    renderApp(`/calculators/break-in?units=imperial&sawId=${SAW_ID}&sawMin=80&sawMax=400`);
+    const material = await screen.findByRole('combobox', { name: /Material to cut first/ });
+    expect(material).toHaveValue('stainless_steel');
+    expect(screen.getByRole('textbox', { name: /Lowest band speed of the saw/ })).toHaveValue('80');
+    // Shipped stainless 20–40 m/min = 66–131 ft/min at full band speed during break-in; the saw runs 80–131.
+    expect(screen.getByRole('region', { name: 'Result' })).toHaveTextContent(
+      'Band speed in stainless steel during break-in: 66–131 ft/min; this saw runs 80–131 ft/min of it.',
+    );
   });
 });

@@ -31,6 +31,7 @@ import { refreshAfterSawRecord, returnNoticeOf } from '../records/refresh';
 import { SawActionButtons, sawActionsFor } from './saw-actions';
 import { sawChecksQuery } from '../../../features/checks/api/queries';
 import { DueChecksLine, DueChecksPanel, sawDueItems } from '../../../features/checks/components/due-checks-panel';
+import { FollowUpsPanel } from '../../../features/follow-ups/components/follow-ups-panel';
 
 /** The saw's latest stop: when it ended says since when the saw has been running. */
 export const latestStopOf = (sawId: string) => stopListQuery(parseListQuery(stopListQuerySchema, { sawId, limit: 1 }));
@@ -228,6 +229,8 @@ export function SawPage() {
           }
         />
       ) : null}
+
+      <FollowUpsPanel sawId={saw.id} heading="Follow-ups on this saw" hideWhenEmpty />
 
       <div className="grid gap-6 lg:grid-cols-[3fr_2fr]">
         <SawTimeline sawId={saw.id} system={site.unitSystem} timeZone={site.timeZone} />

@@ -34,6 +34,7 @@ const combobox = (name: string) => screen.getByRole('combobox', { name });
 const textbox = (name: RegExp) => screen.getByRole('textbox', { name });
 
 describe('adding a site', () => {
+  // The whole app through its router, lazy pages and all: more than 5 s on a busy machine under coverage.
   it('sends the schema-shaped site from the sites page and opens the new site', async () => {
     const added = makeSite({
       id: NEW_SITE_ID,
@@ -77,7 +78,8 @@ describe('adding a site', () => {
       currency: 'CAD',
       unitSystem: 'metric',
     });
-  });
+    // Many fields typed one key at a time: on a loaded machine this takes longer than vitest's 5 s default.
+  }, 20_000);
 
   it('says which code is taken when the server answers 409, and stays on the form', async () => {
     fakeApiFor('admin', {

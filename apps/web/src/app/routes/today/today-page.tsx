@@ -1,3 +1,4 @@
+import { FollowUpsPanel } from '../../../features/follow-ups/components/follow-ups-panel';
 import { Link, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { useQuery, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
 import { sawListQuerySchema, type Saw } from '@kerfline/domain/saws/schema';
@@ -179,6 +180,8 @@ function SiteToday({ siteId }: { siteId: string }) {
       ) : checks.isError ? (
         <p role="alert">{checks.error.message}</p>
       ) : null}
+
+      <FollowUpsPanel siteId={site.id} heading="Follow-ups at this site" hideWhenEmpty />
 
       <section aria-labelledby="running-heading" className="space-y-3">
         <h2 id="running-heading" className="text-lg font-bold text-ink">

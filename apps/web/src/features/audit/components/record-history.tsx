@@ -1,5 +1,6 @@
 import type { AuditAction, AuditEntry } from '@kerfline/domain/audit/schema';
 import { formatDateTime, formatNumber } from '../../../lib/format';
+import { formatMoney } from '../../../lib/money';
 
 /** The fields of the site's records as people name them; ids and bookkeeping columns are left out. */
 const FIELD_LABELS: Record<string, string> = {
@@ -15,14 +16,14 @@ const FIELD_LABELS: Record<string, string> = {
   areaSource: 'Area from',
   removalNotes: 'Notes when taken off',
   confirmedCause: 'Confirmed cause',
-  costMinor: 'Cost (minor units)',
+  costMinor: 'Cost',
   startedAt: 'Stopped',
   endedAt: 'Running again',
   category: 'Why it stopped',
   planned: 'Planned',
   notes: 'Notes',
   quantity: 'Quantity',
-  unitCostMinor: 'Cost of one (minor units)',
+  unitCostMinor: 'Cost of one',
   currency: 'Currency',
   receivedOn: 'Received on',
   reference: 'Reference',
@@ -78,19 +79,30 @@ function valueText(value: unknown, timeZone: string): string {
   return JSON.stringify(value);
 }
 
+/** Money fields (integer minor units) as money in the record's currency. */
+const MONEY_FIELDS = new Set(['costMinor', 'unitCostMinor']);
+
 /** The lines of one entry: each changed field's old and new value (a new record: its values). */
 export function changeLines(
   entry: AuditEntry,
   timeZone: string,
 ): { label: string; before: string | null; after: string | null }[] {
   const keys = new Set([...Object.keys(entry.before ?? {}), ...Object.keys(entry.after ?? {})]);
+  const currency = String(entry.after?.currency ?? entry.before?.currency ?? '').trim();
+  const show = (key: string, values: Record<string, unknown> | null) => {
+    if (!values) return null;
+    const value = values[key];
+    if (MONEY_FIELDS.has(key) && typeof value === 'number' && /^[A-Z]{3}$/.test(currency))
+      return formatMoney(value, currency);
+    return valueText(value, timeZone);
+  };
   return [...keys]
     .filter((key) => !HIDDEN.has(key))
     .filter((key) => entry.action !== 'create' || (entry.after?.[key] ?? null) !== null)
     .map((key) => ({
       label: FIELD_LABELS[key] ?? key,
-      before: entry.before ? valueText(entry.before[key], timeZone) : null,
-      after: entry.after ? valueText(entry.after[key], timeZone) : null,
+      before: show(key, entry.before),
+      after: show(key, entry.after),
     }));
 }
 

@@ -42,7 +42,13 @@ export function ConfirmCauseForm({
     <form onSubmit={submit} noValidate className="space-y-4">
       {errors.root?.server?.message ? <Notice>{errors.root.server.message}</Notice> : null}
       {isSubmitSuccessful && !errors.root ? <Notice tone="info">Cause saved.</Notice> : null}
-      <LikelyCausesChoice runId={runId} reason={reason} register={register('cause')} error={errors.cause?.message} />
+      <LikelyCausesChoice
+        runId={runId}
+        reason={reason}
+        register={register('cause')}
+        error={errors.cause?.message}
+        offerUnsure={false}
+      />
       <Button type="submit" variant="primary" disabled={isSubmitting}>
         {isSubmitting ? 'Saving…' : current ? 'Change the cause' : 'Confirm this cause'}
       </Button>

@@ -65,11 +65,14 @@ export function LikelyCausesChoice({
   reason,
   register,
   error,
+  offerUnsure = true,
 }: {
   runId: string;
   reason: FailureMode;
   register: UseFormRegisterReturn;
   error?: string | undefined;
+  /** Offer "not sure yet" (while taking the blade off; its own page asks for a cause). */
+  offerUnsure?: boolean;
 }) {
   const diagnosis = useQuery(likelyCausesQuery(runId, reason));
   if (diagnosis.isPending)
@@ -98,15 +101,17 @@ export function LikelyCausesChoice({
             <CauseTile cause={cause} register={register} />
           </li>
         ))}
-        <li>
-          <ChoiceTile
-            type="radio"
-            value=""
-            label="Not sure yet"
-            hint="Confirm a cause later from the blade’s page."
-            {...register}
-          />
-        </li>
+        {offerUnsure ? (
+          <li>
+            <ChoiceTile
+              type="radio"
+              value=""
+              label="Not sure yet"
+              hint="Confirm a cause later from the blade’s page."
+              {...register}
+            />
+          </li>
+        ) : null}
       </ol>
     </ChoiceGroup>
   );

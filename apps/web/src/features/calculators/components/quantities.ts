@@ -79,6 +79,7 @@ const CARRY_DECIMALS: Record<Quantity, Record<UnitSystem, number>> = {
   smallLength: { imperial: 4, metric: 3 },
   bandSpeed: { imperial: 1, metric: 1 },
   area: { imperial: 3, metric: 2 },
+  largeArea: { imperial: 2, metric: 3 },
   areaRate: { imperial: 3, metric: 2 },
   force: { imperial: 2, metric: 1 },
   stress: { imperial: 0, metric: 2 },

@@ -5,7 +5,14 @@ import { CAUSES } from '@kerfline/domain/diagnosis/likely-causes';
 import { REMOVAL_REASON_LABELS } from '@kerfline/domain/diagnosis/schema';
 import { STOP_CATEGORY_LABELS } from '@kerfline/domain/stops/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
-import { formatArea, formatDateTime, formatNumber } from '../../../lib/format';
+import {
+  formatArea,
+  formatDateTime,
+  formatForce,
+  formatNumber,
+  formatSmallLength,
+  formatStress,
+} from '../../../lib/format';
 import { Button } from '../../../lib/ui/button';
 import { Card } from '../../../lib/ui/card';
 import { Notice } from '../../../lib/ui/notice';
@@ -30,7 +37,7 @@ function RunEntry({
   timeZone: string;
 }) {
   const life = [
-    entry.areaCutMm2 !== null ? formatArea(entry.areaCutMm2, system) : null,
+    entry.areaCutMm2 !== null ? `cut ${formatArea(entry.areaCutMm2, system)}` : null,
     entry.cuts !== null ? `${formatNumber(entry.cuts)} cuts` : null,
   ].filter(Boolean);
   return (
@@ -54,7 +61,7 @@ function RunEntry({
         <p className="text-sm text-ink">
           {REMOVAL_REASON_LABELS[entry.removalReason]}
           {entry.confirmedCause ? ` — cause: ${CAUSES[entry.confirmedCause].label.toLowerCase()}` : ''}
-          {life.length > 0 ? ` · cut ${life.join(', ')}` : ''}
+          {life.length > 0 ? ` · ${life.join(' · ')}` : ''}
           {entry.photoCount > 0 ? ` · ${entry.photoCount} photo${entry.photoCount === 1 ? '' : 's'}` : ''}
         </p>
       ) : null}
@@ -86,8 +93,49 @@ function StopEntry({ entry, timeZone }: { entry: Extract<TimelineEntry, { kind: 
   );
 }
 
-/** The mark of an entry: a block for a stop, a circle for a blade, as the status shapes mean. */
+function readingText(entry: Extract<TimelineEntry, { kind: 'check' }>, system: UnitSystem): string | null {
+  if (entry.reading === null) return null;
+  if (entry.quantity === 'force') return formatForce(entry.reading, system);
+  if (entry.quantity === 'stress') return formatStress(entry.reading * 1e6, system);
+  return formatSmallLength(entry.reading, system);
+}
+
+function CheckEntry({
+  entry,
+  system,
+  timeZone,
+}: {
+  entry: Extract<TimelineEntry, { kind: 'check' }>;
+  system: UnitSystem;
+  timeZone: string;
+}) {
+  const reading = readingText(entry, system);
+  return (
+    <>
+      <p className="font-bold text-ink">
+        Check: {entry.checkName}{' '}
+        <span className={entry.passed ? 'text-signal-safe' : 'text-signal-stop'}>
+          · {entry.passed ? 'passed' : 'failed'}
+        </span>
+      </p>
+      <p className="text-sm text-ink-muted tabular">
+        {formatDateTime(entry.startedAt, timeZone)}
+        {reading ? ` · read ${reading}` : ''}
+        {entry.byName ? ` · by ${entry.byName}` : ''}
+        {entry.photoCount > 0 ? ` · ${entry.photoCount} photo${entry.photoCount === 1 ? '' : 's'}` : ''}
+      </p>
+    </>
+  );
+}
+
+/** The mark of an entry: a block for a stop or a failed check, a circle for a blade or a check passed. */
 function EntryMark({ entry }: { entry: TimelineEntry }) {
+  if (entry.kind === 'check')
+    return (
+      <span className={entry.passed ? 'text-signal-safe' : 'text-signal-stop'}>
+        <StatusShapeIcon shape={entry.passed ? 'circle' : 'block'} className="size-4" />
+      </span>
+    );
   if (entry.kind === 'stop')
     return (
       <span className={entry.endedAt ? 'text-ink-muted' : 'text-signal-stop'}>
@@ -102,7 +150,7 @@ function EntryMark({ entry }: { entry: TimelineEntry }) {
 }
 
 /**
- * One timeline of everything recorded on a saw — blades and stops (checks join it when they are recorded) —
+ * One timeline of everything recorded on a saw — blades, stops and checks —
  * newest first, loaded a page at a time from the server.
  */
 export function SawTimeline({ sawId, system, timeZone }: { sawId: string; system: UnitSystem; timeZone: string }) {
@@ -143,6 +191,8 @@ export function SawTimeline({ sawId, system, timeZone }: { sawId: string; system
                 <div className="min-w-0 space-y-0.5">
                   {entry.kind === 'blade_run' ? (
                     <RunEntry entry={entry} system={system} timeZone={timeZone} />
+                  ) : entry.kind === 'check' ? (
+                    <CheckEntry entry={entry} system={system} timeZone={timeZone} />
                   ) : (
                     <StopEntry entry={entry} timeZone={timeZone} />
                   )}

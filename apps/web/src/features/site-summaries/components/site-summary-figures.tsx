@@ -66,7 +66,7 @@ export function SiteSummaryFigures({
         shape={summary.sawsDown > 0 ? 'block' : 'circle'}
         value={summary.sawsDown === 0 ? 'None' : formatNumber(summary.sawsDown)}
         label={`Saws down now, of ${formatNumber(summary.sawsInUse)}`}
-        note={summary.downSince ? `Longest since ${formatDateTime(summary.downSince, timeZone)}` : undefined}
+        note={summary.downSince ? `Longest since ${formatDateTime(summary.downSince, timeZone, true)}` : undefined}
       />
       {stock ? (
         <Figure

@@ -1,0 +1,168 @@
+import { ResponsiveLine } from '@nivo/line';
+import { ResponsiveBar } from '@nivo/bar';
+import { monthLabel } from '@kerfline/domain/fleet/period';
+import { siteColour, siteShape } from '../../../lib/palette';
+import type { ChartSpec } from './chart-spec';
+
+/*
+ * The chart code, loaded on its own when a fleet screen first shows a chart, so sign-in and the technicians'
+ * phone screens never carry it. Axis text is Manrope, like the rest of the product.
+ */
+
+const THEME = {
+  text: { fontFamily: 'Manrope, ui-sans-serif, system-ui, sans-serif', fontSize: 12, fill: '#1E2226' },
+  axis: {
+    legend: { text: { fontFamily: 'Manrope, ui-sans-serif, system-ui, sans-serif', fontSize: 12, fontWeight: 700 } },
+    ticks: { text: { fill: '#545C64' } },
+  },
+  grid: { line: { stroke: '#D8D1C4', strokeWidth: 1 } },
+  tooltip: { container: { fontFamily: 'Manrope, ui-sans-serif, system-ui, sans-serif', fontSize: 13 } },
+};
+
+const shortMonth = (m: string) => monthLabel(m).replace(/ (\d{2})(\d{2})$/, ' ’$2');
+
+function PointShape({ x, y, slot, size }: { x: number; y: number; slot: number; size: number }) {
+  const fill = siteColour(slot);
+  const h = size / 2;
+  switch (siteShape(slot)) {
+    case 'square':
+      return <rect x={x - h} y={y - h} width={size} height={size} fill={fill} stroke="#FFFDF9" strokeWidth={1} />;
+    case 'triangle':
+      return (
+        <polygon
+          points={`${x},${y - h - 1} ${x + h + 1},${y + h} ${x - h - 1},${y + h}`}
+          fill={fill}
+          stroke="#FFFDF9"
+          strokeWidth={1}
+        />
+      );
+    case 'diamond':
+      return (
+        <polygon
+          points={`${x},${y - h - 1} ${x + h + 1},${y} ${x},${y + h + 1} ${x - h - 1},${y}`}
+          fill={fill}
+          stroke="#FFFDF9"
+          strokeWidth={1}
+        />
+      );
+    default:
+      return <circle cx={x} cy={y} r={h} fill={fill} stroke="#FFFDF9" strokeWidth={1} />;
+  }
+}
+
+export default function FleetChart({ spec, label, height = 320 }: { spec: ChartSpec; label: string; height?: number }) {
+  const margin = { top: 16, right: 24, bottom: 56, left: 84 };
+  if (spec.kind === 'line') {
+    const slotOf = new Map(spec.series.map((s) => [s.id, s.slot]));
+    return (
+      <div style={{ height }}>
+        <ResponsiveLine
+          data={spec.series.map((s) => ({ id: s.id, data: s.points.map((p) => ({ ...p, slot: s.slot })) }))}
+          margin={margin}
+          theme={THEME}
+          colors={(serie) => siteColour(slotOf.get(String(serie.id)) ?? 0)}
+          lineWidth={2.5}
+          xScale={{ type: 'point' }}
+          yScale={{ type: 'linear', min: 0, max: 'auto' }}
+          axisBottom={{ format: (v) => shortMonth(String(v)), tickRotation: -35 }}
+          gridYValues={5}
+          axisLeft={{
+            format: (v) => spec.formatY(Number(v)),
+            tickValues: 5,
+            legend: spec.yLegend,
+            legendOffset: -74,
+            legendPosition: 'middle',
+          }}
+          pointSize={8}
+          pointSymbol={({ size, datum }) => (
+            // nivo hands the point's own data to the symbol: each point carries its series' slot for its shape.
+            <PointShape x={0} y={0} size={size} slot={(datum as { slot?: number }).slot ?? 0} />
+          )}
+          useMesh
+          enableSlices="x"
+          sliceTooltip={({ slice }) => (
+            <div className="rounded-sheet border border-rule bg-card px-3 py-2 text-sm shadow">
+              <p className="font-bold">{monthLabel(String(slice.points[0]?.data.x))}</p>
+              {slice.points.map((p) => (
+                <p key={p.id}>
+                  {spec.series.find((s) => s.id === p.seriesId)?.label}: {spec.formatY(Number(p.data.y))}
+                </p>
+              ))}
+            </div>
+          )}
+          role="img"
+          ariaLabel={label}
+        />
+      </div>
+    );
+  }
+  if (spec.kind === 'stacked') {
+    return (
+      <div style={{ height }}>
+        <ResponsiveBar
+          data={spec.rows.map((r) => ({ id: r.label, ...r.values }))}
+          keys={spec.keys.map((k) => k.key)}
+          indexBy="id"
+          groupMode="stacked"
+          margin={margin}
+          theme={THEME}
+          padding={0.3}
+          colors={(bar) => spec.keys.find((k) => k.key === bar.id)?.colour ?? '#000'}
+          borderColor="#FFFDF9"
+          borderWidth={1}
+          enableLabel={false}
+          gridYValues={5}
+          axisLeft={{
+            format: (v) => spec.formatY(Number(v)),
+            tickValues: 5,
+            legend: spec.yLegend,
+            legendOffset: -74,
+            legendPosition: 'middle',
+          }}
+          axisBottom={{ tickRotation: 0 }}
+          tooltip={({ id, value, indexValue }) => (
+            <div className="rounded-sheet border border-rule bg-card px-3 py-2 text-sm shadow">
+              {indexValue}: {spec.keys.find((k) => k.key === id)?.label} {spec.formatY(value)}
+            </div>
+          )}
+          role="img"
+          ariaLabel={label}
+          barAriaLabel={(d) =>
+            `${d.indexValue}, ${spec.keys.find((k) => k.key === d.id)?.label}: ${spec.formatY(d.value ?? 0)}`
+          }
+        />
+      </div>
+    );
+  }
+  const slotOf = new Map(spec.rows.map((r) => [r.label, r.slot]));
+  return (
+    <div style={{ height }}>
+      <ResponsiveBar
+        data={spec.rows.map((r) => ({ id: r.label, value: r.value ?? 0 }))}
+        keys={['value']}
+        indexBy="id"
+        margin={margin}
+        theme={THEME}
+        padding={0.35}
+        colors={(bar) => siteColour(slotOf.get(String(bar.indexValue)) ?? 0)}
+        enableLabel={false}
+        gridYValues={5}
+        axisLeft={{
+          format: (v) => spec.formatY(Number(v)),
+          tickValues: 5,
+          legend: spec.yLegend,
+          legendOffset: -74,
+          legendPosition: 'middle',
+        }}
+        tooltip={({ value, indexValue }) => (
+          <div className="rounded-sheet border border-rule bg-card px-3 py-2 text-sm shadow">
+            {indexValue}: {spec.formatY(value)}
+          </div>
+        )}
+        role="img"
+        ariaLabel={label}
+        barAriaLabel={(d) => `${d.indexValue}: ${spec.formatY(d.value ?? 0)}`}
+      />
+    </div>
+  );
+}

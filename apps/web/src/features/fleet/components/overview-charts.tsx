@@ -1,0 +1,215 @@
+import type { UnitSystem } from '@kerfline/domain/sites/schema';
+import type { FleetOverview, FleetQuery } from '@kerfline/domain/fleet/schema';
+import { DOWNTIME_CATEGORIES } from '@kerfline/domain/metrics/schema';
+import { STOP_CATEGORY_LABELS } from '@kerfline/domain/stops/schema';
+import { monthLabel } from '@kerfline/domain/fleet/period';
+import { DISPLAY_UNITS, largeAreaToDisplay, moneyPerAreaToDisplay } from '@kerfline/domain/units/display';
+import { minorUnitDigits } from '@kerfline/domain/money/currency';
+import { APP_LOCALE, formatNumber } from '../../../lib/format';
+import { CATEGORY_COLOURS } from '../../../lib/palette';
+import { ChartPanel } from './chart-panel';
+import type { ChartSpec, ChartTable } from './chart-spec';
+import { costPerAreaText, lifeText, spendText } from './figure-text';
+import { SiteMark } from './site-mark';
+
+type Props = {
+  data: FleetOverview | undefined;
+  status: 'pending' | 'error' | 'success';
+  errorMessage?: string;
+  onRetry: () => void;
+  units: UnitSystem;
+  query: FleetQuery;
+};
+
+export function exportPath(base: string, query: FleetQuery, units: UnitSystem, extra: Record<string, string> = {}) {
+  const params = new URLSearchParams({ from: query.from, to: query.to, units, ...extra });
+  if (query.sites?.length) params.set('sites', query.sites.join(','));
+  return `${base}?${params.toString()}`;
+}
+
+const money = (currency: string) => (major: number) =>
+  new Intl.NumberFormat(APP_LOCALE, {
+    style: 'currency',
+    currency,
+    maximumFractionDigits: major < 1000 ? 2 : 0,
+  }).format(major);
+
+/** The overview's four charts: spend and cost per area per site by month, stop hours by category, blade life. */
+export function OverviewCharts({ data, status, errorMessage, onRetry, units, query }: Props) {
+  const currency = data?.reportingCurrency ?? 'USD';
+  const digits = minorUnitDigits(currency);
+  const perAreaUnit = moneyPerAreaToDisplay(1, currency, units).unit;
+  const areaUnit = DISPLAY_UNITS.largeArea[units].unit;
+  const months = data ? [...new Set(data.months.map((m) => m.month))] : [];
+  const sites = data?.sites.map((s) => s.site) ?? [];
+  const legend = sites.map((s) => ({
+    key: s.id,
+    label: `${s.code} ${s.name}`,
+    mark: <SiteMark slot={s.colourIndex} />,
+  }));
+  const figure = (siteId: string, month: string) =>
+    data?.months.find((m) => m.siteId === siteId && m.month === month)?.figures;
+
+  const spendSpec: ChartSpec | null = data
+    ? {
+        kind: 'line',
+        series: sites.map((s) => ({
+          id: s.id,
+          label: s.code,
+          slot: s.colourIndex,
+          points: months.map((m) => {
+            const f = figure(s.id, m);
+            // A month with a missing rate is left out of the line (a gap), not drawn too low.
+            return { x: m, y: f && f.spend.complete ? f.spend.amountMinor / 10 ** digits : null };
+          }),
+        })),
+        yLegend: `${currency} per month`,
+        formatY: money(currency),
+      }
+    : null;
+  const monthTable = (cell: (siteId: string, month: string) => string): ChartTable | null =>
+    data
+      ? {
+          columns: ['Site', ...months.map(monthLabel)],
+          rows: sites.map((s) => ({ key: s.id, cells: [s.code, ...months.map((m) => cell(s.id, m))] })),
+        }
+      : null;
+
+  const costSpec: ChartSpec | null = data
+    ? {
+        kind: 'line',
+        series: sites.map((s) => ({
+          id: s.id,
+          label: s.code,
+          slot: s.colourIndex,
+          points: months.map((m) => {
+            const v = figure(s.id, m)?.costPerAreaMinorPerMm2 ?? null;
+            return { x: m, y: v === null ? null : moneyPerAreaToDisplay(v, currency, units).value };
+          }),
+        })),
+        yLegend: perAreaUnit,
+        formatY: (v) =>
+          new Intl.NumberFormat(APP_LOCALE, { style: 'currency', currency, maximumSignificantDigits: 2 }).format(v),
+      }
+    : null;
+
+  const stopSpec: ChartSpec | null = data
+    ? {
+        kind: 'stacked',
+        rows: data.sites.map((s) => ({
+          id: s.site.id,
+          label: s.site.code,
+          values: Object.fromEntries(DOWNTIME_CATEGORIES.map((c) => [c, Math.round(s.current.stopHours[c] * 10) / 10])),
+        })),
+        keys: DOWNTIME_CATEGORIES.map((c, i) => ({
+          key: c,
+          label: STOP_CATEGORY_LABELS[c],
+          colour: CATEGORY_COLOURS[i]!,
+        })),
+        yLegend: 'hours',
+        formatY: (v) => `${formatNumber(v)} h`,
+      }
+    : null;
+  const stopTable: ChartTable | null = data
+    ? {
+        columns: ['Site', ...DOWNTIME_CATEGORIES.map((c) => STOP_CATEGORY_LABELS[c]), 'All stops'],
+        rows: data.sites.map((s) => ({
+          key: s.site.id,
+          cells: [
+            `${s.site.code} ${s.site.name}`,
+            ...DOWNTIME_CATEGORIES.map((c) => `${formatNumber(s.current.stopHours[c], 1)} h`),
+            `${formatNumber(s.current.downtimeHours, 1)} h`,
+          ],
+        })),
+      }
+    : null;
+
+  const lifeSpec: ChartSpec | null = data
+    ? {
+        kind: 'bars',
+        rows: data.sites.map((s) => ({
+          id: s.site.id,
+          label: s.site.code,
+          slot: s.site.colourIndex,
+          value: s.current.medianLifeMm2 === null ? null : largeAreaToDisplay(s.current.medianLifeMm2, units).value,
+        })),
+        yLegend: `${areaUnit} per blade`,
+        formatY: (v) => `${formatNumber(v, v < 10 ? 1 : 0)} ${areaUnit}`,
+      }
+    : null;
+  const lifeTable: ChartTable | null = data
+    ? {
+        columns: ['Site', 'Median blade life', 'Mean blade life', 'Blades finished with area', 'Mean cuts per blade'],
+        rows: data.sites.map((s) => ({
+          key: s.site.id,
+          cells: [
+            `${s.site.code} ${s.site.name}`,
+            lifeText(s.current.medianLifeMm2, units),
+            lifeText(s.current.meanLifeMm2, units),
+            formatNumber(s.current.bladesWithArea),
+            s.current.meanCutsPerBlade === null ? '—' : formatNumber(s.current.meanCutsPerBlade),
+          ],
+        })),
+      }
+    : null;
+
+  const common = { status, errorMessage, onRetry };
+  return (
+    <div className="grid gap-6 xl:grid-cols-2">
+      <ChartPanel
+        {...common}
+        title="Blade spend by month"
+        units={`${currency}, each month converted at its own rate`}
+        spec={spendSpec}
+        table={monthTable((siteId, m) => {
+          const f = figure(siteId, m);
+          return f ? spendText(f.spend) : '—';
+        })}
+        legend={legend}
+        exportPath={exportPath('/fleet/overview/export', query, units, { table: 'months' })}
+        emptyMessage="No blades were put on in this period."
+      />
+      <ChartPanel
+        {...common}
+        title="Cost per area cut by month"
+        units={`${currency} per ${units === 'imperial' ? 'square inch' : 'square centimetre'} (${perAreaUnit})`}
+        spec={costSpec}
+        table={monthTable((siteId, m) => {
+          const f = figure(siteId, m);
+          return f ? costPerAreaText(f.costPerAreaMinorPerMm2, currency, units, f.costPerAreaComplete) : '—';
+        })}
+        legend={legend}
+        exportPath={exportPath('/fleet/overview/export', query, units, { table: 'months' })}
+        emptyMessage="No blade with its area recorded came off in this period."
+      />
+      <ChartPanel
+        {...common}
+        title="Stop hours by category"
+        units="hours, per site over the period"
+        spec={stopSpec}
+        table={stopTable}
+        legend={DOWNTIME_CATEGORIES.map((c, i) => ({
+          key: c,
+          label: STOP_CATEGORY_LABELS[c],
+          mark: <span aria-hidden="true" className="inline-block size-3" style={{ background: CATEGORY_COLOURS[i] }} />,
+        }))}
+        exportPath={exportPath('/fleet/overview/export', query, units, { table: 'stop-hours' })}
+        emptyMessage="No stops were recorded in this period."
+      />
+      <ChartPanel
+        {...common}
+        title="Blade life by site (median)"
+        units={`${areaUnit} cut per blade (${units === 'imperial' ? 'square feet' : 'square metres'})`}
+        spec={lifeSpec}
+        table={lifeTable}
+        legend={legend}
+        exportPath={exportPath('/fleet/overview/export', query, units, { table: 'blade-life' })}
+        emptyMessage="No blade with its area recorded came off in this period."
+      />
+      <p className="text-sm text-ink-muted xl:col-span-2">
+        Money is in {currency}: blades bought in another currency are converted at the rate an administrator entered for
+        their month. A figure marked * leaves out money whose month has no rate yet.
+      </p>
+    </div>
+  );
+}
