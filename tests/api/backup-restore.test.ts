@@ -100,6 +100,10 @@ beforeAll(async () => {
     .field('caption', 'Wear on the back edge')
     .attach('photo', png, 'a.png')
     .expect(201);
+  // A photo removed to the kept records, so a kept row and its kept bytes are in the backup too.
+  const removed = (await admin.post(`/api/blade-runs/${run}/photos`).attach('photo', png, 'b.png').expect(201)).body
+    .id as string;
+  await admin.delete(`/api/photos/${removed}`).send({ reason: 'Photo of the wrong band' }).expect(204);
   await admin.patch(`/api/saws/${world.saws.C![1]!.id}`).send({ name: 'Ünïcödé saw – 7' }).expect(200);
   await dropRestored();
 });
@@ -127,6 +131,8 @@ describe('backup.sh and restore.sh', () => {
       'public.saws',
       'public.blade_runs',
       'public.photo_blobs',
+      'public.removed_records',
+      'public.removed_photo_blobs',
       'public.audit_entries',
       'public.sessions',
     ])

@@ -182,6 +182,8 @@ class FullDiskStorage implements PhotoStorage {
     return null;
   }
   async remove(): Promise<void> {}
+  async keep(): Promise<void> {}
+  async bringBack(): Promise<void> {}
 }
 
 /** The database store, on a database whose disk is full: PostgreSQL refuses the write with SQLSTATE 53100. */

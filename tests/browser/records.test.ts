@@ -252,4 +252,49 @@ describe('a site admin keeps the blade stock', () => {
     await shot(page, 'records-people-phone');
     await context.close();
   });
+
+  it('removes a stop logged by mistake with a reason, finds it among the removed entries and puts it back', async () => {
+    const { context, page } = await newPage(browser, PHONE);
+    await signIn(page, DEMO.siteAdmin);
+    const sitePath = new URL(page.url()).pathname;
+    await page.goto(`${sitePath}/stops?state=ended&category=electrical`);
+    const stops = page.getByRole('region', { name: 'Stops' });
+    await expect.poll(() => stops.getByRole('row').count()).toBeGreaterThan(1);
+    await stops.locator('a[href^="/stops/"]').first().click();
+    await page.waitForURL(/\/stops\/[0-9a-f-]{36}$/);
+    const stopPath = new URL(page.url()).pathname;
+
+    await page.getByRole('button', { name: 'Remove this stop…' }).click();
+    const confirm = page.getByRole('region', { name: 'Remove this stop?' });
+    expect(await textOf(confirm)).toContain('can put it back from Removed entries');
+    await confirm.getByRole('button', { name: 'Remove the stop' }).click();
+    await expect.poll(() => confirm.getByText('Say why this record is being removed').count()).toBe(1);
+    await confirm.getByLabel('Why is it being removed?').fill('Logged twice from the shift sheet');
+    await fitsWidth(page);
+    await shot(page, 'removed-confirm-phone');
+    await confirm.getByRole('button', { name: 'Remove the stop' }).click();
+    await page.waitForURL(/\/saws\/[0-9a-f-]{36}$/);
+    await expect.poll(() => page.getByText('The stop was removed.').count()).toBe(1);
+
+    await page.goto(sitePath);
+    await page
+      .getByRole('navigation', { name: 'The site’s records' })
+      .getByRole('link', { name: 'Removed entries' })
+      .click();
+    await page.waitForURL(`**${sitePath}/removed`);
+    const entry = page.getByRole('listitem').filter({ hasText: 'Logged twice from the shift sheet' });
+    await expect.poll(() => entry.count()).toBe(1);
+    expect(await textOf(entry)).toContain('Electrical');
+    expect(await textOf(entry)).toContain('by Ines Carvalho');
+    await fitsWidth(page);
+    await shot(page, 'removed-list-phone');
+    await page.setViewportSize(DESKTOP);
+    await shot(page, 'removed-list-desktop');
+    await entry.getByRole('button', { name: /^Put back/ }).click();
+    await expect.poll(() => page.getByText('Put back.').count()).toBe(1);
+    await page.getByRole('link', { name: 'See it' }).click();
+    await page.waitForURL(`**${stopPath}`);
+    await expect.poll(() => page.getByRole('heading', { name: 'Stopped: electrical' }).count()).toBe(1);
+    await context.close();
+  });
 });

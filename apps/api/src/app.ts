@@ -46,6 +46,7 @@ import { sawTimelineRouter } from './modules/saw-timeline/saw-timeline.router.js
 import { siteSummariesRouter } from './modules/site-summaries/site-summaries.router.js';
 import { DatabasePhotoStorage, type PhotoStorage } from './modules/photos/photo-storage.js';
 import { importsRouter } from './modules/imports/imports.router.js';
+import { removedRecordsRouter } from './modules/removed-records/removed-records.router.js';
 import { DEFAULT_IMPORT_LIMITS, type ImportLimits } from './modules/imports/imports.service.js';
 import { fleetRouter } from './modules/fleet/fleet.router.js';
 import { exchangeRatesRouter } from './modules/exchange-rates/exchange-rates.router.js';
@@ -267,13 +268,16 @@ export function createApp(deps: AppDeps): Express {
   );
   api.use(bladeSpecsRouter());
   api.use(bladeStockRouter());
+  const photoStorage = deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize);
   api.use(
-    bladeRunsRouter((actor, siteId, specId) => noticeIfBelowReorderPoint(deps.jobs, actor.ability, siteId, specId)),
+    bladeRunsRouter(photoStorage, (actor, siteId, specId) =>
+      noticeIfBelowReorderPoint(deps.jobs, actor.ability, siteId, specId),
+    ),
   );
   api.use(stopsRouter());
   api.use(cutLogsRouter());
-  api.use(photosRouter(deps.photoStorage ?? new DatabasePhotoStorage(deps.sequelize)));
-  api.use(siteChecksRouter());
+  api.use(photosRouter(photoStorage));
+  api.use(siteChecksRouter(photoStorage));
   api.use(sawTimelineRouter());
   api.use(siteSummariesRouter());
   api.use(importsRouter(deps.importLimits ?? DEFAULT_IMPORT_LIMITS));
@@ -282,6 +286,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(budgetsRouter());
   api.use(outliersRouter());
   api.use(followUpsRouter());
+  api.use(removedRecordsRouter(photoStorage));
   api.use(notFoundHandler);
   app.use('/api', api);
 

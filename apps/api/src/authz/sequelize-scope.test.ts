@@ -27,6 +27,7 @@ import { QueryTypes } from 'sequelize';
 import { SiteCheck } from '../modules/site-checks/site-check.model.js';
 import { CheckRecord } from '../modules/site-checks/check-record.model.js';
 import { ImportBatch, ImportMapping } from '../modules/imports/import-batch.model.js';
+import { RemovedRecord } from '../modules/removed-records/removed-record.model.js';
 import { SqlParams, scopeSql, scopeWhere } from './sequelize-scope.js';
 
 let ctx: TestContext;
@@ -104,6 +105,19 @@ beforeAll(async () => {
     });
     await ImportMapping.create({ siteId, kind: 'stops', memory: {}, updatedById: world.users.admin.id });
   }
+  // Records removed (kept) at two sites.
+  await RemovedRecord.bulkCreate(
+    [world.sites.A.id, world.sites.C.id].map((siteId, n) => ({
+      siteId,
+      subject: 'Stop' as const,
+      recordId: `00000000-0000-4000-8000-0000000000${String(n).padStart(2, '0')}`,
+      sawId: null,
+      occurredAt: new Date('2026-11-01T08:00:00Z'),
+      keptRow: { n },
+      reason: 'entered twice',
+      removedById: world.users.admin.id,
+    })),
+  );
   // Budgets and follow-ups at sites A and C; exchange rates belong to no site.
   for (const [code, assignee] of [
     ['A', world.users.techA],
@@ -159,6 +173,7 @@ const MODELS: Record<SubjectName, ModelStatic<Model>> = {
   CheckRecord,
   ImportBatch,
   ImportMapping,
+  RemovedRecord,
 };
 
 /** For every row: does the scoped query return it exactly when `ability.can` says yes? */

@@ -20,6 +20,7 @@ import { FollowUp, FollowUpEntry } from '../modules/follow-ups/follow-up.model.j
 import { SiteCheck } from '../modules/site-checks/site-check.model.js';
 import { CheckRecord } from '../modules/site-checks/check-record.model.js';
 import { ImportBatch, ImportMapping } from '../modules/imports/import-batch.model.js';
+import { RemovedRecord } from '../modules/removed-records/removed-record.model.js';
 
 /** Binds every model to this Sequelize instance. Model names equal the CASL subject names. */
 export function initModels(sequelize: Sequelize): void {
@@ -51,6 +52,7 @@ export function initModels(sequelize: Sequelize): void {
   CheckRecord.initModel(sequelize);
   ImportBatch.initModel(sequelize);
   ImportMapping.initModel(sequelize);
+  RemovedRecord.initModel(sequelize);
 }
 
 let bound: Sequelize | undefined;

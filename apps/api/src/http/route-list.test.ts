@@ -22,6 +22,9 @@ describe('the list of routes, read from the router', () => {
       'POST /api/blade-runs/:id/photos',
       'GET /api/photos/:id/thumbnail',
       'DELETE /api/photos/:id',
+      'GET /api/removed-records',
+      'GET /api/removed-records/:id',
+      'POST /api/removed-records/:id/restore',
     ])
       expect(routes).toContain(expected);
     expect(new Set(routes).size).toBe(routes.length);

@@ -102,7 +102,7 @@ export function startTestApp(
 /** Empties every table (keeps the schema and the migration record). */
 export async function resetData(sequelize: Sequelize): Promise<void> {
   await sequelize.query(
-    `TRUNCATE follow_up_entries, follow_ups, budgets, exchange_rates, reporting_currency, import_rejects, import_mappings, import_batches, photo_blobs, photos, check_records, site_checks, cut_logs, stops, blade_runs, stock_levels, stock_receipts, blade_specs,
+    `TRUNCATE removed_photo_blobs, removed_records, follow_up_entries, follow_ups, budgets, exchange_rates, reporting_currency, import_rejects, import_mappings, import_batches, photo_blobs, photos, check_records, site_checks, cut_logs, stops, blade_runs, stock_levels, stock_receipts, blade_specs,
        site_settings, mail_preferences, mail_log, password_resets, invitations,
        audit_entries, saws, user_sites, users, sites, regions, sessions, rate_limit_hits RESTART IDENTITY CASCADE`,
   );

@@ -252,6 +252,13 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: 'sites/:siteId/removed',
+              lazy: async () => {
+                const page = await import('./routes/sites/site-removed-page');
+                return { loader: page.siteRemovedPageLoader(queryClient), Component: page.SiteRemovedPage };
+              },
+            },
+            {
               path: 'blade-specs',
               lazy: async () => {
                 const page = await import('./routes/blade-specs/blade-specs-page');

@@ -161,5 +161,7 @@ export const api = {
     apiRequest(path, schema, { method: 'POST', body: form }),
   patch: <T>(path: string, body: unknown, schema: z.ZodType<T>) => apiRequest(path, schema, { method: 'PATCH', body }),
   put: <T>(path: string, body: unknown, schema: z.ZodType<T>) => apiRequest(path, schema, { method: 'PUT', body }),
-  delete: <T>(path: string, schema: z.ZodType<T> | null) => apiRequest(path, schema, { method: 'DELETE' }),
+  /** A DELETE; a record's removal sends its reason as the body (`{ reason }`). */
+  delete: <T>(path: string, schema: z.ZodType<T> | null, body?: unknown) =>
+    apiRequest(path, schema, { method: 'DELETE', body }),
 };

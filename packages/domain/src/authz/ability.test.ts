@@ -41,6 +41,7 @@ const siteCheck = (siteId: string) => subject('SiteCheck', { id: 'c', siteId });
 const checkRecord = (siteId: string) => subject('CheckRecord', { id: 'x', siteId });
 const batch = (siteId: string) => subject('ImportBatch', { id: 'i', siteId });
 const mapping = (siteId: string) => subject('ImportMapping', { id: 'm', siteId });
+const removed = (siteId: string) => subject('RemovedRecord', { id: 'z', siteId });
 
 // The permission matrix: [role, action, object, expected].
 const matrix: [
@@ -292,6 +293,20 @@ const matrix: [
   ['leadNorth', 'create', checkRecord(A), false],
   ['leadNorth', 'read', checkRecord(C), false],
   ['admin', 'create', checkRecord(C), true],
+  // Removed records (kept, not deleted): seen and put back by admins and that site's admin, nobody else.
+  ['admin', 'read', removed(C), true],
+  ['admin', 'update', removed(B), true],
+  ['siteAdminA', 'read', removed(A), true],
+  ['siteAdminA', 'update', removed(A), true],
+  ['siteAdminA', 'read', removed(B), false],
+  ['siteAdminA', 'update', removed(B), false],
+  ['siteAdminA', 'delete', removed(A), false],
+  ['techA', 'read', removed(A), false],
+  ['techA', 'update', removed(A), false],
+  ['managerAll', 'read', removed(A), false],
+  ['managerAC', 'read', removed(C), false],
+  ['leadNorth', 'read', removed(A), false],
+  ['leadNorth', 'update', removed(A), false],
 ];
 
 describe('who can do what', () => {
@@ -377,6 +392,7 @@ describe('rules stay translatable to SQL', () => {
     CheckRecord: new Set(['id', 'siteId']),
     ImportBatch: new Set(['id', 'siteId']),
     ImportMapping: new Set(['id', 'siteId']),
+    RemovedRecord: new Set(['id', 'siteId']),
   };
 
   it('uses only $eq, $ne, $in and $nin on the subject’s own columns, for every role', () => {

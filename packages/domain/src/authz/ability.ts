@@ -35,6 +35,7 @@ export const SUBJECTS = [
   'CheckRecord',
   'ImportBatch',
   'ImportMapping',
+  'RemovedRecord',
 ] as const;
 export type SubjectName = (typeof SUBJECTS)[number];
 
@@ -78,7 +79,8 @@ type Subjects =
   | (SiteRecordFields & ForcedSubject<'SiteCheck'>)
   | (SiteRecordFields & ForcedSubject<'CheckRecord'>)
   | (SiteRecordFields & ForcedSubject<'ImportBatch'>)
-  | (SiteRecordFields & ForcedSubject<'ImportMapping'>);
+  | (SiteRecordFields & ForcedSubject<'ImportMapping'>)
+  | (SiteRecordFields & ForcedSubject<'RemovedRecord'>);
 
 export type AppAbility = MongoAbility<[Action, Subjects]>;
 export type AppRawRule = RawRuleOf<AppAbility>;
@@ -196,6 +198,9 @@ export function defineAbilityFor(p: Principal): AppAbility {
         // Bringing their own site's spreadsheet logs in, and taking an import back out (update = undo).
         can(['create', 'read', 'update'], 'ImportBatch', { siteId: p.siteId });
         can(['create', 'read', 'update'], 'ImportMapping', { siteId: p.siteId });
+        // The records removed at their own site (kept, not deleted): seeing them and putting them back
+        // (update = put back). Nobody else but administrators sees them.
+        can(['read', 'update'], 'RemovedRecord', { siteId: p.siteId });
         can('read', 'Budget', { siteId: p.siteId });
         // Follow-ups at their site: they work them (state, notes) and may hand them to another person or day.
         can(['read', 'update'], 'FollowUp', { siteId: p.siteId });

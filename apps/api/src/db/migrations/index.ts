@@ -10,6 +10,7 @@ import * as imports from './20261204-0901-imports.js';
 import * as importChecks from './20261204-0902-import-checks.js';
 import * as fleetFigures from './20261204-1001-fleet-figures.js';
 import * as sawHeadForce from './20261205-0301-saw-head-force.js';
+import * as removedRecords from './20261206-0101-removed-records.js';
 import * as fleetWideListIndexes from './20261206-1101-fleet-wide-list-indexes.js';
 
 type Migration = {
@@ -31,5 +32,6 @@ export const migrations: Migration[] = [
   { name: '20261204-0902-import-checks', ...importChecks },
   { name: '20261204-1001-fleet-figures', ...fleetFigures },
   { name: '20261205-0301-saw-head-force', ...sawHeadForce },
+  { name: '20261206-0101-removed-records', ...removedRecords },
   { name: '20261206-1101-fleet-wide-list-indexes', ...fleetWideListIndexes },
 ];

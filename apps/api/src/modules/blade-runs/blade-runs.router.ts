@@ -14,6 +14,8 @@ import { idSchema } from '@kerfline/domain/common/schema';
 import { abilityOf, actorOf } from '../../http/authenticate.js';
 import type { Actor } from '../../audit/write-audit.js';
 import { parsed, validate } from '../../http/validate.js';
+import { removalOf, requireRemovalReason } from '../../http/removal-reason.js';
+import type { PhotoStorage } from '../photos/photo-storage.js';
 import {
   confirmCause,
   deleteBladeRun,
@@ -33,7 +35,8 @@ const params = z.object({ id: idSchema });
 /** What follows a blade drawn from a site's stock (the low-stock notice); it never undoes the install. */
 export type AfterStockDrawn = (actor: Actor, siteId: string, bladeSpecId: string) => Promise<unknown>;
 
-export function bladeRunsRouter(afterStockDrawn?: AfterStockDrawn): Router {
+/** `storage` keeps the photos of a run that is removed. */
+export function bladeRunsRouter(storage: PhotoStorage, afterStockDrawn?: AfterStockDrawn): Router {
   const router = Router();
   router.get('/blade-runs', validate('query', bladeRunListQuerySchema), async (_req, res) => {
     res.json(await listBladeRuns(abilityOf(res), parsed(res, 'query', bladeRunListQuerySchema)));
@@ -82,8 +85,8 @@ export function bladeRunsRouter(afterStockDrawn?: AfterStockDrawn): Router {
       res.json(await updateBladeRun(actorOf(res), id, parsed(res, 'body', bladeRunUpdateSchema)));
     },
   );
-  router.delete('/blade-runs/:id', validate('params', params), async (_req, res) => {
-    await deleteBladeRun(actorOf(res), parsed(res, 'params', params).id);
+  router.delete('/blade-runs/:id', validate('params', params), requireRemovalReason(), async (_req, res) => {
+    await deleteBladeRun(storage, actorOf(res), parsed(res, 'params', params).id, removalOf(res));
     res.status(204).end();
   });
   router.get(

@@ -19,15 +19,17 @@ import type {
   LikelyCausesQuery,
   RunDiagnosis,
 } from '@kerfline/domain/blade-runs/schema';
+import type { RemoveRecordInput } from '@kerfline/domain/removed-records/schema';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
-import { writeAudit, type Actor, type AuditRecord } from '../../audit/write-audit.js';
+import { writeAudit, type Actor } from '../../audit/write-audit.js';
 import { inTransaction } from '../../db/models.js';
 import { Saw } from '../saws/saw.model.js';
 import { Site } from '../sites/site.model.js';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import { BladeSpec } from '../blade-specs/blade-spec.model.js';
-import { Photo } from '../photos/photo.model.js';
+import type { PhotoStorage } from '../photos/photo-storage.js';
+import { removeToKept } from '../removed-records/keep-records.js';
 import {
   auditCopy,
   formatAt,
@@ -424,28 +426,21 @@ export async function updateBladeRun(
   return getBladeRun(ability, id);
 }
 
-/** Deletes a run entered by mistake, with its photos; its cut logs stay, without a run. Site admins only. */
-export async function deleteBladeRun({ ability, userId }: Actor, id: string): Promise<void> {
+/**
+ * Removes a run entered by mistake to the kept records, with its photos; its cut logs and recorded checks stay
+ * (the cuts and checks happened) without the link, which putting the run back restores. The blade goes back into
+ * the stock it was drawn from. Site admins only.
+ */
+export async function deleteBladeRun(
+  storage: PhotoStorage,
+  { ability, userId }: Actor,
+  id: string,
+  { reason }: RemoveRecordInput,
+): Promise<void> {
   const run = await runForWrite(ability, id, 'delete');
-  await inTransaction(async (transaction) => {
-    const photos = await Photo.findAll({ where: { bladeRunId: run.id }, transaction });
-    const records: AuditRecord[] = photos.map((p) => ({
-      siteId: p.siteId,
-      entity: 'Photo',
-      entityId: p.id,
-      action: 'delete',
-      before: auditCopy(p),
-    }));
-    records.push({
-      siteId: run.siteId,
-      entity: 'BladeRun',
-      entityId: run.id,
-      action: 'delete',
-      before: auditValues(run),
-    });
-    await run.destroy({ transaction });
-    await writeAudit(transaction, userId, records);
-  });
+  await inTransaction((transaction) =>
+    removeToKept(transaction, storage, { subject: 'BladeRun', recordId: run.id, reason, userId }),
+  );
 }
 
 /** Cut logs of the run (latest 200), as the diagnosis needs them. */

@@ -377,7 +377,7 @@ describe('who may see and write blade runs', () => {
     expect((await tech.get('/api/blade-runs?sort=length')).status).toBe(400);
   });
 
-  it('deletes a run with its photos for a site admin only, keeping its cut logs', async () => {
+  it('removes a run (kept, with a reason) for a site admin only, leaving its cut logs live without it', async () => {
     const tech = await as('tech-a@test.example');
     const sawId = world.saws.A![0]!.id;
     const run = (await install(tech, sawId, { installedAt: minutesAgo(100) })).body.run;
@@ -385,9 +385,18 @@ describe('who may see and write blade runs', () => {
       .post('/api/cut-logs')
       .send({ sawId, stock: { shape: { kind: 'square_bar', sideMm: 50 } }, materialGroup: 'carbon_steel' })
       .expect(201);
-    expect((await tech.delete(`/api/blade-runs/${run.id}`)).status).toBe(403);
-    expect((await (await as('siteadmin-a@test.example')).delete(`/api/blade-runs/${run.id}`)).status).toBe(204);
+    expect((await tech.delete(`/api/blade-runs/${run.id}`).send({ reason: 'Entered by mistake' })).status).toBe(403);
+    expect(
+      (
+        await (
+          await as('siteadmin-a@test.example')
+        )
+          .delete(`/api/blade-runs/${run.id}`)
+          .send({ reason: 'Entered by mistake' })
+      ).status,
+    ).toBe(204);
     expect(await count('blade_runs')).toBe(0);
     expect(await count('cut_logs WHERE blade_run_id IS NULL')).toBe(1);
+    expect(await count(`removed_records WHERE subject = 'BladeRun'`)).toBe(1);
   });
 });

@@ -5,6 +5,7 @@ import type { Page } from '@kerfline/domain/common/schema';
 import type { CutLog as CutLogDto, CutLogCreateParsed, CutLogListQuery } from '@kerfline/domain/cut-logs/schema';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import type { BladeMaterial } from '@kerfline/domain/checks/schema';
+import type { RemoveRecordInput } from '@kerfline/domain/removed-records/schema';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
 import { writeAudit, type Actor } from '../../audit/write-audit.js';
@@ -13,6 +14,7 @@ import { Site } from '../sites/site.model.js';
 import { pitchOf } from '../blade-specs/blade-spec-dto.js';
 import { auditCopy, orderOf, sawForWrite, select, siteEffectiveSettings } from '../records/record-support.js';
 import { cutLogFigures } from '../records/trade.js';
+import { removeToKept } from '../removed-records/keep-records.js';
 import { CutLog } from './cut-log.model.js';
 
 function toDto(log: CutLog): CutLogDto {
@@ -125,17 +127,18 @@ export async function createCutLog({ ability, userId }: Actor, input: CutLogCrea
   return toDto(log);
 }
 
-export async function deleteCutLog({ ability, userId }: Actor, id: string): Promise<void> {
+/** Removes a cut log entered by mistake to the kept records (it can be put back); site admins only. */
+export async function deleteCutLog(
+  { ability, userId }: Actor,
+  id: string,
+  { reason }: RemoveRecordInput,
+): Promise<void> {
   const log = await findReadableLog(ability, id);
   ForbiddenError.from(ability)
     .setMessage('You cannot delete this cut log')
     .throwUnlessCan('delete', subject('CutLog', log.get({ plain: true })));
   await sawForWrite(ability, log.sawId, 'delete', 'CutLog');
-  await inTransaction(async (transaction) => {
-    const before = auditCopy(log);
-    await log.destroy({ transaction });
-    await writeAudit(transaction, userId, [
-      { siteId: log.siteId, entity: 'CutLog', entityId: log.id, action: 'delete', before },
-    ]);
-  });
+  await inTransaction((transaction) =>
+    removeToKept(transaction, null, { subject: 'CutLog', recordId: log.id, reason, userId }),
+  );
 }

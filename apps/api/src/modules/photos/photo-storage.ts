@@ -16,6 +16,12 @@ export interface PhotoStorage {
   get(photoId: string, variant: PhotoVariant): Promise<{ bytes: Buffer; contentType: string | null } | null>;
   /** The database store deletes with the photo row (foreign key cascade); other stores remove here. */
   remove(photoId: string, transaction: Transaction): Promise<void>;
+  /**
+   * Keeps the bytes of photos being removed to the kept records (`removedRecordId`), before their rows leave
+   * the live tables; `bringBack` makes them served again when the record is put back.
+   */
+  keep(photoIds: readonly string[], removedRecordId: string, transaction: Transaction): Promise<void>;
+  bringBack(photoIds: readonly string[], transaction: Transaction): Promise<void>;
 }
 
 /** Photo bytes in the `photo_blobs` table (bytea), one row per photo. */
@@ -41,6 +47,28 @@ export class DatabasePhotoStorage implements PhotoStorage {
       { replacements: { photoId }, type: QueryTypes.SELECT },
     );
     return row ? { bytes: row.bytes, contentType: row.content_type } : null;
+  }
+
+  /** Copies the bytes to `removed_photo_blobs`; the live row goes with the photo's row (cascade). */
+  async keep(photoIds: readonly string[], removedRecordId: string, transaction: Transaction) {
+    if (photoIds.length === 0) return;
+    await this.sequelize.query(
+      `INSERT INTO removed_photo_blobs (photo_id, removed_record_id, image, thumbnail, thumbnail_type)
+         SELECT photo_id, :removedRecordId, image, thumbnail, thumbnail_type FROM photo_blobs
+          WHERE photo_id IN (:photoIds)`,
+      { replacements: { photoIds, removedRecordId }, transaction },
+    );
+  }
+
+  /** Moves the kept bytes back beside the photo rows just put back. */
+  async bringBack(photoIds: readonly string[], transaction: Transaction) {
+    if (photoIds.length === 0) return;
+    await this.sequelize.query(
+      `WITH back AS (DELETE FROM removed_photo_blobs WHERE photo_id IN (:photoIds) RETURNING *)
+       INSERT INTO photo_blobs (photo_id, image, thumbnail, thumbnail_type)
+         SELECT photo_id, image, thumbnail, thumbnail_type FROM back`,
+      { replacements: { photoIds }, transaction },
+    );
   }
 
   async remove(photoId: string, transaction: Transaction) {

@@ -5,6 +5,7 @@ import { idSchema } from '@kerfline/domain/common/schema';
 import { MAX_PHOTO_BYTES, photoUploadFieldsSchema } from '@kerfline/domain/photos/schema';
 import { abilityOf, actorOf } from '../../http/authenticate.js';
 import { parsed, validate } from '../../http/validate.js';
+import { removalOf, requireRemovalReason } from '../../http/removal-reason.js';
 import { AppError } from '../../errors.js';
 import { unreadableForm } from '../../http/multipart.js';
 import type { PhotoStorage } from './photo-storage.js';
@@ -93,8 +94,8 @@ export function photosRouter(storage: PhotoStorage): Router {
       res.set('Cache-Control', 'private, max-age=3600').type(contentType).send(bytes);
     });
   }
-  router.delete('/photos/:id', validate('params', params), async (_req, res) => {
-    await deletePhoto(storage, actorOf(res), parsed(res, 'params', params).id);
+  router.delete('/photos/:id', validate('params', params), requireRemovalReason(), async (_req, res) => {
+    await deletePhoto(storage, actorOf(res), parsed(res, 'params', params).id, removalOf(res));
     res.status(204).end();
   });
   return router;

@@ -9,6 +9,7 @@ import {
   type PhotoType,
   type PhotoUploadFields,
 } from '@kerfline/domain/photos/schema';
+import type { RemoveRecordInput } from '@kerfline/domain/removed-records/schema';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
 import { writeAudit, type Actor } from '../../audit/write-audit.js';
@@ -16,6 +17,7 @@ import { inTransaction } from '../../db/models.js';
 import { BladeRun } from '../blade-runs/blade-run.model.js';
 import { CheckRecord } from '../site-checks/check-record.model.js';
 import { auditCopy, sawForWrite } from '../records/record-support.js';
+import { removeToKept } from '../removed-records/keep-records.js';
 import { Photo } from './photo.model.js';
 import type { PhotoStorage, PhotoVariant } from './photo-storage.js';
 
@@ -195,17 +197,18 @@ export async function photoBytes(storage: PhotoStorage, ability: AppAbility, id:
   return { bytes: stored.bytes, contentType: stored.contentType ?? photo.contentType };
 }
 
-export async function deletePhoto(storage: PhotoStorage, { ability, userId }: Actor, id: string): Promise<void> {
+/** Removes a photo to the kept records, bytes kept, so it can be put back; site admins only. */
+export async function deletePhoto(
+  storage: PhotoStorage,
+  { ability, userId }: Actor,
+  id: string,
+  { reason }: RemoveRecordInput,
+): Promise<void> {
   const photo = await readablePhoto(ability, id);
   ForbiddenError.from(ability)
-    .setMessage('You cannot delete this photo')
+    .setMessage('You cannot remove this photo')
     .throwUnlessCan('delete', subject('Photo', photo.get({ plain: true })));
-  await inTransaction(async (transaction) => {
-    const before = auditCopy(photo);
-    await storage.remove(photo.id, transaction);
-    await photo.destroy({ transaction });
-    await writeAudit(transaction, userId, [
-      { siteId: photo.siteId, entity: 'Photo', entityId: photo.id, action: 'delete', before },
-    ]);
-  });
+  await inTransaction((transaction) =>
+    removeToKept(transaction, storage, { subject: 'Photo', recordId: photo.id, reason, userId }),
+  );
 }

@@ -149,12 +149,22 @@ describe('attaching photos to a blade run', () => {
     expect(await count('photos')).toBe(1);
   });
 
-  it('lets a site admin delete a photo (audited), not the technician', async () => {
+  it('lets a site admin remove a photo to the kept records (bytes kept, audited), not the technician', async () => {
     const tech = await as('tech-a@test.example');
     const photo = (await tech.post(`/api/blade-runs/${runA}/photos`).attach('photo', await image('png'), 'a.png')).body;
-    expect((await tech.delete(`/api/photos/${photo.id}`)).status).toBe(403);
-    expect((await (await as('siteadmin-a@test.example')).delete(`/api/photos/${photo.id}`)).status).toBe(204);
+    expect((await tech.delete(`/api/photos/${photo.id}`).send({ reason: 'Entered by mistake' })).status).toBe(403);
+    expect(
+      (
+        await (
+          await as('siteadmin-a@test.example')
+        )
+          .delete(`/api/photos/${photo.id}`)
+          .send({ reason: 'Entered by mistake' })
+      ).status,
+    ).toBe(204);
     expect(await count('photo_blobs')).toBe(0);
+    expect(await count('removed_photo_blobs')).toBe(1);
     expect(await count(`audit_entries WHERE entity = 'Photo'`)).toBe(2);
+    expect(await count(`audit_entries WHERE entity = 'RemovedRecord' AND action = 'create'`)).toBe(1);
   });
 });

@@ -24,13 +24,15 @@ import type {
   SawCheck,
   SawChecks,
 } from '@kerfline/domain/site-checks/schema';
+import type { RemoveRecordInput } from '@kerfline/domain/removed-records/schema';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
 import { writeAudit, type Actor } from '../../audit/write-audit.js';
 import { inTransaction } from '../../db/models.js';
 import { HEAD_FORCE_SET_SQL, Saw } from '../saws/saw.model.js';
 import { Site } from '../sites/site.model.js';
-import { Photo } from '../photos/photo.model.js';
+import type { PhotoStorage } from '../photos/photo-storage.js';
+import { removeToKept } from '../removed-records/keep-records.js';
 import { auditCopy, namesOf, orderOf, sawForWrite, select, siteEffectiveSettings } from '../records/record-support.js';
 import { CheckRecord } from './check-record.model.js';
 import { SiteCheck } from './site-check.model.js';
@@ -243,28 +245,20 @@ export async function recordCheck({ ability, userId }: Actor, input: CheckRecord
   return getCheckRecord(ability, record.id);
 }
 
-/** Deletes a recorded check (a site admin's correction) with its photos; audited. */
-export async function deleteCheckRecord({ ability, userId }: Actor, id: string): Promise<void> {
+/** Removes a recorded check (a site admin's correction) with its photos to the kept records; it can be put back. */
+export async function deleteCheckRecord(
+  storage: PhotoStorage,
+  { ability, userId }: Actor,
+  id: string,
+  { reason }: RemoveRecordInput,
+): Promise<void> {
   const record = await readableCheckRecord(ability, id);
   ForbiddenError.from(ability)
-    .setMessage('Only an administrator or this site’s admin can delete a recorded check')
+    .setMessage('Only an administrator or this site’s admin can remove a recorded check')
     .throwUnlessCan('delete', subject('CheckRecord', { id: record.id, siteId: record.siteId }));
-  await inTransaction(async (transaction) => {
-    // Its photos go with it (foreign key cascade, bytes included); each is audited as deleted.
-    const photos = await Photo.findAll({ where: { checkRecordId: record.id }, transaction });
-    const before = auditCopy(record, ['sawAssetTag', 'checkName', 'photoCount']);
-    await CheckRecord.destroy({ where: { id: record.id }, transaction });
-    await writeAudit(transaction, userId, [
-      ...photos.map((p) => ({
-        siteId: p.siteId,
-        entity: 'Photo',
-        entityId: p.id,
-        action: 'delete' as const,
-        before: auditCopy(p),
-      })),
-      { siteId: record.siteId, entity: 'CheckRecord', entityId: record.id, action: 'delete', before },
-    ]);
-  });
+  await inTransaction((transaction) =>
+    removeToKept(transaction, storage, { subject: 'CheckRecord', recordId: record.id, reason, userId }),
+  );
 }
 
 const dueDto = (r: StatusRow): DueCheck => ({

@@ -13,6 +13,8 @@ import {
 } from '@kerfline/domain/site-checks/schema';
 import { abilityOf, actorOf } from '../../http/authenticate.js';
 import { parsed, validate } from '../../http/validate.js';
+import { removalOf, requireRemovalReason } from '../../http/removal-reason.js';
+import type { PhotoStorage } from '../photos/photo-storage.js';
 import {
   createSiteCheck,
   deleteSiteCheck,
@@ -36,8 +38,11 @@ import { CHECK_RECORD_HEADER, checkRecordCells } from '../records/record-csv.js'
 const params = z.object({ id: idSchema });
 const siteParams = z.object({ siteId: idSchema });
 
-/** A site's list of checks, checks recorded on saws, and which are due and overdue. */
-export function siteChecksRouter(): Router {
+/**
+ * A site's list of checks, checks recorded on saws, and which are due and overdue. `storage` keeps the photos of
+ * a recorded check that is removed.
+ */
+export function siteChecksRouter(storage: PhotoStorage): Router {
   const router = Router();
 
   router.get(
@@ -126,8 +131,8 @@ export function siteChecksRouter(): Router {
   router.post('/check-records', validate('body', checkRecordCreateSchema), async (_req, res) => {
     res.status(201).json(await recordCheck(actorOf(res), parsed(res, 'body', checkRecordCreateSchema)));
   });
-  router.delete('/check-records/:id', validate('params', params), async (_req, res) => {
-    await deleteCheckRecord(actorOf(res), parsed(res, 'params', params).id);
+  router.delete('/check-records/:id', validate('params', params), requireRemovalReason(), async (_req, res) => {
+    await deleteCheckRecord(storage, actorOf(res), parsed(res, 'params', params).id, removalOf(res));
     res.status(204).end();
   });
   return router;

@@ -402,8 +402,18 @@ describe('recording a check', () => {
     ).toBe(0);
     expect((await (await as('lead-north@test.example')).get(`/api/check-records/${own.body.id}`)).status).toBe(200);
     expect((await (await as('manager-ac@test.example')).get(`/api/check-records?passed=true`)).body.total).toBe(1);
-    expect((await techA.delete(`/api/check-records/${own.body.id}`)).status).toBe(403);
-    expect((await (await as('siteadmin-a@test.example')).delete(`/api/check-records/${own.body.id}`)).status).toBe(204);
+    expect(
+      (await techA.delete(`/api/check-records/${own.body.id}`).send({ reason: 'Entered by mistake' })).status,
+    ).toBe(403);
+    expect(
+      (
+        await (
+          await as('siteadmin-a@test.example')
+        )
+          .delete(`/api/check-records/${own.body.id}`)
+          .send({ reason: 'Entered by mistake' })
+      ).status,
+    ).toBe(204);
   });
 });
 
@@ -447,10 +457,19 @@ describe('photos of a recorded check', () => {
           .attach('photo', await png(), 'p.png')
       ).status,
     ).toBe(403);
-    // Deleting the record takes its photo and the photo's bytes with it, audited.
-    expect((await (await as('siteadmin-a@test.example')).delete(`/api/check-records/${record.id}`)).status).toBe(204);
+    // Removing the record takes its photo and the photo's bytes with it to the kept records, audited.
+    expect(
+      (
+        await (
+          await as('siteadmin-a@test.example')
+        )
+          .delete(`/api/check-records/${record.id}`)
+          .send({ reason: 'Entered by mistake' })
+      ).status,
+    ).toBe(204);
     expect(await count('photos')).toBe(0);
     expect(await count('photo_blobs')).toBe(0);
+    expect(await count('removed_photo_blobs')).toBe(1);
     expect(await count(`audit_entries WHERE entity = 'Photo' AND action = 'delete'`)).toBe(1);
   });
 });

@@ -10,6 +10,7 @@ import {
 import { idSchema } from '@kerfline/domain/common/schema';
 import { abilityOf, actorOf } from '../../http/authenticate.js';
 import { parsed, validate } from '../../http/validate.js';
+import { removalOf, requireRemovalReason } from '../../http/removal-reason.js';
 import { createStop, deleteStop, endStop, getStop, listStops, updateStop } from './stops.service.js';
 import { exportName, exportScope, streamListCsv } from '../records/record-export.js';
 import { STOP_HEADER, stopCells } from '../records/record-csv.js';
@@ -48,8 +49,8 @@ export function stopsRouter(): Router {
     const { id } = parsed(res, 'params', params);
     res.json(await updateStop(actorOf(res), id, parsed(res, 'body', stopUpdateSchema)));
   });
-  router.delete('/stops/:id', validate('params', params), async (_req, res) => {
-    await deleteStop(actorOf(res), parsed(res, 'params', params).id);
+  router.delete('/stops/:id', validate('params', params), requireRemovalReason(), async (_req, res) => {
+    await deleteStop(actorOf(res), parsed(res, 'params', params).id, removalOf(res));
     res.status(204).end();
   });
   return router;

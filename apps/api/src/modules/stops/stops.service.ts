@@ -10,6 +10,7 @@ import {
   type StopListQuery,
   type StopUpdate,
 } from '@kerfline/domain/stops/schema';
+import type { RemoveRecordInput } from '@kerfline/domain/removed-records/schema';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { AppError } from '../../errors.js';
 import { writeAudit, type Actor } from '../../audit/write-audit.js';
@@ -24,6 +25,7 @@ import {
   select,
   siteTimeZone,
 } from '../records/record-support.js';
+import { removeToKept } from '../removed-records/keep-records.js';
 import { Stop } from './stop.model.js';
 
 const DERIVED = {
@@ -210,13 +212,10 @@ export async function updateStop({ ability, userId }: Actor, id: string, patch: 
   return getStop(ability, id);
 }
 
-export async function deleteStop({ ability, userId }: Actor, id: string): Promise<void> {
+/** Removes a stop entered by mistake to the kept records (it can be put back); site admins only. */
+export async function deleteStop({ ability, userId }: Actor, id: string, { reason }: RemoveRecordInput): Promise<void> {
   const stop = await stopForWrite(ability, id, 'delete');
-  await inTransaction(async (transaction) => {
-    const before = auditValues(stop);
-    await stop.destroy({ transaction });
-    await writeAudit(transaction, userId, [
-      { siteId: stop.siteId, entity: 'Stop', entityId: stop.id, action: 'delete', before },
-    ]);
-  });
+  await inTransaction((transaction) =>
+    removeToKept(transaction, null, { subject: 'Stop', recordId: stop.id, reason, userId }),
+  );
 }

@@ -222,7 +222,7 @@ describe('who may log and see stops', () => {
     expect(await count('stops')).toBe(3);
   });
 
-  it('lets only site admins delete a stop, and records the deletion', async () => {
+  it('lets only site admins remove a stop (kept, with the reason), and records the removal', async () => {
     const stop = (
       await (
         await as('tech-a@test.example')
@@ -230,9 +230,21 @@ describe('who may log and see stops', () => {
         .post('/api/stops')
         .send({ sawId: world.saws.A![0]!.id, category: 'other' })
     ).body;
-    expect((await (await as('tech-a@test.example')).delete(`/api/stops/${stop.id}`)).status).toBe(403);
-    expect((await (await as('siteadmin-a@test.example')).delete(`/api/stops/${stop.id}`)).status).toBe(204);
+    expect(
+      (await (await as('tech-a@test.example')).delete(`/api/stops/${stop.id}`).send({ reason: 'Entered by mistake' }))
+        .status,
+    ).toBe(403);
+    expect(
+      (
+        await (
+          await as('siteadmin-a@test.example')
+        )
+          .delete(`/api/stops/${stop.id}`)
+          .send({ reason: 'Entered by mistake' })
+      ).status,
+    ).toBe(204);
     expect(await count('stops')).toBe(0);
+    expect(await count(`removed_records WHERE subject = 'Stop' AND reason = 'Entered by mistake'`)).toBe(1);
     expect(await count(`audit_entries WHERE entity = 'Stop' AND action = 'delete'`)).toBe(1);
   });
 

@@ -199,8 +199,11 @@ describe('recording a check on a saw', () => {
     expect(reading).toHaveAccessibleDescription('Measured clearance must be at most 10 mm');
   });
 
-  it('takes the chip brush’s two answers', async () => {
-    const fake = api('site_admin', { 'POST /api/check-records': failedRecord });
+  it('takes the chip brush’s two answers, and lets the site admin remove a record made by mistake', async () => {
+    const fake = api('site_admin', {
+      'POST /api/check-records': failedRecord,
+      [`DELETE /api/check-records/${id(400)}`]: { status: 204 },
+    });
     const { user } = renderApp(`/saws/${SAW_ID}/record-check?check=${id(103)}`);
     await screen.findByRole('group', { name: 'Does the brush reach into the gullets?' });
     await user.click(
@@ -220,6 +223,18 @@ describe('recording a check on a saw', () => {
     expect(fake.requests.find((r) => r.method === 'POST')!.body).toMatchObject({
       siteCheckId: id(103),
       answers: { reachesGullets: true, worn: false },
+    });
+
+    // The site admin may remove it at once, saying why; it is kept and can be put back.
+    await user.click(screen.getByRole('button', { name: 'Remove this recorded check…' }));
+    const panel = screen.getByRole('region', { name: 'Remove this recorded check?' });
+    expect(panel).toHaveTextContent('can put it back from Removed entries');
+    await user.type(within(panel).getByRole('textbox', { name: 'Why is it being removed?' }), 'Wrong saw');
+    await user.click(within(panel).getByRole('button', { name: 'Remove the recorded check' }));
+    expect(await screen.findByText('The recorded check was removed.')).toBeInTheDocument();
+    expect(fake.requests.find((r) => r.method === 'DELETE')).toMatchObject({
+      path: `/api/check-records/${id(400)}`,
+      body: { reason: 'Wrong saw' },
     });
   });
 

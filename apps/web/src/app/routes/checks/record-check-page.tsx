@@ -9,7 +9,9 @@ import { Notice } from '../../../lib/ui/notice';
 import { sawDetailQuery } from '../../../features/saws/api/queries';
 import { siteDetailQuery } from '../../../features/sites/api/queries';
 import { sawChecksQuery } from '../../../features/checks/api/queries';
-import { useRecordCheck } from '../../../features/checks/api/mutations';
+import { useRecordCheck, useRemoveCheckRecord } from '../../../features/checks/api/mutations';
+import { RemoveEntry } from '../../../features/removed-records/components/remove-entry';
+import { useRefreshRemovedRecords } from '../../../features/removed-records/api/mutations';
 import { RecordCheckForm, RecordedResult } from '../../../features/checks/components/record-check-form';
 
 export function recordCheckPageLoader(queryClient: QueryClient) {
@@ -34,6 +36,10 @@ export function RecordCheckPage() {
   const record = useRecordCheck(saw.id, saw.siteId);
   const [saved, setSaved] = useState<{ record: CheckRecord; photoError: string | null } | null>(null);
   const [round, setRound] = useState(0);
+  const removeRecord = useRemoveCheckRecord(saw.id, saw.siteId);
+  const [removedNote, setRemovedNote] = useState(false);
+  const refreshRemoved = useRefreshRemovedRecords();
+  const canRemove = ability.can('delete', subject('CheckRecord', { id: '', siteId: saw.siteId }));
   const canRecord =
     saw.status !== 'retired' && ability.can('create', subject('CheckRecord', { id: '', siteId: saw.siteId }));
 
@@ -79,17 +85,40 @@ export function RecordCheckPage() {
               Back to {saw.assetTag}
             </LinkButton>
           </div>
+          {canRemove ? (
+            <RemoveEntry
+              noun="recorded check"
+              goesWith="Its photo goes with it, and the check is due again if it was due before."
+              onRemove={async ({ reason }) => {
+                await removeRecord.mutateAsync({ recordId: saved.record.id, reason });
+                await refreshRemoved();
+                setSaved(null);
+                setRemovedNote(true);
+                setRound((n) => n + 1);
+              }}
+            />
+          ) : null}
         </div>
       ) : (
-        <RecordCheckForm
-          key={round}
-          sawId={saw.id}
-          checks={checks.items}
-          system={site.unitSystem}
-          timeZone={site.timeZone}
-          askedCheckId={round === 0 ? search.get('check') : null}
-          onSave={async (input, photo) => setSaved(await record.mutateAsync({ input, photo }))}
-        />
+        <>
+          {removedNote ? (
+            <Notice tone="info" title="The recorded check was removed.">
+              It is kept: the site’s admin or an administrator can put it back from Removed entries.
+            </Notice>
+          ) : null}
+          <RecordCheckForm
+            key={round}
+            sawId={saw.id}
+            checks={checks.items}
+            system={site.unitSystem}
+            timeZone={site.timeZone}
+            askedCheckId={round === 0 ? search.get('check') : null}
+            onSave={async (input, photo) => {
+              setRemovedNote(false);
+              setSaved(await record.mutateAsync({ input, photo }));
+            }}
+          />
+        </>
       )}
     </div>
   );

@@ -1,4 +1,4 @@
-import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { useQueryClient, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
 import { subject } from '@casl/ability';
 import { REMOVAL_REASON_LABELS } from '@kerfline/domain/diagnosis/schema';
@@ -8,11 +8,14 @@ import { RunPhotos } from '../../../features/blade-runs/components/run-photos';
 import { AddPhotos } from '../../../features/blade-runs/components/add-photos';
 import { ConfirmCauseForm } from '../../../features/blade-runs/components/confirm-cause-form';
 import { BreakInAnswer } from '../../../features/blade-runs/components/break-in-answer';
+import { useRemoveRunEntry, useRemoveRunPhoto } from '../../../features/blade-runs/api/mutations';
+import { RemoveEntry } from '../../../features/removed-records/components/remove-entry';
+import { useRefreshRemovedRecords } from '../../../features/removed-records/api/mutations';
 import { siteDetailQuery } from '../../../features/sites/api/queries';
 import { useAppAbility } from '../../../lib/ability';
 import { StatusMark } from '../../../lib/ui/status-mark';
 import { RecordBreadcrumb, RecordHistoryCard, Section } from './record-frame';
-import { refreshAfterSawRecord } from './refresh';
+import { refreshAfterSawRecord, type ReturnNotice } from './refresh';
 
 export function bladeRunPageLoader(queryClient: QueryClient) {
   return async ({ params }: LoaderFunctionArgs) => {
@@ -31,6 +34,12 @@ export function BladeRunPage() {
   const ability = useAppAbility();
   const canUpdate = ability.can('update', subject('BladeRun', { id: run.id, siteId: run.siteId }));
   const canAddPhoto = ability.can('create', subject('Photo', { id: '', siteId: run.siteId }));
+  const canRemove = ability.can('delete', subject('BladeRun', { id: run.id, siteId: run.siteId }));
+  const canRemovePhoto = ability.can('delete', subject('Photo', { id: '', siteId: run.siteId }));
+  const removeRun = useRemoveRunEntry();
+  const removePhoto = useRemoveRunPhoto();
+  const refreshRemoved = useRefreshRemovedRecords();
+  const navigate = useNavigate();
   const saw = { id: run.sawId, siteId: run.siteId };
   return (
     <div className="space-y-6">
@@ -60,10 +69,46 @@ export function BladeRunPage() {
         </Section>
       ) : null}
       <Section title="Photos">
-        <RunPhotos runId={run.id} />
+        <RunPhotos
+          runId={run.id}
+          actions={
+            canRemovePhoto
+              ? (photo) => (
+                  <RemoveEntry
+                    compact
+                    noun="photo"
+                    onRemove={async ({ reason }) => {
+                      await removePhoto.mutateAsync({ runId: run.id, photoId: photo.id, reason });
+                      await refreshRemoved();
+                    }}
+                  />
+                )
+              : undefined
+          }
+        />
         {canAddPhoto ? <AddPhotos runId={run.id} /> : null}
       </Section>
       <RecordHistoryCard siteId={run.siteId} entity="BladeRun" entityId={run.id} timeZone={site.timeZone} />
+      {canRemove ? (
+        <RemoveEntry
+          noun="blade run"
+          goesWith={
+            run.photoCount > 0
+              ? `Its ${run.photoCount === 1 ? 'photo goes' : `${run.photoCount} photos go`} with it; its cut logs stay.`
+              : 'Its cut logs stay.'
+          }
+          onRemove={async ({ reason }) => {
+            await removeRun.mutateAsync({ runId: run.id, reason });
+            await Promise.all([refreshAfterSawRecord(queryClient, saw), refreshRemoved()]);
+            const notice: ReturnNotice = {
+              tone: 'info',
+              title: `The blade run of ${run.bladeSpecName} was removed.`,
+              lines: ['It is kept: the site’s admin or an administrator can put it back from Removed entries.'],
+            };
+            await navigate(`/saws/${run.sawId}`, { state: { notice } });
+          }}
+        />
+      ) : null}
     </div>
   );
 }

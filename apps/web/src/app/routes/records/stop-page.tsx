@@ -1,9 +1,12 @@
-import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
+import { useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { useQueryClient, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
 import { subject } from '@casl/ability';
 import { STOP_CATEGORY_LABELS } from '@kerfline/domain/stops/schema';
 import { stopDetailQuery } from '../../../features/stops/api/queries';
 import { durationText } from '../../../features/stops/components/stops-table';
+import { useRemoveStopEntry } from '../../../features/stops/api/mutations';
+import { RemoveEntry } from '../../../features/removed-records/components/remove-entry';
+import { useRefreshRemovedRecords } from '../../../features/removed-records/api/mutations';
 import { siteDetailQuery } from '../../../features/sites/api/queries';
 import { useAppAbility } from '../../../lib/ability';
 import { formatDateTime } from '../../../lib/format';
@@ -11,6 +14,7 @@ import { LinkButton } from '../../../lib/ui/button';
 import { Card } from '../../../lib/ui/card';
 import { StatusMark } from '../../../lib/ui/status-mark';
 import { RecordBreadcrumb, RecordHistoryCard } from './record-frame';
+import { refreshAfterSawRecord, type ReturnNotice } from './refresh';
 
 export function stopPageLoader(queryClient: QueryClient) {
   return async ({ params }: LoaderFunctionArgs) => {
@@ -27,6 +31,11 @@ export function StopPage() {
   const { data: site } = useSuspenseQuery(siteDetailQuery(stop.siteId));
   const ability = useAppAbility();
   const canEnd = !stop.endedAt && ability.can('update', subject('Stop', { id: stop.id, siteId: stop.siteId }));
+  const canRemove = ability.can('delete', subject('Stop', { id: stop.id, siteId: stop.siteId }));
+  const removeStop = useRemoveStopEntry();
+  const refreshRemoved = useRefreshRemovedRecords();
+  const queryClient = useQueryClient();
+  const navigate = useNavigate();
   return (
     <div className="space-y-6">
       <title>{`Stop on ${stop.sawAssetTag} · Kerfline`}</title>
@@ -62,6 +71,24 @@ export function StopPage() {
         </dl>
       </Card>
       <RecordHistoryCard siteId={stop.siteId} entity="Stop" entityId={stop.id} timeZone={site.timeZone} />
+      {canRemove ? (
+        <RemoveEntry
+          noun="stop"
+          onRemove={async ({ reason }) => {
+            await removeStop.mutateAsync({ stopId: stop.id, reason });
+            await Promise.all([
+              refreshAfterSawRecord(queryClient, { id: stop.sawId, siteId: stop.siteId }),
+              refreshRemoved(),
+            ]);
+            const notice: ReturnNotice = {
+              tone: 'info',
+              title: 'The stop was removed.',
+              lines: ['It is kept: the site’s admin or an administrator can put it back from Removed entries.'],
+            };
+            await navigate(`/saws/${stop.sawId}`, { state: { notice } });
+          }}
+        />
+      ) : null}
     </div>
   );
 }

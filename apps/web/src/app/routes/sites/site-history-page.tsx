@@ -21,6 +21,7 @@ export const HISTORY_ENTITIES: Record<string, string> = {
   Photo: 'Photo',
   SiteCheck: 'Check on the list',
   CheckRecord: 'Check recorded',
+  RemovedRecord: 'Removed entry',
   SiteSetting: 'Site setting',
   Saw: 'Saw',
   Site: 'Site',
@@ -54,15 +55,17 @@ export function siteHistoryPageLoader(queryClient: QueryClient) {
 function entityLabel(entry: AuditEntry) {
   const name = HISTORY_ENTITIES[entry.entity] ?? entry.entity;
   const href =
-    entry.action === 'delete'
-      ? null
-      : entry.entity === 'BladeRun'
-        ? `/blade-runs/${entry.entityId}`
-        : entry.entity === 'Stop'
-          ? `/stops/${entry.entityId}`
-          : entry.entity === 'Saw'
-            ? `/saws/${entry.entityId}`
-            : null;
+    entry.entity === 'RemovedRecord' && entry.action === 'create'
+      ? `/sites/${entry.siteId}/removed`
+      : entry.action === 'delete'
+        ? null
+        : entry.entity === 'BladeRun'
+          ? `/blade-runs/${entry.entityId}`
+          : entry.entity === 'Stop'
+            ? `/stops/${entry.entityId}`
+            : entry.entity === 'Saw'
+              ? `/saws/${entry.entityId}`
+              : null;
   return href ? (
     <Link to={href} className="underline decoration-accent decoration-2 underline-offset-4">
       {name}

@@ -9,13 +9,14 @@ const linkClass = ({ isActive }: { isActive: boolean }) =>
 
 /**
  * The site's records, one tap each: its saws, the work of today, stock, blade runs, stops, and (for those who may
- * read it) the history of changes; the list of checks, those due and those recorded.
+ * read it) the history of changes and the removed entries; the list of checks, those due and those recorded.
  */
 export function SiteRecordsNav({ siteId }: { siteId: string }) {
   const ability = useAppAbility();
   const base = `/sites/${siteId}`;
   const canReadStock = ability.can('read', subject('StockReceipt', { id: '', siteId }));
   const canReadHistory = ability.can('read', subject('AuditEntry', { id: '', siteId }));
+  const canPutBack = ability.can('update', subject('RemovedRecord', { id: '', siteId }));
   return (
     <nav aria-label="The site’s records" className="-mx-1 flex gap-2 overflow-x-auto px-1 pb-1">
       <NavLink to={base} end className={linkClass}>
@@ -47,6 +48,11 @@ export function SiteRecordsNav({ siteId }: { siteId: string }) {
       {canReadHistory ? (
         <NavLink to={`${base}/history`} className={linkClass}>
           History
+        </NavLink>
+      ) : null}
+      {canPutBack ? (
+        <NavLink to={`${base}/removed`} className={linkClass}>
+          Removed entries
         </NavLink>
       ) : null}
     </nav>

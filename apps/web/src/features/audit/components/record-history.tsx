@@ -31,6 +31,9 @@ const FIELD_LABELS: Record<string, string> = {
   safetyStock: 'Safety stock',
   name: 'Name',
   caption: 'Caption',
+  // A removed entry (kept, so it can be put back).
+  subject: 'Entry',
+  reason: 'Why it was removed',
 };
 
 /** Columns that say nothing to a reader of the history. */
@@ -49,6 +52,9 @@ const HIDDEN = new Set([
   'confirmedCauseAt',
   'updatedById',
   'uploadedById',
+  'recordId',
+  'photoIds',
+  'relinks',
   'createdAt',
   'updatedAt',
 ]);
@@ -56,7 +62,8 @@ const HIDDEN = new Set([
 export const ACTION_WORDS: Record<AuditAction, string> = {
   create: 'Recorded',
   update: 'Changed',
-  delete: 'Deleted',
+  // Runs, stops, cut logs, photos and recorded checks are kept when removed; other deletions are of unused slips.
+  delete: 'Removed',
   retire: 'Retired',
   restore: 'Brought back',
   undo: 'Undone',

@@ -97,3 +97,34 @@ export function useUpdateBladeRun() {
     onSuccess: (run) => storeSaved(queryClient, run),
   });
 }
+
+/**
+ * Removes a run entered by mistake (kept with the reason, so it can be put back), with its photos. Its detail
+ * leaves the cache; the lists are marked stale.
+ */
+export function useRemoveRunEntry() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ runId, reason }: { runId: string; reason: string }) =>
+      api.delete(`/blade-runs/${encodeURIComponent(runId)}`, null, { reason }),
+    onSuccess: (_none, { runId }) => {
+      queryClient.removeQueries({ queryKey: bladeRunKeys.detail(runId) });
+      return queryClient.invalidateQueries({ queryKey: bladeRunKeys.lists() });
+    },
+  });
+}
+
+/** Removes one photo of a run (kept with the reason, so it can be put back). */
+export function useRemoveRunPhoto() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ photoId, reason }: { runId: string; photoId: string; reason: string }) =>
+      api.delete(`/photos/${encodeURIComponent(photoId)}`, null, { reason }),
+    onSuccess: (_none, { runId }) =>
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: bladeRunKeys.photos(runId) }),
+        queryClient.invalidateQueries({ queryKey: bladeRunKeys.detail(runId), exact: true }),
+        queryClient.invalidateQueries({ queryKey: bladeRunKeys.lists() }),
+      ]),
+  });
+}

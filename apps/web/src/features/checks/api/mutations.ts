@@ -110,3 +110,24 @@ export function useRecordCheck(sawId: string, siteId: string) {
       ]),
   });
 }
+
+/**
+ * Removes a recorded check entered by mistake, with its photos (kept with the reason, so it can be put back). The
+ * saw's checks and the due counts change with it.
+ */
+export function useRemoveCheckRecord(sawId: string, siteId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ recordId, reason }: { recordId: string; reason: string }) =>
+      api.delete(`/check-records/${encodeURIComponent(recordId)}`, null, { reason }),
+    onSuccess: (_none, { recordId }) => {
+      queryClient.removeQueries({ queryKey: checkKeys.recordDetail(recordId) });
+      return Promise.all([
+        queryClient.invalidateQueries({ queryKey: checkKeys.saw(sawId) }),
+        queryClient.invalidateQueries({ queryKey: ['sites', 'checks', siteId] }),
+        queryClient.invalidateQueries({ queryKey: checkKeys.countsAll() }),
+        queryClient.invalidateQueries({ queryKey: checkKeys.records() }),
+      ]);
+    },
+  });
+}

@@ -31,3 +31,16 @@ export function useEndStop() {
     onSuccess: (stop) => storeSaved(queryClient, stop),
   });
 }
+
+/** Removes a stop entered by mistake (kept with the reason, so it can be put back). */
+export function useRemoveStopEntry() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ stopId, reason }: { stopId: string; reason: string }) =>
+      api.delete(`/stops/${encodeURIComponent(stopId)}`, null, { reason }),
+    onSuccess: (_none, { stopId }) => {
+      queryClient.removeQueries({ queryKey: stopKeys.detail(stopId) });
+      return queryClient.invalidateQueries({ queryKey: stopKeys.lists() });
+    },
+  });
+}
