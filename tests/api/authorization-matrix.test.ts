@@ -26,6 +26,7 @@ import { Stop } from '../../apps/api/src/modules/stops/stop.model.js';
 import { CutLog } from '../../apps/api/src/modules/cut-logs/cut-log.model.js';
 import { SiteCheck } from '../../apps/api/src/modules/site-checks/site-check.model.js';
 import { CheckRecord } from '../../apps/api/src/modules/site-checks/check-record.model.js';
+import { RemovedRecord } from '../../apps/api/src/modules/removed-records/removed-record.model.js';
 
 /*
  * The authorization matrix: every API route the router holds × every role × scope → the status it must answer,
@@ -88,6 +89,15 @@ const SITE_ADMIN = (ok = 200): Expect => ({
   lead: [403, 403, 404],
   siteAdmin: [ok, 404, 404],
   tech: [403, 404, 404],
+  anon: 401,
+});
+/** What only administrators and the site's own site admin see at all: everyone else is answered as if it did not exist. */
+const KEEPERS = (ok = 200): Expect => ({
+  admin: each(ok),
+  manager: [404, 404, 404],
+  lead: [404, 404, 404],
+  siteAdmin: [ok, 404, 404],
+  tech: [404, 404, 404],
   anon: 401,
 });
 /** Work logged by the site's technicians as well. */
@@ -398,6 +408,13 @@ const adminSends = async (req: Req, status: number) => {
   if (res.status !== status) throw new Error(`${req.method} ${req.url}: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body as { id: string; batch?: { id: string } };
 };
+/** A stop at the site removed by an administrator (with its reason): the id of its kept record. */
+const freshRemoved = async (c: Code): Promise<string> => {
+  const stop = await freshStop(c);
+  await adminSends(del(`/api/stops/${stop.id}?reason=Entered%20twice`), 204);
+  const kept = await RemovedRecord.findOne({ where: { recordId: stop.id } });
+  return kept!.id;
+};
 const freshPhoto = async (c: Code) =>
   (
     await adminSends(
@@ -704,7 +721,7 @@ const TABLE: Row[] = [
     patch(`/api/blade-runs/${(await freshRun(codeOf(s))).id}`, { installNotes: 'Corrected' }),
   ),
   row('DELETE /api/blade-runs/:id', SITE_ADMIN(204), 'site', async (s) =>
-    del(`/api/blade-runs/${(await freshRun(codeOf(s))).id}`),
+    del(`/api/blade-runs/${(await freshRun(codeOf(s))).id}?reason=Entered%20twice`),
   ),
   row('GET /api/blade-runs/:id/likely-causes', READ(), 'site', (s) =>
     get(`/api/blade-runs/${records[codeOf(s)].run.id}/likely-causes?reason=tooth_strippage`),
@@ -732,7 +749,7 @@ const TABLE: Row[] = [
     patch(`/api/stops/${(await freshStop(codeOf(s))).id}`, { notes: 'Fixed' }),
   ),
   row('DELETE /api/stops/:id', SITE_ADMIN(204), 'site', async (s) =>
-    del(`/api/stops/${(await freshStop(codeOf(s))).id}`),
+    del(`/api/stops/${(await freshStop(codeOf(s))).id}?reason=Entered%20twice`),
   ),
 
   // Cut logs
@@ -748,7 +765,7 @@ const TABLE: Row[] = [
     }),
   ),
   row('DELETE /api/cut-logs/:id', SITE_ADMIN(204), 'site', async (s) =>
-    del(`/api/cut-logs/${(await freshCutLog(codeOf(s))).id}`),
+    del(`/api/cut-logs/${(await freshCutLog(codeOf(s))).id}?reason=Entered%20twice`),
   ),
 
   // Photos
@@ -772,7 +789,7 @@ const TABLE: Row[] = [
   row('GET /api/photos/:id/image', READ(), 'site', (s) => get(`/api/photos/${extra[codeOf(s)].checkPhotoId}/image`)),
   row('GET /api/photos/:id/thumbnail', READ(), 'site', (s) => get(`/api/photos/${extra[codeOf(s)].photoId}/thumbnail`)),
   row('DELETE /api/photos/:id', SITE_ADMIN(204), 'site', async (s) =>
-    del(`/api/photos/${await freshPhoto(codeOf(s))}`),
+    del(`/api/photos/${await freshPhoto(codeOf(s))}?reason=Entered%20twice`),
   ),
 
   // The site's checks and the checks recorded
@@ -830,7 +847,16 @@ const TABLE: Row[] = [
     post('/api/check-records', { sawId: saw0(s), siteCheckId: extra[codeOf(s)].guideId, reading: 1.13 }),
   ),
   row('DELETE /api/check-records/:id', SITE_ADMIN(204), 'site', async (s) =>
-    del(`/api/check-records/${(await freshCheckRecord(codeOf(s))).id}`),
+    del(`/api/check-records/${(await freshCheckRecord(codeOf(s))).id}?reason=Entered%20twice`),
+  ),
+
+  // Removed entries: kept with their reason; only administrators and the site's own admins see or put them back.
+  row('GET /api/removed-records', LIST, 'list', (s) => get(listUrl('/api/removed-records', s))),
+  row('GET /api/removed-records/:id', KEEPERS(), 'site', async (s) =>
+    get(`/api/removed-records/${await freshRemoved(codeOf(s))}`),
+  ),
+  row('POST /api/removed-records/:id/restore', KEEPERS(), 'site', async (s) =>
+    post(`/api/removed-records/${await freshRemoved(codeOf(s))}/restore`),
   ),
 
   // A saw's story and the sites' tiles
