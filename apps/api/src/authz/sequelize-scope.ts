@@ -197,3 +197,22 @@ function toSql(node: AstNode, columns: Map<string, string>, subject: string, ali
       );
   }
 }
+
+/**
+ * The model fields the caller's rules for (action, subject) look at. Empty when the rules grant everything or
+ * nothing. A summary kept per site may stand in for its records only when this is at most `siteId`.
+ */
+export function scopeFields(ability: AppAbility, action: Action, subject: SubjectName): Set<string> {
+  const fields = new Set<string>();
+  const walk = (node: AstNode): void => {
+    if (node.field !== undefined) {
+      fields.add(node.field);
+      return;
+    }
+    const value = node.value as AstNode | AstNode[];
+    for (const child of Array.isArray(value) ? value : [value]) walk(child);
+  };
+  const ast = rulesToAST(ability, action, subject) as AstNode | null;
+  if (ast !== null) walk(ast);
+  return fields;
+}

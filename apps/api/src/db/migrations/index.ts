@@ -12,6 +12,7 @@ import * as fleetFigures from './20261204-1001-fleet-figures.js';
 import * as sawHeadForce from './20261205-0301-saw-head-force.js';
 import * as removedRecords from './20261206-0101-removed-records.js';
 import * as fleetWideListIndexes from './20261206-1101-fleet-wide-list-indexes.js';
+import * as monthlyRollup from './20261207-0101-monthly-rollup.js';
 
 type Migration = {
   name: string;
@@ -34,4 +35,5 @@ export const migrations: Migration[] = [
   { name: '20261205-0301-saw-head-force', ...sawHeadForce },
   { name: '20261206-0101-removed-records', ...removedRecords },
   { name: '20261206-1101-fleet-wide-list-indexes', ...fleetWideListIndexes },
+  { name: '20261207-0101-monthly-rollup', ...monthlyRollup },
 ];

@@ -2,9 +2,9 @@ import { QueryTypes, type Sequelize } from 'sequelize';
 import type { AppAbility } from '@kerfline/domain/authz/ability';
 import { DOWNTIME_CATEGORIES, FAILURE_CATEGORIES, type DowntimeCategory } from '@kerfline/domain/metrics/schema';
 import { REMOVAL_REASONS, type RemovalReason } from '@kerfline/domain/diagnosis/schema';
-import type { MaterialGroup } from '@kerfline/domain/band-speed/schema';
+import { MATERIAL_GROUPS, type MaterialGroup } from '@kerfline/domain/band-speed/schema';
 import { addMonths, monthStart, monthsOf, type Month } from '@kerfline/domain/fleet/period';
-import { SqlParams, scopeSql } from '../../authz/sequelize-scope.js';
+import { SqlParams, scopeFields, scopeSql } from '../../authz/sequelize-scope.js';
 import { Site } from '../sites/site.model.js';
 import { Saw } from '../saws/saw.model.js';
 import { BladeRun } from '../blade-runs/blade-run.model.js';
@@ -45,7 +45,11 @@ export type FigureScope = {
 };
 
 /** `stops: false` leaves the stops out (all stop figures 0), for a caller that sums them from another level. */
-export type FigureOptions = { stops?: boolean };
+export type FigureOptions = {
+  stops?: boolean;
+  /** `false` reads every month from the records, never the monthly summary (the tests compare the two). */
+  summary?: boolean;
+};
 
 /** One group's (fleet, site or saw) raw figures in one bucket, as SQL summed them. */
 export type RawFigures = {
@@ -86,15 +90,37 @@ const num = (v: unknown): number => (v === null || v === undefined ? 0 : Number(
 const numOrNull = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
 
 /**
- * The sites and saws in scope as CTEs (`sites_in`, `saws_in`); with buckets, the site × bucket and saw × bucket
- * bounds (`site_buckets`, `saw_buckets`) and the saw × month windows in service (`saw_months`) with the months of
- * each bucket (`bucket_months`).
+ * Whether the per-saw, per-month summary (saw_month_runs, saw_month_stops; migration 20261207-0101) may stand
+ * in for the caller's records: only when their rules on runs and stops look at nothing but the site, which is
+ * what the summary keeps. Otherwise every month is read from the records.
  */
-function scopeCtes(scope: FigureScope, params: SqlParams, buckets: Bucket[] | null): string {
+function rollupServes(ability: AppAbility): boolean {
+  const bySiteOnly = (subject: 'BladeRun' | 'Stop') =>
+    [...scopeFields(ability, 'read', subject)].every((field) => field === 'siteId');
+  return bySiteOnly('BladeRun') && bySiteOnly('Stop');
+}
+
+/**
+ * The sites and saws in scope as CTEs (`sites_in`, `saws_in`); the months asked about (`months`), each site's
+ * months with whether the summary serves them (`site_months`: a month that ended by the as-of time, in the
+ * site's zone) and each saw's windows in service (`saw_months`); with buckets, the months of each bucket
+ * (`bucket_months`).
+ */
+function scopeCtes(
+  scope: FigureScope,
+  params: SqlParams,
+  months: Month[],
+  buckets: Bucket[] | null,
+  rollup: boolean,
+): string {
   const siteScope = scopeSql(scope.ability, 'read', 'Site', Site, 's', params);
   const sawScope = scopeSql(scope.ability, 'read', 'Saw', Saw, 'w', params);
   const siteIds = params.add(scope.siteIds);
   const sawFilter = scope.sawIds ? ` AND w.id = ANY(${params.add(scope.sawIds)}::uuid[])` : '';
+  const asOf = params.add(scope.asOf);
+  const monthKeys = params.add(months);
+  const monthStarts = params.add(months.map((m) => `${monthStart(m)} 00:00:00`));
+  const monthEnds = params.add(months.map((m) => `${monthStart(addMonths(m, 1))} 00:00:00`));
   const ctes = [
     `sites_in AS (
       SELECT s.id, s.time_zone FROM sites s WHERE s.id = ANY(${siteIds}::uuid[]) AND ${siteScope}
@@ -107,72 +133,141 @@ function scopeCtes(scope: FigureScope, params: SqlParams, buckets: Bucket[] | nu
         FROM saws w JOIN sites_in s ON s.id = w.site_id
        WHERE ${sawScope}${sawFilter}
     )`,
+    `months AS (
+      SELECT * FROM unnest(${monthKeys}::text[], ${monthStarts}::timestamp[], ${monthEnds}::timestamp[]) AS m(mkey, m0, m1)
+    )`,
+    `site_months AS (
+      SELECT s.id AS site_id, m.mkey, m.m0::date AS mdate,
+             m.m0 AT TIME ZONE s.time_zone AS t0, m.m1 AT TIME ZONE s.time_zone AS t1,
+             (${rollup ? 'TRUE' : 'FALSE'} AND m.m1 AT TIME ZONE s.time_zone <= ${asOf}::timestamptz) AS summed
+        FROM sites_in s CROSS JOIN months m
+    )`,
+    `saw_months AS (
+      SELECT w.id AS saw_id, w.site_id, sm.mkey, sm.summed,
+             GREATEST(sm.t0, w.in_service_from) AS w0,
+             LEAST(sm.t1, w.retired_at, ${asOf}::timestamptz) AS w1
+        FROM saws_in w JOIN site_months sm ON sm.site_id = w.site_id
+    )`,
   ];
   if (buckets) {
-    const asOf = params.add(scope.asOf);
-    const keys = params.add(buckets.map((b) => b.key));
-    const starts = params.add(buckets.map((b) => `${monthStart(b.from)} 00:00:00`));
-    const ends = params.add(buckets.map((b) => `${monthStart(addMonths(b.to, 1))} 00:00:00`));
-    // Stops and scheduled hours are worked out month by month and summed into the buckets (they add up), so a
-    // year and its months read each stop once.
-    const months = [...new Set(buckets.flatMap((b) => monthsOf(b)))].sort();
     const pairs = buckets.flatMap((b) => monthsOf(b).map((m) => [b.key, m] as const));
-    const monthKeys = params.add(months);
-    const monthStarts = params.add(months.map((m) => `${monthStart(m)} 00:00:00`));
-    const monthEnds = params.add(months.map((m) => `${monthStart(addMonths(m, 1))} 00:00:00`));
     const pairBuckets = params.add(pairs.map(([b]) => b));
     const pairMonths = params.add(pairs.map(([, m]) => m));
     ctes.push(
-      `months AS (
-        SELECT * FROM unnest(${monthKeys}::text[], ${monthStarts}::timestamp[], ${monthEnds}::timestamp[]) AS m(mkey, m0, m1)
-      )`,
       `bucket_months AS (
         SELECT * FROM unnest(${pairBuckets}::text[], ${pairMonths}::text[]) AS bm(key, mkey)
-      )`,
-      `saw_months AS (
-        SELECT w.id AS saw_id, w.site_id, m.mkey,
-               GREATEST(m.m0 AT TIME ZONE s.time_zone, w.in_service_from) AS w0,
-               LEAST(m.m1 AT TIME ZONE s.time_zone, w.retired_at, ${asOf}::timestamptz) AS w1
-          FROM saws_in w JOIN sites_in s ON s.id = w.site_id CROSS JOIN months m
-      )`,
-    );
-    ctes.push(
-      `buckets AS (
-        SELECT * FROM unnest(${keys}::text[], ${starts}::timestamp[], ${ends}::timestamp[]) AS b(key, m0, m1)
-      )`,
-      `site_buckets AS (
-        SELECT s.id AS site_id, b.key, b.m0 AT TIME ZONE s.time_zone AS t0, b.m1 AT TIME ZONE s.time_zone AS t1
-          FROM sites_in s CROSS JOIN buckets b
-      )`,
-      `saw_buckets AS (
-        SELECT w.id AS saw_id, w.site_id, b.key,
-               b.m0 AT TIME ZONE s.time_zone AS t0,
-               b.m1 AT TIME ZONE s.time_zone AS t1
-          FROM saws_in w JOIN sites_in s ON s.id = w.site_id CROSS JOIN buckets b
       )`,
     );
   }
   return ctes.join(',\n');
 }
 
-const GROUP_OF: Record<Level, { runs: string; runJoin: string; runGroup: string; stopGroup: string }> = {
-  saw: { runs: 'saw_buckets', runJoin: 'r.saw_id = g.saw_id', runGroup: 'g.saw_id::text', stopGroup: 'g.saw_id::text' },
-  site: {
-    runs: 'site_buckets',
-    runJoin: 'r.site_id = g.site_id',
-    runGroup: 'g.site_id::text',
-    stopGroup: 'g.site_id::text',
-  },
-  fleet: { runs: 'site_buckets', runJoin: 'r.site_id = g.site_id', runGroup: "'fleet'", stopGroup: "'fleet'" },
-};
-
 const sqlList = (values: readonly string[]) => values.map((v) => `'${v}'`).join(', ');
 const FAILURE_LIST = sqlList(FAILURE_CATEGORIES);
 
+/** The summed columns of a month of runs: one row of saw_month_runs, or one run read from the records. */
+const RUN_SUMS = [
+  'blades_used',
+  'spend_minor',
+  'break_in_recorded',
+  'break_in_followed',
+  ...MATERIAL_GROUPS.map((m) => `material_${m}`),
+  'blades_removed',
+  'blades_with_area',
+  'area_mm2',
+  'cuts_sum',
+  'cuts_recorded',
+  'finished_cost_minor',
+  ...REMOVAL_REASONS.map((r) => `reason_${r}`),
+] as const;
+const LIFE_LISTS = ['life_followed', 'life_skipped', 'life_unrecorded'] as const;
+
+/** A run read from the records as a row shaped like the summary's; columns not named are 0 (or empty lists). */
+function runRow(values: Partial<Record<(typeof RUN_SUMS)[number] | (typeof LIFE_LISTS)[number], string>>): string {
+  return [
+    ...RUN_SUMS.map((c) => `${values[c] ?? '0'} AS ${c}`),
+    ...LIFE_LISTS.map((c) => `${values[c] ?? "'{}'::float8[]"} AS ${c}`),
+  ].join(', ');
+}
+
+const lifeIf = (condition: string) =>
+  `CASE WHEN r.area_cut_mm2 IS NOT NULL AND ${condition} THEN ARRAY[r.area_cut_mm2] ELSE '{}'::float8[] END`;
+
+/** How a level groups rows: by saw, by site or all together. */
+const groupOf = (level: Level, alias: string) =>
+  level === 'saw' ? `${alias}.saw_id::text` : level === 'site' ? `${alias}.site_id::text` : `'fleet'`;
+
+/**
+ * `run_months`: the runs of every (group, month, currency) asked about, as rows to be summed: the summary's rows
+ * for months it serves, and each run from the records for the rest (the month still running, or every month
+ * when the summary may not stand in). Runs put on count by install time, runs taken off by removal time, both up
+ * to the as-of time.
+ */
+function runMonthsCte(level: Level, scope: FigureScope, params: SqlParams): string {
+  const asOf = params.add(scope.asOf);
+  const summaryScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'ru', params);
+  const runScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'r', params);
+  const sawIds = scope.sawIds && level !== 'saw' ? params.add(scope.sawIds) : null;
+  // The saw level reads the saws in scope; the others every run of their sites (optionally of some saws only).
+  const sawOf = (alias: string) =>
+    level === 'saw'
+      ? ` AND ${alias}.saw_id IN (SELECT id FROM saws_in)`
+      : sawIds
+        ? ` AND ${alias}.saw_id = ANY(${sawIds}::uuid[])`
+        : '';
+  const materials = Object.fromEntries(
+    MATERIAL_GROUPS.map((m) => [`material_${m}`, `(r.material_group = '${m}')::int`]),
+  );
+  const reasons = Object.fromEntries(REMOVAL_REASONS.map((x) => [`reason_${x}`, `(r.removal_reason = '${x}')::int`]));
+  const records = (time: 'installed_at' | 'removed_at', extra = '') => `
+        SELECT r.* FROM blade_runs r
+         WHERE r.site_id = sm.site_id AND r.${time} >= sm.t0 AND r.${time} < sm.t1
+           AND r.${time} <= ${asOf}::timestamptz AND ${runScope}${sawOf('r')}${extra}
+        OFFSET 0`;
+  return `run_months AS (
+      SELECT ${groupOf(level, 'ru')} AS gid, sm.mkey, ru.currency,
+             ${[...RUN_SUMS, ...LIFE_LISTS].map((c) => `ru.${c}`).join(', ')}
+        FROM site_months sm
+        JOIN saw_month_runs ru ON ru.site_id = sm.site_id AND ru.month = sm.mdate
+       WHERE sm.summed AND ${summaryScope}${sawOf('ru')}
+      UNION ALL
+      -- A lateral subquery per site and month: the index range scan of that month's runs (OFFSET 0 keeps the
+      -- planner from flattening it into one scan of the whole table).
+      SELECT ${groupOf(level, 'r')}, sm.mkey, r.currency,
+             ${runRow({
+               blades_used: '1',
+               spend_minor: 'r.cost_minor',
+               break_in_recorded: '(r.break_in_followed IS NOT NULL)::int',
+               break_in_followed: 'coalesce(r.break_in_followed, false)::int',
+               ...materials,
+             })}
+        FROM site_months sm CROSS JOIN LATERAL (${records('installed_at')}
+      ) r
+       WHERE NOT sm.summed
+      UNION ALL
+      SELECT ${groupOf(level, 'r')}, sm.mkey, r.currency,
+             ${runRow({
+               blades_removed: '1',
+               blades_with_area: '(r.area_cut_mm2 IS NOT NULL)::int',
+               area_mm2: 'coalesce(r.area_cut_mm2, 0)',
+               cuts_sum: 'coalesce(r.cuts, 0)',
+               cuts_recorded: '(r.cuts IS NOT NULL)::int',
+               finished_cost_minor: 'CASE WHEN r.area_cut_mm2 IS NOT NULL THEN r.cost_minor ELSE 0 END',
+               ...reasons,
+               life_followed: lifeIf('r.break_in_followed'),
+               life_skipped: lifeIf('NOT r.break_in_followed'),
+               life_unrecorded: lifeIf('r.break_in_followed IS NULL'),
+             })}
+        FROM site_months sm CROSS JOIN LATERAL (${records('removed_at')}
+      ) r
+       WHERE NOT sm.summed
+    )`;
+}
+
 /**
  * Every figure of `level` groups (the fleet, each site or each saw) in each bucket, in one statement. The saws
- * and sites come from the caller's scope; runs and stops are read through the indexes named in the migration
- * (a one-month bucket reads that month's rows only).
+ * and sites come from the caller's scope; months that have ended come from the per-saw monthly summary, the
+ * month still running (and open stops) from the records.
  */
 export async function rawFigures(
   sequelize: Sequelize,
@@ -195,89 +290,79 @@ export function figuresStatement(
   options: FigureOptions = {},
 ): { sql: string; bind: unknown[] } {
   const params = new SqlParams();
-  const ctes = scopeCtes(scope, params, buckets);
-  const asOf = params.add(scope.asOf);
-  const runScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'r', params);
+  const months = [...new Set(buckets.flatMap((b) => monthsOf(b)))].sort();
+  const rollup = options.summary !== false && rollupServes(scope.ability);
+  const ctes = scopeCtes(scope, params, months, buckets, rollup);
+  const runMonths = runMonthsCte(level, scope, params);
+  const summaryScope = scopeSql(scope.ability, 'read', 'Stop', Stop, 'rs', params);
   const stopScope = scopeSql(scope.ability, 'read', 'Stop', Stop, 'p', params);
-  // Without stops the clause is FALSE, so the planner reads none; the scope stays in it for its bound values.
-  const stopFilter = options.stops === false ? `FALSE AND ${stopScope}` : stopScope;
-  const g = GROUP_OF[level];
-  const sawFilter = scope.sawIds && level !== 'saw' ? ` AND r.saw_id = ANY(${params.add(scope.sawIds)}::uuid[])` : '';
+  // Without stops the clauses are FALSE, so the planner reads none; the scope stays in them for its bound values.
+  const noStops = options.stops === false ? 'FALSE AND ' : '';
+  const stopGroup = groupOf(level, 'g');
+  const sum = (c: string) => `sum(rm.${c}) AS ${c}`;
   const categoryColumns = DOWNTIME_CATEGORIES.map(
     (c) => `coalesce(sum(hours) FILTER (WHERE category = '${c}'), 0) AS "stop_${c}"`,
   ).join(',\n             ');
+  const summaryCategories = DOWNTIME_CATEGORIES.map((c) => `rs.stop_${c} AS "stop_${c}"`).join(', ');
   const categorySums = DOWNTIME_CATEGORIES.map((c) => `sum(sm."stop_${c}") AS "stop_${c}"`).join(',\n             ');
-  const reasonColumns = REMOVAL_REASONS.map(
-    (reason) => `count(*) FILTER (WHERE r.removal_reason = '${reason}') AS "reason_${reason}"`,
-  ).join(',\n             ');
-
-  const sql = `
-    WITH ${ctes},
-    runs_in AS (
-      SELECT ${g.runGroup} AS gid, g.key,
-             count(*) AS blades_used,
-             count(r.break_in_followed) AS bi_recorded,
-             count(*) FILTER (WHERE r.break_in_followed) AS bi_followed,
-             mode() WITHIN GROUP (ORDER BY r.material_group) AS main_material
-        FROM ${g.runs} g
-        CROSS JOIN LATERAL (
-         -- A lateral subquery per site (or saw) and bucket: the index range scan of that bucket's runs;
-         -- OFFSET 0 keeps the planner from flattening it into one scan of the whole table.
-         SELECT r.* FROM blade_runs r
-          WHERE ${g.runJoin} AND r.installed_at >= g.t0 AND r.installed_at < g.t1
-            AND r.installed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
-         OFFSET 0
-       ) r
-       GROUP BY 1, 2
-    ),
-    runs_out AS (
-      SELECT ${g.runGroup} AS gid, g.key,
-             count(*) AS blades_removed,
-             count(r.area_cut_mm2) AS blades_with_area,
-             coalesce(sum(r.area_cut_mm2), 0) AS area_mm2,
-             avg(r.area_cut_mm2) AS mean_life,
-             percentile_cont(0.5) WITHIN GROUP (ORDER BY r.area_cut_mm2) AS median_life,
-             avg(r.cuts) AS mean_cuts,
-             count(r.area_cut_mm2) FILTER (WHERE r.break_in_followed) AS followed_blades,
-             percentile_cont(0.5) WITHIN GROUP (ORDER BY r.area_cut_mm2) FILTER (WHERE r.break_in_followed) AS followed_median,
-             count(r.area_cut_mm2) FILTER (WHERE r.break_in_followed = false) AS skipped_blades,
-             percentile_cont(0.5) WITHIN GROUP (ORDER BY r.area_cut_mm2) FILTER (WHERE r.break_in_followed = false) AS skipped_median,
-             ${reasonColumns}
-        FROM ${g.runs} g
-        CROSS JOIN LATERAL (
-         -- A lateral subquery per site (or saw) and bucket: the index range scan of that bucket's runs;
-         -- OFFSET 0 keeps the planner from flattening it into one scan of the whole table.
-         SELECT r.* FROM blade_runs r
-          WHERE ${g.runJoin} AND r.removed_at >= g.t0 AND r.removed_at < g.t1
-            AND r.removed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
-         OFFSET 0
-       ) r
-       GROUP BY 1, 2
-    ),
-    scheduled AS (
-      SELECT ${g.stopGroup} AS gid, bm.key,
-             sum(GREATEST(0, extract(epoch FROM (g.w1 - g.w0)))) / 3600.0 AS scheduled_h
-        FROM saw_months g JOIN bucket_months bm ON bm.mkey = g.mkey
-       GROUP BY 1, 2
-    ),
-    stop_months AS (
-      -- Each stop clipped to each month of its saw, summed per group and month before the months go into their
-      -- buckets (everything here adds up), so a year's buckets sort months, not stops.
-      SELECT gid, mkey,
-             sum(hours) AS downtime_h,
-             coalesce(sum(hours) FILTER (WHERE NOT planned), 0) AS unplanned_h,
-             count(*) FILTER (WHERE began AND NOT planned AND category IN (${FAILURE_LIST})) AS failures,
-             coalesce(sum(hours) FILTER (WHERE NOT planned AND category IN (${FAILURE_LIST})), 0) AS failure_h,
-             ${categoryColumns}
-        FROM (
-          SELECT ${g.stopGroup} AS gid, g.mkey, p.category, p.planned,
+  // Each stop clipped to each month of its saw: [w0, w1) (an open stop runs to the as-of time).
+  const clipped = (which: string) => `
+          SELECT ${stopGroup} AS gid, g.mkey, p.category, p.planned,
                  extract(epoch FROM (LEAST(coalesce(p.ended_at, 'infinity'::timestamptz), g.w1)
                                      - GREATEST(p.started_at, g.w0))) / 3600.0 AS hours,
                  (p.started_at >= g.w0 AND p.started_at < g.w1) AS began
             FROM saw_months g
             JOIN stops p ON p.saw_id = g.saw_id
                  AND tstzrange(p.started_at, p.ended_at, '[)') && tstzrange(g.w0, GREATEST(g.w0, g.w1), '[)')
-           WHERE g.w1 > g.w0 AND ${stopFilter}
+           WHERE g.w1 > g.w0 AND ${noStops}${stopScope} AND ${which}`;
+
+  const sql = `
+    WITH ${ctes},
+    ${runMonths},
+    runs_b AS (
+      SELECT rm.gid, bm.key, ${RUN_SUMS.map(sum).join(', ')}
+        FROM run_months rm JOIN bucket_months bm ON bm.mkey = rm.mkey
+       GROUP BY 1, 2
+    ),
+    lives_b AS (
+      -- Medians from each finished blade's area (kept one by one in the summary), so they stay exact.
+      SELECT rm.gid, bm.key,
+             percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) AS median_life,
+             percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 1) AS followed_median,
+             percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 2) AS skipped_median,
+             count(*) FILTER (WHERE l.f = 1) AS life_followed_n,
+             count(*) FILTER (WHERE l.f = 2) AS life_skipped_n
+        FROM run_months rm JOIN bucket_months bm ON bm.mkey = rm.mkey
+        CROSS JOIN LATERAL (
+          SELECT v, 1 FROM unnest(rm.life_followed) v
+          UNION ALL SELECT v, 2 FROM unnest(rm.life_skipped) v
+          UNION ALL SELECT v, 3 FROM unnest(rm.life_unrecorded) v
+        ) l(v, f)
+       GROUP BY 1, 2
+    ),
+    scheduled AS (
+      SELECT ${stopGroup} AS gid, bm.key,
+             sum(GREATEST(0, extract(epoch FROM (g.w1 - g.w0)))) / 3600.0 AS scheduled_h
+        FROM saw_months g JOIN bucket_months bm ON bm.mkey = g.mkey
+       GROUP BY 1, 2
+    ),
+    stop_months AS (
+      -- Finished stops of the months the summary serves, already clipped and summed per saw and month.
+      SELECT ${groupOf(level, 'rs')} AS gid, sm.mkey,
+             rs.downtime_h, rs.unplanned_h, rs.failures, rs.failure_h, ${summaryCategories}
+        FROM site_months sm
+        JOIN saw_month_stops rs ON rs.site_id = sm.site_id AND rs.month = sm.mdate
+       WHERE sm.summed AND ${noStops}${summaryScope} AND rs.saw_id IN (SELECT id FROM saws_in)
+      UNION ALL
+      -- The rest from the records: every stop of a month the summary does not serve, and open stops.
+      SELECT gid, mkey,
+             sum(hours) AS downtime_h,
+             coalesce(sum(hours) FILTER (WHERE NOT planned), 0) AS unplanned_h,
+             count(*) FILTER (WHERE began AND NOT planned AND category IN (${FAILURE_LIST})) AS failures,
+             coalesce(sum(hours) FILTER (WHERE NOT planned AND category IN (${FAILURE_LIST})), 0) AS failure_h,
+             ${categoryColumns}
+        FROM (${clipped('NOT g.summed')}
+          UNION ALL${clipped('g.summed AND p.ended_at IS NULL')}
         ) clipped
        GROUP BY 1, 2
     ),
@@ -291,14 +376,27 @@ export function figuresStatement(
         FROM stop_months sm JOIN bucket_months bm ON bm.mkey = sm.mkey
        GROUP BY 1, 2
     )
-    SELECT ro.*, st.*, ri.blades_used, ri.bi_recorded, ri.bi_followed, ri.main_material, c.scheduled_h,
+    SELECT ro.*, lb.median_life, lb.followed_median, lb.skipped_median, lb.life_followed_n, lb.life_skipped_n, st.*, c.scheduled_h,
            c.gid, c.key -- last, so the joined tables' own gid and key (null where they have no row) never win
       FROM scheduled c
-      LEFT JOIN runs_in ri ON ri.gid = c.gid AND ri.key = c.key
-      LEFT JOIN runs_out ro ON ro.gid = c.gid AND ro.key = c.key
+      LEFT JOIN runs_b ro ON ro.gid = c.gid AND ro.key = c.key
+      LEFT JOIN lives_b lb ON lb.gid = c.gid AND lb.key = c.key
       LEFT JOIN stopped st ON st.gid = c.gid AND st.key = c.key`;
   return { sql, bind: params.values };
 }
+
+/** The material most blades were put on for (ties: the first in alphabetical order), or null with none. */
+function mainMaterialOf(r: Record<string, unknown>): MaterialGroup | null {
+  let best: MaterialGroup | null = null;
+  let most = 0;
+  for (const m of [...MATERIAL_GROUPS].sort()) {
+    const n = num(r[`material_${m}`]);
+    if (n > most) [best, most] = [m, n];
+  }
+  return best;
+}
+
+const ratio = (total: unknown, count: unknown): number | null => (num(count) > 0 ? num(total) / num(count) : null);
 
 /**
  * One row of the statement as figures. Rows come from the saws' schedule, so a group without saws in the scope
@@ -313,21 +411,22 @@ function toRawFigures(r: Record<string, unknown>): RawFigures {
     RemovalReason,
     number
   >;
+  const followed = num(r.life_followed_n);
   return {
     groupId: String(r.gid),
     bucket: String(r.key),
     bladesUsed: num(r.blades_used),
-    breakInRecorded: num(r.bi_recorded),
-    breakInFollowed: num(r.bi_followed),
-    mainMaterial: (r.main_material as MaterialGroup | null) ?? null,
+    breakInRecorded: num(r.break_in_recorded),
+    breakInFollowed: num(r.break_in_followed),
+    mainMaterial: mainMaterialOf(r),
     bladesRemoved: num(r.blades_removed),
     bladesWithArea: num(r.blades_with_area),
     areaCutMm2: num(r.area_mm2),
-    meanLifeMm2: numOrNull(r.mean_life),
+    meanLifeMm2: ratio(r.area_mm2, r.blades_with_area),
     medianLifeMm2: numOrNull(r.median_life),
-    meanCutsPerBlade: numOrNull(r.mean_cuts),
-    lifeFollowed: { blades: num(r.followed_blades), medianMm2: numOrNull(r.followed_median) },
-    lifeSkipped: { blades: num(r.skipped_blades), medianMm2: numOrNull(r.skipped_median) },
+    meanCutsPerBlade: ratio(r.cuts_sum, r.cuts_recorded),
+    lifeFollowed: { blades: followed, medianMm2: numOrNull(r.followed_median) },
+    lifeSkipped: { blades: num(r.life_skipped_n), medianMm2: numOrNull(r.skipped_median) },
     removalReasons,
     scheduledHours: num(r.scheduled_h),
     downtimeHours: num(r.downtime_h),
@@ -349,57 +448,34 @@ export async function moneyRows(
   scope: FigureScope,
   from: Month,
   to: Month,
+  options: Pick<FigureOptions, 'summary'> = {},
 ): Promise<MoneyRow[]> {
   if (scope.siteIds.length === 0) return [];
   const params = new SqlParams();
-  const ctes = scopeCtes(scope, params, null);
-  const runScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'r', params);
-  const m0 = params.add(`${monthStart(from)} 00:00:00`);
-  const m1 = params.add(`${monthStart(addMonths(to, 1))} 00:00:00`);
-  const asOf = params.add(scope.asOf);
-  const sawFilter = scope.sawIds ? ` AND r.saw_id = ANY(${params.add(scope.sawIds)}::uuid[])` : '';
-  const group = level === 'saw' ? 'r.saw_id::text' : level === 'site' ? 'r.site_id::text' : "'fleet'";
+  const rollup = options.summary !== false && rollupServes(scope.ability);
+  const ctes = scopeCtes(scope, params, monthsOf({ from, to }), null, rollup);
   const sql = `
     WITH ${ctes},
-    bounds AS (
-      SELECT s.id AS site_id, s.time_zone,
-             ${m0}::timestamp AT TIME ZONE s.time_zone AS t0, ${m1}::timestamp AT TIME ZONE s.time_zone AS t1
-        FROM sites_in s
-    )
-    SELECT ${group} AS gid, to_char(r.installed_at AT TIME ZONE b.time_zone, 'YYYY-MM') AS month, r.currency,
-           'spend' AS kind, sum(r.cost_minor) AS amount
-      FROM bounds b
-      CROSS JOIN LATERAL (
-       -- A lateral subquery per site (or saw) and bucket: the index range scan of that bucket's runs;
-       -- OFFSET 0 keeps the planner from flattening it into one scan of the whole table.
-       SELECT r.* FROM blade_runs r
-        WHERE r.site_id = b.site_id AND r.installed_at >= b.t0 AND r.installed_at < b.t1
-          AND r.installed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
-       OFFSET 0
-     ) r
-     GROUP BY 1, 2, 3
-    UNION ALL
-    SELECT ${group}, to_char(r.removed_at AT TIME ZONE b.time_zone, 'YYYY-MM'), r.currency,
-           'finished', sum(r.cost_minor)
-      FROM bounds b
-      CROSS JOIN LATERAL (
-       -- A lateral subquery per site (or saw) and bucket: the index range scan of that bucket's runs;
-       -- OFFSET 0 keeps the planner from flattening it into one scan of the whole table.
-       SELECT r.* FROM blade_runs r
-        WHERE r.site_id = b.site_id AND r.removed_at >= b.t0 AND r.removed_at < b.t1
-          AND r.area_cut_mm2 IS NOT NULL AND r.removed_at <= ${asOf}::timestamptz AND ${runScope}${sawFilter}
-       OFFSET 0
-     ) r
+    ${runMonthsCte(level, scope, params)}
+    SELECT gid, mkey AS month, currency, sum(spend_minor) AS spend, sum(blades_used) AS used,
+           sum(finished_cost_minor) AS finished, sum(blades_with_area) AS with_area
+      FROM run_months
      GROUP BY 1, 2, 3`;
-  const rows = await sequelize.query<{ gid: string; month: string; currency: string; kind: string; amount: unknown }>(
-    sql,
-    { bind: params.values, type: QueryTypes.SELECT },
-  );
-  return rows.map((r) => ({
-    groupId: r.gid,
-    month: r.month,
-    currency: r.currency.trim(),
-    kind: r.kind as MoneyRow['kind'],
-    amountMinor: num(r.amount),
-  }));
+  type Row = {
+    gid: string;
+    month: string;
+    currency: string;
+    spend: unknown;
+    used: unknown;
+    finished: unknown;
+    with_area: unknown;
+  };
+  const rows = await sequelize.query<Row>(sql, { bind: params.values, type: QueryTypes.SELECT });
+  return rows.flatMap((r) => {
+    const row = { groupId: r.gid, month: r.month, currency: r.currency.trim() };
+    return [
+      ...(num(r.used) > 0 ? [{ ...row, kind: 'spend' as const, amountMinor: num(r.spend) }] : []),
+      ...(num(r.with_area) > 0 ? [{ ...row, kind: 'finished' as const, amountMinor: num(r.finished) }] : []),
+    ];
+  });
 }
