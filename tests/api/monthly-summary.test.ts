@@ -93,8 +93,8 @@ async function expectFiguresAgree(who: string, asOf: Date, from: Month = '2025-0
     const sortRows = <T extends { groupId: string }>(rows: T[], key: (r: T) => string) =>
       [...rows].sort((a, b) => key(a).localeCompare(key(b)));
     const [viaSummary, fromRecords] = await Promise.all([
-      rawFigures(ctx.sequelize, level, scope, buckets),
-      rawFigures(ctx.sequelize, level, scope, buckets, { summary: false }),
+      rawFigures(ctx.sequelize, level, scope, buckets, { breakInMedians: true }),
+      rawFigures(ctx.sequelize, level, scope, buckets, { summary: false, breakInMedians: true }),
     ]);
     const figureKey = (r: { groupId: string; bucket: string }) => `${r.groupId}|${r.bucket}`;
     expect(tidy(sortRows(viaSummary, figureKey)), `${who} ${level}`).toEqual(tidy(sortRows(fromRecords, figureKey)));

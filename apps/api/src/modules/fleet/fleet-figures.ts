@@ -49,6 +49,8 @@ export type FigureOptions = {
   stops?: boolean;
   /** `false` reads every month from the records, never the monthly summary (the tests compare the two). */
   summary?: boolean;
+  /** Also the median life of blades whose break-in was followed and of those where it was skipped (else null). */
+  breakInMedians?: boolean;
 };
 
 /** One group's (fleet, site or saw) raw figures in one bucket, as SQL summed them. */
@@ -143,19 +145,20 @@ function scopeCtes(
         FROM sites_in s CROSS JOIN months m
     )`,
     `saw_months AS (
-      SELECT w.id AS saw_id, w.site_id, sm.mkey, sm.summed,
+      SELECT w.id AS saw_id, w.site_id, sm.mdate, sm.summed,
              GREATEST(sm.t0, w.in_service_from) AS w0,
              LEAST(sm.t1, w.retired_at, ${asOf}::timestamptz) AS w1
         FROM saws_in w JOIN site_months sm ON sm.site_id = w.site_id
     )`,
   ];
   if (buckets) {
-    const pairs = buckets.flatMap((b) => monthsOf(b).map((m) => [b.key, m] as const));
+    // Buckets by their position (1, 2, …), so the rows sorted for the medians carry a number, not a name.
+    const pairs = buckets.flatMap((b, i) => monthsOf(b).map((m) => [i + 1, monthStart(m)] as const));
     const pairBuckets = params.add(pairs.map(([b]) => b));
     const pairMonths = params.add(pairs.map(([, m]) => m));
     ctes.push(
       `bucket_months AS (
-        SELECT * FROM unnest(${pairBuckets}::text[], ${pairMonths}::text[]) AS bm(key, mkey)
+        SELECT * FROM unnest(${pairBuckets}::int[], ${pairMonths}::date[]) AS bm(b, mdate)
       )`,
     );
   }
@@ -180,22 +183,18 @@ const RUN_SUMS = [
   'finished_cost_minor',
   ...REMOVAL_REASONS.map((r) => `reason_${r}`),
 ] as const;
-const LIFE_LISTS = ['life_followed', 'life_skipped', 'life_unrecorded'] as const;
 
 /** A run read from the records as a row shaped like the summary's; columns not named are 0 (or empty lists). */
-function runRow(values: Partial<Record<(typeof RUN_SUMS)[number] | (typeof LIFE_LISTS)[number], string>>): string {
-  return [
-    ...RUN_SUMS.map((c) => `${values[c] ?? '0'} AS ${c}`),
-    ...LIFE_LISTS.map((c) => `${values[c] ?? "'{}'::float8[]"} AS ${c}`),
-  ].join(', ');
+function runRow(values: Partial<Record<(typeof RUN_SUMS)[number], string>>): string {
+  return RUN_SUMS.map((c) => `${values[c] ?? '0'} AS ${c}`).join(', ');
 }
 
-const lifeIf = (condition: string) =>
-  `CASE WHEN r.area_cut_mm2 IS NOT NULL AND ${condition} THEN ARRAY[r.area_cut_mm2] ELSE '{}'::float8[] END`;
-
+/** The fleet's stand-in id while the statement groups (every group is a uuid, so sorting them stays narrow). */
+const FLEET_GROUP = '00000000-0000-0000-0000-000000000000';
 /** How a level groups rows: by saw, by site or all together. */
 const groupOf = (level: Level, alias: string) =>
-  level === 'saw' ? `${alias}.saw_id::text` : level === 'site' ? `${alias}.site_id::text` : `'fleet'`;
+  level === 'saw' ? `${alias}.saw_id` : level === 'site' ? `${alias}.site_id` : `'${FLEET_GROUP}'::uuid`;
+const groupName = (level: Level, column: string) => (level === 'fleet' ? `'fleet'` : `${column}::text`);
 
 /**
  * `run_months`: the runs of every (group, month, currency) asked about, as rows to be summed: the summary's rows
@@ -203,11 +202,13 @@ const groupOf = (level: Level, alias: string) =>
  * when the summary may not stand in). Runs put on count by install time, runs taken off by removal time, both up
  * to the as-of time.
  */
-function runMonthsCte(level: Level, scope: FigureScope, params: SqlParams): string {
+function runMonthsCte(level: Level, scope: FigureScope, params: SqlParams, months: Month[], lives: boolean): string {
   const asOf = params.add(scope.asOf);
   const summaryScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'ru', params);
   const runScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'r', params);
   const sawIds = scope.sawIds && level !== 'saw' ? params.add(scope.sawIds) : null;
+  const firstMonth = params.add(monthStart(months[0]!));
+  const lastMonth = params.add(monthStart(months[months.length - 1]!));
   // The saw level reads the saws in scope; the others every run of their sites (optionally of some saws only).
   const sawOf = (alias: string) =>
     level === 'saw'
@@ -219,21 +220,24 @@ function runMonthsCte(level: Level, scope: FigureScope, params: SqlParams): stri
     MATERIAL_GROUPS.map((m) => [`material_${m}`, `(r.material_group = '${m}')::int`]),
   );
   const reasons = Object.fromEntries(REMOVAL_REASONS.map((x) => [`reason_${x}`, `(r.removal_reason = '${x}')::int`]));
-  const records = (time: 'installed_at' | 'removed_at', extra = '') => `
+  // A lateral subquery per site and month: the index range scan of that month's runs (OFFSET 0 keeps the planner
+  // from flattening it into one scan of the whole table).
+  const records = (time: 'installed_at' | 'removed_at', extra = '') => `site_months sm CROSS JOIN LATERAL (
         SELECT r.* FROM blade_runs r
          WHERE r.site_id = sm.site_id AND r.${time} >= sm.t0 AND r.${time} < sm.t1
            AND r.${time} <= ${asOf}::timestamptz AND ${runScope}${sawOf('r')}${extra}
-        OFFSET 0`;
-  return `run_months AS (
-      SELECT ${groupOf(level, 'ru')} AS gid, sm.mkey, ru.currency,
-             ${[...RUN_SUMS, ...LIFE_LISTS].map((c) => `ru.${c}`).join(', ')}
-        FROM site_months sm
+        OFFSET 0
+      ) r`;
+  const summary = `site_months sm
         JOIN saw_month_runs ru ON ru.site_id = sm.site_id AND ru.month = sm.mdate
-       WHERE sm.summed AND ${summaryScope}${sawOf('ru')}
+             AND ru.month >= ${firstMonth}::date AND ru.month <= ${lastMonth}::date`;
+  const summaryWhere = `sm.summed AND ${summaryScope}${sawOf('ru')}`;
+  const runMonths = `run_months AS (
+      SELECT ${groupOf(level, 'ru')} AS gid, sm.mdate, ru.currency, ${RUN_SUMS.map((c) => `ru.${c}`).join(', ')}
+        FROM ${summary}
+       WHERE ${summaryWhere}
       UNION ALL
-      -- A lateral subquery per site and month: the index range scan of that month's runs (OFFSET 0 keeps the
-      -- planner from flattening it into one scan of the whole table).
-      SELECT ${groupOf(level, 'r')}, sm.mkey, r.currency,
+      SELECT ${groupOf(level, 'r')}, sm.mdate, r.currency,
              ${runRow({
                blades_used: '1',
                spend_minor: 'r.cost_minor',
@@ -241,11 +245,10 @@ function runMonthsCte(level: Level, scope: FigureScope, params: SqlParams): stri
                break_in_followed: 'coalesce(r.break_in_followed, false)::int',
                ...materials,
              })}
-        FROM site_months sm CROSS JOIN LATERAL (${records('installed_at')}
-      ) r
+        FROM ${records('installed_at')}
        WHERE NOT sm.summed
       UNION ALL
-      SELECT ${groupOf(level, 'r')}, sm.mkey, r.currency,
+      SELECT ${groupOf(level, 'r')}, sm.mdate, r.currency,
              ${runRow({
                blades_removed: '1',
                blades_with_area: '(r.area_cut_mm2 IS NOT NULL)::int',
@@ -254,12 +257,25 @@ function runMonthsCte(level: Level, scope: FigureScope, params: SqlParams): stri
                cuts_recorded: '(r.cuts IS NOT NULL)::int',
                finished_cost_minor: 'CASE WHEN r.area_cut_mm2 IS NOT NULL THEN r.cost_minor ELSE 0 END',
                ...reasons,
-               life_followed: lifeIf('r.break_in_followed'),
-               life_skipped: lifeIf('NOT r.break_in_followed'),
-               life_unrecorded: lifeIf('r.break_in_followed IS NULL'),
              })}
-        FROM site_months sm CROSS JOIN LATERAL (${records('removed_at')}
-      ) r
+        FROM ${records('removed_at')}
+       WHERE NOT sm.summed
+    )`;
+  if (!lives) return runMonths;
+  // Each finished blade's area with how its break-in went (1 followed, 2 skipped, 3 not recorded): from the
+  // summary's lists (one unnest of the three end to end) and from the records for the month still running.
+  return `${runMonths},
+    lives AS (
+      SELECT ${groupOf(level, 'ru')} AS gid, sm.mdate, l.v,
+             CASE WHEN l.i <= cardinality(ru.life_followed) THEN 1
+                  WHEN l.i <= cardinality(ru.life_followed) + cardinality(ru.life_skipped) THEN 2 ELSE 3 END AS f
+        FROM ${summary}
+        CROSS JOIN LATERAL unnest(ru.life_followed || ru.life_skipped || ru.life_unrecorded) WITH ORDINALITY AS l(v, i)
+       WHERE ${summaryWhere}
+      UNION ALL
+      SELECT ${groupOf(level, 'r')}, sm.mdate, r.area_cut_mm2,
+             CASE WHEN r.break_in_followed THEN 1 WHEN NOT r.break_in_followed THEN 2 ELSE 3 END
+        FROM ${records('removed_at', ' AND r.area_cut_mm2 IS NOT NULL')}
        WHERE NOT sm.summed
     )`;
 }
@@ -293,12 +309,17 @@ export function figuresStatement(
   const months = [...new Set(buckets.flatMap((b) => monthsOf(b)))].sort();
   const rollup = options.summary !== false && rollupServes(scope.ability);
   const ctes = scopeCtes(scope, params, months, buckets, rollup);
-  const runMonths = runMonthsCte(level, scope, params);
+  const runMonths = runMonthsCte(level, scope, params, months, true);
   const summaryScope = scopeSql(scope.ability, 'read', 'Stop', Stop, 'rs', params);
   const stopScope = scopeSql(scope.ability, 'read', 'Stop', Stop, 'p', params);
   // Without stops the clauses are FALSE, so the planner reads none; the scope stays in them for its bound values.
   const noStops = options.stops === false ? 'FALSE AND ' : '';
   const stopGroup = groupOf(level, 'g');
+  // The medians with and without break-in sort the blades twice more: worked out only for a caller that shows them.
+  const splitMedians = options.breakInMedians
+    ? `percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 1) AS followed_median,
+             percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 2) AS skipped_median`
+    : 'NULL::float8 AS followed_median, NULL::float8 AS skipped_median';
   const sum = (c: string) => `sum(rm.${c}) AS ${c}`;
   const categoryColumns = DOWNTIME_CATEGORIES.map(
     (c) => `coalesce(sum(hours) FILTER (WHERE category = '${c}'), 0) AS "stop_${c}"`,
@@ -307,7 +328,7 @@ export function figuresStatement(
   const categorySums = DOWNTIME_CATEGORIES.map((c) => `sum(sm."stop_${c}") AS "stop_${c}"`).join(',\n             ');
   // Each stop clipped to each month of its saw: [w0, w1) (an open stop runs to the as-of time).
   const clipped = (which: string) => `
-          SELECT ${stopGroup} AS gid, g.mkey, p.category, p.planned,
+          SELECT ${stopGroup} AS gid, g.mdate, p.category, p.planned,
                  extract(epoch FROM (LEAST(coalesce(p.ended_at, 'infinity'::timestamptz), g.w1)
                                      - GREATEST(p.started_at, g.w0))) / 3600.0 AS hours,
                  (p.started_at >= g.w0 AND p.started_at < g.w1) AS began
@@ -320,42 +341,38 @@ export function figuresStatement(
     WITH ${ctes},
     ${runMonths},
     runs_b AS (
-      SELECT rm.gid, bm.key, ${RUN_SUMS.map(sum).join(', ')}
-        FROM run_months rm JOIN bucket_months bm ON bm.mkey = rm.mkey
+      SELECT rm.gid, bm.b, ${RUN_SUMS.map(sum).join(', ')}
+        FROM run_months rm JOIN bucket_months bm ON bm.mdate = rm.mdate
        GROUP BY 1, 2
     ),
     lives_b AS (
       -- Medians from each finished blade's area (kept one by one in the summary), so they stay exact.
-      SELECT rm.gid, bm.key,
+      SELECT l.gid, bm.b,
              percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) AS median_life,
-             percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 1) AS followed_median,
-             percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 2) AS skipped_median,
+             ${splitMedians},
              count(*) FILTER (WHERE l.f = 1) AS life_followed_n,
              count(*) FILTER (WHERE l.f = 2) AS life_skipped_n
-        FROM run_months rm JOIN bucket_months bm ON bm.mkey = rm.mkey
-        CROSS JOIN LATERAL (
-          SELECT v, 1 FROM unnest(rm.life_followed) v
-          UNION ALL SELECT v, 2 FROM unnest(rm.life_skipped) v
-          UNION ALL SELECT v, 3 FROM unnest(rm.life_unrecorded) v
-        ) l(v, f)
+        FROM lives l JOIN bucket_months bm ON bm.mdate = l.mdate
        GROUP BY 1, 2
     ),
     scheduled AS (
-      SELECT ${stopGroup} AS gid, bm.key,
+      SELECT ${stopGroup} AS gid, bm.b,
              sum(GREATEST(0, extract(epoch FROM (g.w1 - g.w0)))) / 3600.0 AS scheduled_h
-        FROM saw_months g JOIN bucket_months bm ON bm.mkey = g.mkey
+        FROM saw_months g JOIN bucket_months bm ON bm.mdate = g.mdate
        GROUP BY 1, 2
     ),
     stop_months AS (
       -- Finished stops of the months the summary serves, already clipped and summed per saw and month.
-      SELECT ${groupOf(level, 'rs')} AS gid, sm.mkey,
+      SELECT ${groupOf(level, 'rs')} AS gid, sm.mdate,
              rs.downtime_h, rs.unplanned_h, rs.failures, rs.failure_h, ${summaryCategories}
         FROM site_months sm
         JOIN saw_month_stops rs ON rs.site_id = sm.site_id AND rs.month = sm.mdate
+             AND rs.month >= ${params.add(monthStart(months[0]!))}::date
+             AND rs.month <= ${params.add(monthStart(months[months.length - 1]!))}::date
        WHERE sm.summed AND ${noStops}${summaryScope} AND rs.saw_id IN (SELECT id FROM saws_in)
       UNION ALL
       -- The rest from the records: every stop of a month the summary does not serve, and open stops.
-      SELECT gid, mkey,
+      SELECT gid, mdate,
              sum(hours) AS downtime_h,
              coalesce(sum(hours) FILTER (WHERE NOT planned), 0) AS unplanned_h,
              count(*) FILTER (WHERE began AND NOT planned AND category IN (${FAILURE_LIST})) AS failures,
@@ -367,21 +384,22 @@ export function figuresStatement(
        GROUP BY 1, 2
     ),
     stopped AS (
-      SELECT sm.gid, bm.key,
+      SELECT sm.gid, bm.b,
              sum(sm.downtime_h) AS downtime_h,
              sum(sm.unplanned_h) AS unplanned_h,
              sum(sm.failures) AS failures,
              sum(sm.failure_h) AS failure_h,
              ${categorySums}
-        FROM stop_months sm JOIN bucket_months bm ON bm.mkey = sm.mkey
+        FROM stop_months sm JOIN bucket_months bm ON bm.mdate = sm.mdate
        GROUP BY 1, 2
     )
     SELECT ro.*, lb.median_life, lb.followed_median, lb.skipped_median, lb.life_followed_n, lb.life_skipped_n, st.*, c.scheduled_h,
-           c.gid, c.key -- last, so the joined tables' own gid and key (null where they have no row) never win
+           -- last, so the joined tables' own gid and key (null where they have no row) never win
+           ${groupName(level, 'c.gid')} AS gid, (${params.add(buckets.map((b) => b.key))}::text[])[c.b] AS key
       FROM scheduled c
-      LEFT JOIN runs_b ro ON ro.gid = c.gid AND ro.key = c.key
-      LEFT JOIN lives_b lb ON lb.gid = c.gid AND lb.key = c.key
-      LEFT JOIN stopped st ON st.gid = c.gid AND st.key = c.key`;
+      LEFT JOIN runs_b ro ON ro.gid = c.gid AND ro.b = c.b
+      LEFT JOIN lives_b lb ON lb.gid = c.gid AND lb.b = c.b
+      LEFT JOIN stopped st ON st.gid = c.gid AND st.b = c.b`;
   return { sql, bind: params.values };
 }
 
@@ -456,8 +474,9 @@ export async function moneyRows(
   const ctes = scopeCtes(scope, params, monthsOf({ from, to }), null, rollup);
   const sql = `
     WITH ${ctes},
-    ${runMonthsCte(level, scope, params)}
-    SELECT gid, mkey AS month, currency, sum(spend_minor) AS spend, sum(blades_used) AS used,
+    ${runMonthsCte(level, scope, params, monthsOf({ from, to }), false)}
+    SELECT ${groupName(level, 'gid')} AS gid, to_char(mdate, 'YYYY-MM') AS month, currency,
+           sum(spend_minor) AS spend, sum(blades_used) AS used,
            sum(finished_cost_minor) AS finished, sum(blades_with_area) AS with_area
       FROM run_months
      GROUP BY 1, 2, 3`;
