@@ -7,6 +7,7 @@ import helmet from 'helmet';
 import passportModule from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { pinoHttp } from 'pino-http';
+import type { DestinationStream } from 'pino';
 import type { Pool } from 'pg';
 import type { Sequelize } from 'sequelize';
 import { errorHandler, notFoundHandler } from './http/error-handler.js';
@@ -71,6 +72,8 @@ export type AppDeps = {
   /** The address people open Kerfline at: requests from its origin count as Kerfline's own (CSRF check). */
   publicUrl?: string | undefined;
   logLevel?: string;
+  /** Where the request log goes (standard output unless given; the floor benchmark sends it to /dev/null). */
+  logDestination?: DestinationStream;
   /** The job runtime: services queue mail through it; server.ts also runs its workers. */
   jobs: Jobs;
   /** Folder of the local mail catcher (development and tests); set, admins get the outbox page. */
@@ -103,20 +106,23 @@ export function createApp(deps: AppDeps): Express {
   if (deps.trustProxy) app.set('trust proxy', 1);
 
   app.use(
-    pinoHttp({
-      level: deps.logLevel ?? 'info',
-      genReqId: (req, res) => {
-        const id = randomUUID();
-        res.setHeader('X-Request-Id', id);
-        return id;
+    pinoHttp(
+      {
+        level: deps.logLevel ?? 'info',
+        genReqId: (req, res) => {
+          const id = randomUUID();
+          res.setHeader('X-Request-Id', id);
+          return id;
+        },
+        autoLogging: { ignore: (req) => req.url === '/api/health' },
+        // One short line a request: no headers, so no cookies in the log.
+        serializers: {
+          req: (req: { id: string; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+          res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+        },
       },
-      autoLogging: { ignore: (req) => req.url === '/api/health' },
-      // One short line a request: no headers, so no cookies in the log.
-      serializers: {
-        req: (req: { id: string; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
-        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
-      },
-    }),
+      deps.logDestination,
+    ),
   );
   // HSTS and upgrading requests to https only make sense when a TLS-terminating proxy is in front; on plain
   // http (a plant's own server reached by address) they would break the page's own assets.
