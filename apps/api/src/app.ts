@@ -2,7 +2,6 @@ import { randomUUID } from 'node:crypto';
 import path from 'node:path';
 import express, { Router, type Express } from 'express';
 import session from 'express-session';
-import connectPgSimple from 'connect-pg-simple';
 import helmet from 'helmet';
 import passportModule from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
@@ -14,6 +13,7 @@ import { errorHandler, notFoundHandler } from './http/error-handler.js';
 import { requireSignIn } from './http/authenticate.js';
 import { jsonBodiesOnly, noStore, sameOriginOnly } from './http/request-guards.js';
 import { sessionLifetime } from './http/session-lifetime.js';
+import { createSessionStore, touchIntervalMs } from './http/session-store.js';
 import {
   AttemptCounters,
   DEFAULT_ATTEMPT_LIMITS,
@@ -145,36 +145,10 @@ export function createApp(deps: AppDeps): Express {
   app.use(express.json({ limit: '1mb' }));
 
   const sessionIdleMs = deps.sessionIdleMs ?? 12 * 60 * 60 * 1000;
-  const PgStore = connectPgSimple(session);
-  /**
-   * Every answered request extends its session's expiry (a touch), and the answer waits for it: one commit per
-   * page. That commit alone skips waiting for the disk (synchronous_commit off): after a database crash, a touch
-   * lost from its last fraction of a second only makes that session end a little sooner. Sign-in (a save) and
-   * sign-out (a delete) keep full durability. Measured with `npm run bench` (DEVELOPERS.md, "Scale").
-   */
-  class SessionStore extends PgStore {
-    override touch(sid: string, sess: session.SessionData, done?: (err?: unknown) => void): void {
-      if (!/^[\w-]+$/.test(sid)) return super.touch(sid, sess, done);
-      // The same expiry the library's own touch writes: the cookie's, else a day from now.
-      const expires = sess.cookie?.expires;
-      const expire = Math.ceil(expires ? new Date(expires).valueOf() / 1000 : Date.now() / 1000 + 86_400);
-      deps.sessionPool
-        .query(
-          `SET LOCAL synchronous_commit = off; UPDATE sessions SET expire = to_timestamp(${expire}) WHERE sid = '${sid}'`,
-        )
-        .then(
-          () => done?.(),
-          (error: unknown) => done?.(error),
-        );
-    }
-  }
-  // The pool must listen for errors: an idle client the server drops (a PostgreSQL restart) emits one, and an
-  // unheard 'error' event would end the process. The pool replaces the client on the next request.
-  deps.sessionPool.on('error', () => undefined);
   app.use(
     session({
       name: SESSION_COOKIE,
-      store: new SessionStore({ pool: deps.sessionPool, tableName: 'sessions', pruneSessionInterval: 15 * 60 }),
+      store: createSessionStore(deps.sessionPool, { touchEveryMs: touchIntervalMs(sessionIdleMs) }),
       secret: deps.sessionSecret,
       resave: false,
       saveUninitialized: false,
