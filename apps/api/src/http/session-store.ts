@@ -56,7 +56,7 @@ function expirySeconds(sess: session.SessionData): number {
 export function createSessionStore(pool: Pool, options: { touchEveryMs: number }): session.Store {
   const PgStore = connectPgSimple(session);
   // The id the session names (passport's), as a uuid, or NULL (no row) when it is not one.
-  const namedUser = `CASE WHEN s.sess->'passport'->>'user' ~ '^[0-9a-fA-F-]{36}$'
+  const namedUser = `CASE WHEN s.sess->'passport'->>'user' ~* '^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$'
                        THEN (s.sess->'passport'->>'user')::uuid END`;
   const readSql = `
     SELECT s.sess, extract(epoch FROM s.expire::timestamptz)::float8 AS expire,
