@@ -2,17 +2,18 @@ import { randomUUID } from 'node:crypto';
 import path from 'node:path';
 import express, { Router, type Express } from 'express';
 import session from 'express-session';
-import connectPgSimple from 'connect-pg-simple';
 import helmet from 'helmet';
 import passportModule from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { pinoHttp } from 'pino-http';
+import type { DestinationStream } from 'pino';
 import type { Pool } from 'pg';
 import type { Sequelize } from 'sequelize';
 import { errorHandler, notFoundHandler } from './http/error-handler.js';
 import { requireSignIn } from './http/authenticate.js';
 import { jsonBodiesOnly, noStore, sameOriginOnly } from './http/request-guards.js';
 import { sessionLifetime } from './http/session-lifetime.js';
+import { createSessionStore, touchIntervalMs } from './http/session-store.js';
 import {
   AttemptCounters,
   DEFAULT_ATTEMPT_LIMITS,
@@ -71,6 +72,8 @@ export type AppDeps = {
   /** The address people open Kerfline at: requests from its origin count as Kerfline's own (CSRF check). */
   publicUrl?: string | undefined;
   logLevel?: string;
+  /** Where the request log goes (standard output unless given; the floor benchmark sends it to /dev/null). */
+  logDestination?: DestinationStream;
   /** The job runtime: services queue mail through it; server.ts also runs its workers. */
   jobs: Jobs;
   /** Folder of the local mail catcher (development and tests); set, admins get the outbox page. */
@@ -103,20 +106,23 @@ export function createApp(deps: AppDeps): Express {
   if (deps.trustProxy) app.set('trust proxy', 1);
 
   app.use(
-    pinoHttp({
-      level: deps.logLevel ?? 'info',
-      genReqId: (req, res) => {
-        const id = randomUUID();
-        res.setHeader('X-Request-Id', id);
-        return id;
+    pinoHttp(
+      {
+        level: deps.logLevel ?? 'info',
+        genReqId: (req, res) => {
+          const id = randomUUID();
+          res.setHeader('X-Request-Id', id);
+          return id;
+        },
+        autoLogging: { ignore: (req) => req.url === '/api/health' },
+        // One short line a request: no headers, so no cookies in the log.
+        serializers: {
+          req: (req: { id: string; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+          res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+        },
       },
-      autoLogging: { ignore: (req) => req.url === '/api/health' },
-      // One short line a request: no headers, so no cookies in the log.
-      serializers: {
-        req: (req: { id: string; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
-        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
-      },
-    }),
+      deps.logDestination,
+    ),
   );
   // HSTS and upgrading requests to https only make sense when a TLS-terminating proxy is in front; on plain
   // http (a plant's own server reached by address) they would break the page's own assets.
@@ -139,36 +145,10 @@ export function createApp(deps: AppDeps): Express {
   app.use(express.json({ limit: '1mb' }));
 
   const sessionIdleMs = deps.sessionIdleMs ?? 12 * 60 * 60 * 1000;
-  const PgStore = connectPgSimple(session);
-  /**
-   * Every answered request extends its session's expiry (a touch), and the answer waits for it: one commit per
-   * page. That commit alone skips waiting for the disk (synchronous_commit off): after a database crash, a touch
-   * lost from its last fraction of a second only makes that session end a little sooner. Sign-in (a save) and
-   * sign-out (a delete) keep full durability. Measured with `npm run bench` (DEVELOPERS.md, "Scale").
-   */
-  class SessionStore extends PgStore {
-    override touch(sid: string, sess: session.SessionData, done?: (err?: unknown) => void): void {
-      if (!/^[\w-]+$/.test(sid)) return super.touch(sid, sess, done);
-      // The same expiry the library's own touch writes: the cookie's, else a day from now.
-      const expires = sess.cookie?.expires;
-      const expire = Math.ceil(expires ? new Date(expires).valueOf() / 1000 : Date.now() / 1000 + 86_400);
-      deps.sessionPool
-        .query(
-          `SET LOCAL synchronous_commit = off; UPDATE sessions SET expire = to_timestamp(${expire}) WHERE sid = '${sid}'`,
-        )
-        .then(
-          () => done?.(),
-          (error: unknown) => done?.(error),
-        );
-    }
-  }
-  // The pool must listen for errors: an idle client the server drops (a PostgreSQL restart) emits one, and an
-  // unheard 'error' event would end the process. The pool replaces the client on the next request.
-  deps.sessionPool.on('error', () => undefined);
   app.use(
     session({
       name: SESSION_COOKIE,
-      store: new SessionStore({ pool: deps.sessionPool, tableName: 'sessions', pruneSessionInterval: 15 * 60 }),
+      store: createSessionStore(deps.sessionPool, { touchEveryMs: touchIntervalMs(sessionIdleMs) }),
       secret: deps.sessionSecret,
       resave: false,
       saveUninitialized: false,

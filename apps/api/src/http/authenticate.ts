@@ -1,7 +1,8 @@
 import type { NextFunction, Request, Response } from 'express';
 import type { AppAbility, Principal } from '@kerfline/domain/authz/ability';
 import { AppError } from '../errors.js';
-import { loadSignedIn, type SignedIn } from '../modules/auth/auth.service.js';
+import { loadSignedIn, signedInFrom, type SignedIn } from '../modules/auth/auth.service.js';
+import { personReadWithSession } from './session-store.js';
 import type { Actor } from '../audit/write-audit.js';
 
 declare global {
@@ -15,11 +16,17 @@ declare global {
 
 /**
  * Requires a signed-in, active user and puts who they are and what they may do on `res.locals`, rebuilt from
- * the database on every request so a change of role or sites takes effect at once.
+ * the database on every request so a change of role or sites takes effect at once. Never kept beyond the request.
  */
 export async function requireSignIn(req: Request, res: Response, next: NextFunction): Promise<void> {
   const userId = req.user?.id;
-  const signedIn = userId ? await loadSignedIn(userId) : null;
+  // Usually read in the same statement as this request's session (http/session-store.ts); otherwise read now.
+  const along = personReadWithSession(req);
+  const signedIn = !userId
+    ? null
+    : along && along.userId === userId
+      ? signedInFrom(along.person)
+      : await loadSignedIn(userId);
   if (!signedIn) throw new AppError('UNAUTHENTICATED', 'Sign in to continue');
   res.locals.signedIn = signedIn;
   next();

@@ -3,6 +3,7 @@ import supertest from 'supertest';
 import { QueryTypes } from 'sequelize';
 import { startTestApp, type TestContext } from '../test-support/test-db.js';
 import { buildWorld, PASSWORD } from '../test-support/fixtures.js';
+import { touchIntervalMs } from './session-store.js';
 
 // An absolute lifetime of 2 s against an idle timeout of an hour: only the absolute one can end the session.
 const MAX_MS = 2000;
@@ -53,5 +54,64 @@ describe('a session', () => {
     expect((await agent.get('/api/me')).status).toBe(401);
     await agent.post('/api/auth/sign-in').send({ email: 'admin@test.example', password: PASSWORD }).expect(200);
     await agent.get('/api/me').expect(200);
+  });
+});
+
+describe('the idle timeout', () => {
+  const expiryOf = async (context: TestContext) => {
+    const rows = await context.sequelize.query<{ expire: Date; sess: { cookie: Record<string, unknown> } }>(
+      'SELECT expire, sess FROM sessions',
+      { type: QueryTypes.SELECT },
+    );
+    expect(rows).toHaveLength(1);
+    return rows[0]!;
+  };
+
+  it('is written at most once an interval, a hundredth of the timeout and never more than a minute', async () => {
+    expect(touchIntervalMs(60 * 60 * 1000)).toBe(36_000);
+    expect(touchIntervalMs(12 * 60 * 60 * 1000)).toBe(60_000);
+    const agent = supertest.agent(ctx.app);
+    await agent.post('/api/auth/sign-in').send({ email: 'admin@test.example', password: PASSWORD }).expect(200);
+    await agent.get('/api/me').expect(200);
+    const before = await expiryOf(ctx);
+    // A second and more later (PostgreSQL keeps whole seconds), still well within the interval (36 s): the
+    // stored expiry stays as it is, so these requests neither write nor wait for a write.
+    await new Promise((resolve) => setTimeout(resolve, 1100));
+    for (let i = 0; i < 3; i += 1) await agent.get('/api/me').expect(200);
+    const after = await expiryOf(ctx);
+    expect(after.expire.getTime()).toBe(before.expire.getTime());
+    // What the store read for the request is never written back into the session.
+    expect(Object.keys(after.sess.cookie)).not.toContain('expiresInStore');
+  });
+
+  it('keeps an active session and ends an idle one, in every process', async () => {
+    const IDLE_MS = 2500;
+    const idle = startTestApp({ sessionIdleMs: IDLE_MS });
+    const other = startTestApp({ sessionIdleMs: IDLE_MS });
+    try {
+      const res = await supertest(idle.app)
+        .post('/api/auth/sign-in')
+        .send({ email: 'admin@test.example', password: PASSWORD })
+        .expect(200);
+      const cookie = res.headers['set-cookie']![0]!.split(';')[0]!;
+      // Active for longer than the timeout, on either process: each request moves the stored expiry on.
+      for (let i = 0; i < 4; i += 1) {
+        await new Promise((resolve) => setTimeout(resolve, 900));
+        await supertest(i % 2 ? other.app : idle.app)
+          .get('/api/me')
+          .set('Cookie', cookie)
+          .expect(200);
+      }
+      const touched = Date.now();
+      const { expire } = await expiryOf(idle);
+      // PostgreSQL keeps whole seconds, rounded up.
+      expect(expire.getTime()).toBeGreaterThanOrEqual(touched - 1000 + IDLE_MS - touchIntervalMs(IDLE_MS));
+      // Unused for longer than the timeout: over on both.
+      await new Promise((resolve) => setTimeout(resolve, IDLE_MS + 1200));
+      expect((await supertest(other.app).get('/api/me').set('Cookie', cookie)).status).toBe(401);
+      expect((await supertest(idle.app).get('/api/me').set('Cookie', cookie)).status).toBe(401);
+    } finally {
+      await Promise.all([idle.close(), other.close()]);
+    }
   });
 });

@@ -2,7 +2,10 @@ import type { User as UserDto } from '@kerfline/domain/users/schema';
 import type { User } from './user.model.js';
 
 /** The user as the API shows it: never the password hash. */
-export function toUserDto(user: User, managedSiteIds: string[]): UserDto {
+export function toUserDto(
+  user: Pick<User, 'id' | 'email' | 'name' | 'role' | 'siteId' | 'regionId' | 'allSites' | 'active'>,
+  managedSiteIds: string[],
+): UserDto {
   return {
     id: user.id,
     email: user.email,
