@@ -1,11 +1,20 @@
-import { Component, Suspense, lazy, useId, useState, type ReactNode } from 'react';
+import { Component, Suspense, use, useId, useState, type ComponentProps, type ReactNode } from 'react';
 import { Card } from '../../../lib/ui/card';
 import { Notice } from '../../../lib/ui/notice';
 import { Button } from '../../../lib/ui/button';
 import { ExportButton } from '../../../lib/ui/export-button';
 import { isEmptySpec, type ChartSpec, type ChartTable } from './chart-spec';
+import { loadChartCode, loadedChartCode } from './chart-code';
 
-const FleetChart = lazy(() => import('./charts'));
+/**
+ * The chart itself, from the chart code's own chunk. When the route already started loading it and it has
+ * arrived, it draws in the same render; otherwise it suspends until the chunk is here (and a failed load is
+ * tried again by the boundary's "Try again").
+ */
+function FleetChart(props: ComponentProps<Awaited<ReturnType<typeof loadChartCode>>['default']>) {
+  const code = loadedChartCode() ?? use(loadChartCode());
+  return <code.default {...props} />;
+}
 
 /** Keeps a failed chart (its code could not load) inside its panel, with a way to try again. */
 class ChartBoundary extends Component<
