@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
 import { fleetOverviewQuery, fleetQueryFromSearch } from '../../../features/fleet/api/queries';
-import { loadChartCode } from '../../../features/fleet/components/chart-code';
+import { forgetFailedChartCode, loadChartCode } from '../../../features/fleet/components/chart-code';
 
 /**
  * The overview's loader, kept out of the page's chunk so it runs the moment the address matches: the figures'
@@ -13,7 +13,9 @@ import { loadChartCode } from '../../../features/fleet/components/chart-code';
 export function overviewLoader(queryClient: QueryClient) {
   return ({ request }: LoaderFunctionArgs) => {
     void queryClient.prefetchQuery(fleetOverviewQuery(fleetQueryFromSearch(new URL(request.url).searchParams)));
-    // A failure here is shown by the chart panels, which ask for the code again.
+    // A load that failed earlier in the visit is tried again on a new visit to the page; a failure now is shown
+    // by the chart panels, with their own "Try again".
+    forgetFailedChartCode();
     loadChartCode().catch(() => undefined);
     return null;
   };

@@ -4,12 +4,12 @@ import { Notice } from '../../../lib/ui/notice';
 import { Button } from '../../../lib/ui/button';
 import { ExportButton } from '../../../lib/ui/export-button';
 import { isEmptySpec, type ChartSpec, type ChartTable } from './chart-spec';
-import { loadChartCode, loadedChartCode } from './chart-code';
+import { forgetFailedChartCode, loadChartCode, loadedChartCode } from './chart-code';
 
 /**
  * The chart itself, from the chart code's own chunk. When the route already started loading it and it has
- * arrived, it draws in the same render; otherwise it suspends until the chunk is here (and a failed load is
- * tried again by the boundary's "Try again").
+ * arrived, it draws in the same render; otherwise it suspends until the chunk is here. A failed load reaches the
+ * boundary below, whose "Try again" asks the network afresh.
  */
 function FleetChart(props: ComponentProps<Awaited<ReturnType<typeof loadChartCode>>['default']>) {
   const code = loadedChartCode() ?? use(loadChartCode());
@@ -129,7 +129,13 @@ export function ChartPanel({
         fallback={(retry) => (
           <Notice title="The chart could not be drawn">
             <p>Its code did not load. The table view still has the numbers.</p>
-            <Button className="mt-2" onClick={retry}>
+            <Button
+              className="mt-2"
+              onClick={() => {
+                forgetFailedChartCode();
+                retry();
+              }}
+            >
               Try again
             </Button>
           </Notice>
