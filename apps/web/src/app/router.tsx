@@ -4,6 +4,7 @@ import { homeLoader, rootLoader } from './root-loader';
 import { AppShell } from './shell/app-shell';
 import { NotFoundPage } from './routes/errors/not-found-page';
 import { RouteError } from './routes/errors/route-error';
+import { overviewLoader } from './routes/fleet/overview-loader';
 
 /** What shows while the first page's code and data arrive. */
 function FirstLoad() {
@@ -362,11 +363,11 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
               ],
             },
             {
+              // The manager's home: its loader is in the first chunk so the figures and the chart code are asked
+              // for as the address matches, while the page's own code loads (see overview-loader.ts).
               path: 'fleet',
-              lazy: async () => {
-                const page = await import('./routes/fleet/overview-page');
-                return { loader: page.overviewLoader(queryClient), Component: page.OverviewPage };
-              },
+              loader: overviewLoader(queryClient),
+              lazy: async () => ({ Component: (await import('./routes/fleet/overview-page')).OverviewPage }),
             },
             {
               path: 'fleet/practice',

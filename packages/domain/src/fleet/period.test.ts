@@ -31,6 +31,11 @@ describe('months and periods', () => {
     expect(monthOf(at, 'Europe/Berlin')).toBe('2026-04');
     expect(monthOf(at, 'America/Chicago')).toBe('2026-03');
     expect(monthOf(at)).toBe('2026-03');
+    // UTC is read without a formatter: it agrees with the formatter's answer for the same zone, at a year's edge too.
+    for (const instant of [at, new Date('2026-12-31T23:59:59.999Z'), new Date('2027-01-01T00:00:00Z')]) {
+      expect(monthOf(instant, 'UTC')).toBe(monthOf(instant, 'Etc/UTC'));
+    }
+    expect(monthOf(new Date('2027-01-01T00:00:00Z'))).toBe('2027-01');
   });
   it('finds the instant a month starts in a time zone', () => {
     // CET is UTC+1 in winter; Toronto is UTC−5 in winter and UTC−4 in summer.

@@ -50,6 +50,9 @@ export function previousPeriod(period: MonthPeriod): MonthPeriod {
 
 /** The calendar month of an instant in a time zone (UTC by default). */
 export function monthOf(at: Date, timeZone = 'UTC'): Month {
+  // UTC needs no time-zone data: the ISO form is exact and skips building a formatter, whose first use loads
+  // the zone tables (tens of milliseconds in a browser, on the way to the fleet overview's first request).
+  if (timeZone === 'UTC') return at.toISOString().slice(0, 7);
   const parts = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit' }).formatToParts(at);
   const year = parts.find((p) => p.type === 'year')!.value;
   const month = parts.find((p) => p.type === 'month')!.value;

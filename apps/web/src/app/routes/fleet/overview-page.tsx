@@ -1,5 +1,5 @@
-import { useQuery, type QueryClient } from '@tanstack/react-query';
-import { Link, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { useQuery } from '@tanstack/react-query';
+import { Link, useSearchParams } from 'react-router-dom';
 import { periodLabel } from '@kerfline/domain/fleet/period';
 import { fleetOverviewQuery, fleetQueryFromSearch } from '../../../features/fleet/api/queries';
 import { FleetFilters, majorityUnits, unitsFromSearch } from '../../../features/fleet/components/fleet-filters';
@@ -12,14 +12,6 @@ import { ExportButton } from '../../../lib/ui/export-button';
 import { Notice } from '../../../lib/ui/notice';
 import { Button } from '../../../lib/ui/button';
 import { FiguresExplained } from '../../../features/fleet/components/figures-explained';
-
-/** Starts the overview's one request as the page's code loads; the page shows its own loading and error states. */
-export function overviewLoader(queryClient: QueryClient) {
-  return ({ request }: LoaderFunctionArgs) => {
-    void queryClient.prefetchQuery(fleetOverviewQuery(fleetQueryFromSearch(new URL(request.url).searchParams)));
-    return null;
-  };
-}
 
 /** The manager's home: every site's figures side by side for a period, against the period before. */
 export function OverviewPage() {

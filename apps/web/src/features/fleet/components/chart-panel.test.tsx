@@ -1,5 +1,5 @@
 import { describe, expect, it, vi } from 'vitest';
-import { render, screen, within } from '@testing-library/react';
+import { act, render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { ChartPanel } from './chart-panel';
 import type { ChartSpec, ChartTable } from './chart-spec';
@@ -24,7 +24,13 @@ const base = {
 
 describe('a chart panel', () => {
   it('states its units, and shows the same numbers as a table a click away', async () => {
-    render(<ChartPanel {...base} spec={spec} table={table} status="success" />);
+    // Nothing loaded the chart code beforehand: the panel waits for it, then draws the chart from it.
+    await act(async () => {
+      render(<ChartPanel {...base} spec={spec} table={table} status="success" />);
+    });
+    await waitFor(() =>
+      expect(screen.getByRole('region', { name: base.title }).querySelector('figure')).not.toBeNull(),
+    );
     expect(screen.getByText('In ft² cut per blade.')).toBeInTheDocument();
     expect(screen.getByRole('list', { name: 'Legend' })).toHaveTextContent('CV-HAM Hammerfield');
     await userEvent.setup().click(screen.getByRole('button', { name: 'Table' }));

@@ -1,11 +1,20 @@
-import { Component, Suspense, lazy, useId, useState, type ReactNode } from 'react';
+import { Component, Suspense, use, useId, useState, type ComponentProps, type ReactNode } from 'react';
 import { Card } from '../../../lib/ui/card';
 import { Notice } from '../../../lib/ui/notice';
 import { Button } from '../../../lib/ui/button';
 import { ExportButton } from '../../../lib/ui/export-button';
 import { isEmptySpec, type ChartSpec, type ChartTable } from './chart-spec';
+import { forgetFailedChartCode, loadChartCode, loadedChartCode } from './chart-code';
 
-const FleetChart = lazy(() => import('./charts'));
+/**
+ * The chart itself, from the chart code's own chunk. When the route already started loading it and it has
+ * arrived, it draws in the same render; otherwise it suspends until the chunk is here. A failed load reaches the
+ * boundary below, whose "Try again" asks the network afresh.
+ */
+function FleetChart(props: ComponentProps<Awaited<ReturnType<typeof loadChartCode>>['default']>) {
+  const code = loadedChartCode() ?? use(loadChartCode());
+  return <code.default {...props} />;
+}
 
 /** Keeps a failed chart (its code could not load) inside its panel, with a way to try again. */
 class ChartBoundary extends Component<
@@ -120,7 +129,13 @@ export function ChartPanel({
         fallback={(retry) => (
           <Notice title="The chart could not be drawn">
             <p>Its code did not load. The table view still has the numbers.</p>
-            <Button className="mt-2" onClick={retry}>
+            <Button
+              className="mt-2"
+              onClick={() => {
+                forgetFailedChartCode();
+                retry();
+              }}
+            >
               Try again
             </Button>
           </Notice>

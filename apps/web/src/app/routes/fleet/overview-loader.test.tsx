@@ -1,0 +1,134 @@
+import { describe, expect, it } from 'vitest';
+import { render, screen, waitFor } from '@testing-library/react';
+import { createMemoryRouter } from 'react-router-dom';
+import { addMonths, defaultPeriod } from '@kerfline/domain/fleet/period';
+import type { FleetOverview } from '@kerfline/domain/fleet/schema';
+import { createQueryClient } from '../../../lib/query-client';
+import { installFakeApi, type FakeRequest, type FakeResponse } from '../../../test-support/fake-api';
+import { SITE_ID, makeMe } from '../../../test-support/fixtures';
+import { makeFigures, makeFleetSite, otherFleetSite } from '../../../test-support/fleet';
+import { fleetKeys } from '../../../features/fleet/api/keys';
+import { loadedChartCode } from '../../../features/fleet/components/chart-code';
+import { AppProviders } from '../../providers';
+import { appRoutes } from '../../router';
+
+/*
+ * The overview's first load: the route's loader asks for the figures and the chart code as the address matches.
+ * These tests show the order of requests and what the cache holds, never how long anything takes.
+ */
+
+/** Whole-app tests load lazy pages (and here the chart library) through the router; a busy machine needs time. */
+const ROUTER_TEST_MS = 30_000;
+
+/** An answer the test releases when it chooses, to see what was asked for while it was still pending. */
+function held() {
+  let release: () => void = () => undefined;
+  const released = new Promise<void>((resolve) => {
+    release = resolve;
+  });
+  return { release, after: (answer: () => FakeResponse) => released.then(answer) };
+}
+
+function overviewFor(request: FakeRequest): FleetOverview {
+  const choices = [makeFleetSite(), otherFleetSite()];
+  const asked = request.query.get('sites')?.split(',') ?? choices.map((s) => s.id);
+  const from = request.query.get('from')!;
+  const to = request.query.get('to')!;
+  return {
+    period: { from, to },
+    previous: { from: addMonths(from, -6), to: addMonths(to, -6) },
+    asOf: '2026-12-01T12:00:00.000Z',
+    reportingCurrency: 'USD',
+    sites: choices
+      .filter((s) => asked.includes(s.id))
+      .map((site) => ({ site, current: makeFigures(), previous: makeFigures() })),
+    choices,
+    fleet: { current: makeFigures(), previous: makeFigures() },
+    months: [],
+    warnings: [],
+  };
+}
+
+function renderAt(path: string, routes: Parameters<typeof installFakeApi>[0]) {
+  const fake = installFakeApi({ 'GET /api/sites': { status: 200, body: { items: [] } }, ...routes });
+  const queryClient = createQueryClient();
+  const router = createMemoryRouter(appRoutes(queryClient), { initialEntries: [path] });
+  render(<AppProviders queryClient={queryClient} router={router} />);
+  const overviewRequests = () => fake.requests.filter((r) => r.path === '/api/fleet/overview');
+  const overviewQueries = () => queryClient.getQueryCache().findAll({ queryKey: [...fleetKeys.all, 'overview'] });
+  return { ...fake, queryClient, overviewRequests, overviewQueries };
+}
+
+describe('the fleet overview’s first load', () => {
+  // First in this file: the chart code is loaded once per visit, and a later test would find it already here.
+  it(
+    'starts loading the chart code before the figures arrive, and draws the charts from it',
+    async () => {
+      expect(loadedChartCode()).toBeUndefined();
+      const figures = held();
+      const { overviewRequests } = renderAt('/fleet?from=2026-01&to=2026-06', {
+        'GET /api/me': { status: 200, body: makeMe('manager') },
+        'GET /api/fleet/overview': (request) => figures.after(() => ({ status: 200, body: overviewFor(request) })),
+      });
+      await waitFor(() => expect(overviewRequests()).toHaveLength(1));
+      // The figures are still held back, yet the chart code is already here.
+      await waitFor(() => expect(loadedChartCode()).toBeDefined(), { timeout: ROUTER_TEST_MS });
+      expect((await screen.findAllByText('Loading the figures…')).length).toBeGreaterThan(0);
+
+      figures.release();
+      // The stop-hours chart has figures: its panel draws the chart, with no "Loading the chart…" left behind.
+      const stops = await screen.findByRole('region', { name: 'Stop hours by category' });
+      await waitFor(() => expect(stops.querySelector('figure')).not.toBeNull());
+      expect(screen.queryByText('Loading the chart…')).toBeNull();
+      expect(overviewRequests()).toHaveLength(1);
+    },
+    ROUTER_TEST_MS,
+  );
+
+  it(
+    'asks for the figures beside /api/me, not after it, under the key the page reads, so the page never asks again',
+    async () => {
+      const me = held();
+      const { overviewRequests, overviewQueries, requests } = renderAt(
+        `/fleet?from=2026-01&to=2026-06&sites=${SITE_ID}&units=imperial`,
+        {
+          'GET /api/me': () => me.after(() => ({ status: 200, body: makeMe('manager') })),
+          'GET /api/fleet/overview': (request) => ({ status: 200, body: overviewFor(request) }),
+        },
+      );
+      // /api/me has not answered, and the figures are already asked for, with the address's period and sites.
+      await waitFor(() => expect(overviewRequests()).toHaveLength(1));
+      expect(requests.map((r) => r.path)).toContain('/api/me');
+      expect(Object.fromEntries(overviewRequests()[0]!.query)).toEqual({
+        from: '2026-01',
+        to: '2026-06',
+        sites: SITE_ID,
+      });
+
+      me.release();
+      await screen.findByRole('heading', { name: 'Fleet overview' });
+      await screen.findByRole('heading', { name: 'All shown sites' });
+      // The page read what the loader put in the cache: one query, one request, and the same key.
+      expect(overviewRequests()).toHaveLength(1);
+      expect(overviewQueries().map((q) => q.queryKey)).toEqual([
+        fleetKeys.overview({ from: '2026-01', to: '2026-06', sites: [SITE_ID] }),
+      ]);
+    },
+    ROUTER_TEST_MS,
+  );
+
+  it(
+    'with no period in the address, the loader and the page agree on the default one',
+    async () => {
+      const { overviewRequests, overviewQueries } = renderAt('/fleet', {
+        'GET /api/me': { status: 200, body: makeMe('manager') },
+        'GET /api/fleet/overview': (request) => ({ status: 200, body: overviewFor(request) }),
+      });
+      await screen.findByRole('heading', { name: 'All shown sites' });
+      const { from, to } = defaultPeriod(new Date());
+      expect(overviewRequests().map((r) => Object.fromEntries(r.query))).toEqual([{ from, to }]);
+      expect(overviewQueries()).toHaveLength(1);
+    },
+    ROUTER_TEST_MS,
+  );
+});

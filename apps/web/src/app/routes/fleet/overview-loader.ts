@@ -1,0 +1,22 @@
+import type { QueryClient } from '@tanstack/react-query';
+import type { LoaderFunctionArgs } from 'react-router-dom';
+import { fleetOverviewQuery, fleetQueryFromSearch } from '../../../features/fleet/api/queries';
+import { forgetFailedChartCode, loadChartCode } from '../../../features/fleet/components/chart-code';
+
+/**
+ * The overview's loader, kept out of the page's chunk so it runs the moment the address matches: the figures'
+ * request (the same query options, from the same address, as the page reads), the page's code and the chart code
+ * are then all on their way together, beside `/api/me`, instead of one after the other. It waits for none of
+ * them: the page shows its own loading, empty and error states, and the root loader still sends a signed-out
+ * visitor to sign in (the figures' request then only gets a 401 that nothing shows).
+ */
+export function overviewLoader(queryClient: QueryClient) {
+  return ({ request }: LoaderFunctionArgs) => {
+    void queryClient.prefetchQuery(fleetOverviewQuery(fleetQueryFromSearch(new URL(request.url).searchParams)));
+    // A load that failed earlier in the visit is tried again on a new visit to the page; a failure now is shown
+    // by the chart panels, with their own "Try again".
+    forgetFailedChartCode();
+    loadChartCode().catch(() => undefined);
+    return null;
+  };
+}
