@@ -1,6 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
-import { fleetOverviewQuery, fleetQueryFromSearch } from '../../../features/fleet/api/queries';
 import { forgetFailedChartCode, loadChartCode } from '../../../features/fleet/components/chart-code';
 
 /**
@@ -12,7 +11,11 @@ import { forgetFailedChartCode, loadChartCode } from '../../../features/fleet/co
  */
 export function overviewLoader(queryClient: QueryClient) {
   return ({ request }: LoaderFunctionArgs) => {
-    void queryClient.prefetchQuery(fleetOverviewQuery(fleetQueryFromSearch(new URL(request.url).searchParams)));
+    // The queries and their schemas (zod) come in their own small chunk, so the first page's JavaScript stays light.
+    const search = new URL(request.url).searchParams;
+    void import('../../../features/fleet/api/queries').then(({ fleetOverviewQuery, fleetQueryFromSearch }) =>
+      queryClient.prefetchQuery(fleetOverviewQuery(fleetQueryFromSearch(search))),
+    );
     // A load that failed earlier in the visit is tried again on a new visit to the page; a failure now is shown
     // by the chart panels, with their own "Try again".
     forgetFailedChartCode();
