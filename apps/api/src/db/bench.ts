@@ -40,6 +40,8 @@ const HEAVY_REPEATS = Number(process.env.BENCH_HEAVY_REPEATS ?? 5);
 const args = new Set(process.argv.slice(2));
 /** --load-only: run the load tests alone and put them into the existing bench/results.json. */
 const loadOnly = args.has('--load-only');
+/** --web-only: measure the web app alone (sizes, first chart) and put it into the existing bench/results.json. */
+const webOnly = args.has('--web-only');
 const env = loadEnv({
   SESSION_SECRET: 'benchmark-not-a-real-secret',
   ...process.env,
@@ -249,7 +251,7 @@ const key = (s: Statement) => s.text.replace(/\s+/g, ' ').trim();
 
 /** BENCH_ONLY (a pattern on the names) measures those endpoints alone and puts them into the existing results. */
 const only = process.env.BENCH_ONLY ? new RegExp(process.env.BENCH_ONLY, 'i') : null;
-for (const endpoint of loadOnly ? [] : endpoints.filter((e) => !only || only.test(e.name))) {
+for (const endpoint of loadOnly || webOnly ? [] : endpoints.filter((e) => !only || only.test(e.name))) {
   // Statements every signed-in request of this person sends (session, person, ability), to leave out.
   const baseline = await captured(captureBase, captureCookies[endpoint.who]!, '/api/me');
   const common = new Set(endpoint.floor ? [] : baseline.statements.map(key));
@@ -363,11 +365,11 @@ async function loadTest(base: string, label: string) {
   return out;
 }
 console.log('');
-const loadResults = only ? [] : [await loadTest(api, 'one API process')];
+const loadResults = only || webOnly ? [] : [await loadTest(api, 'one API process')];
 // Let the answers still on their way finish before the process stops.
 await new Promise((r) => setTimeout(r, 2000));
 stopApi();
-if (args.has('--scale-out') && !only) {
+if (args.has('--scale-out') && !only && !webOnly) {
   try {
     await waitUp(scaleOutUrl);
     loadResults.push(await loadTest(scaleOutUrl, 'scale-out: nginx, two API processes, reads on the replica'));
@@ -381,7 +383,7 @@ if (args.has('--scale-out') && !only) {
 // ---------------------------------------------------------------------------------------------------------------
 // (b) import beside COPY: bench-import.ts as it is, its figures read from its output.
 let importResult: Record<string, unknown> | null = null;
-if (!args.has('--skip-import') && !loadOnly && !only) {
+if (!args.has('--skip-import') && !loadOnly && !only && !webOnly) {
   console.log('\nimport of 100 000 rows (npm run bench:import):');
   const run = spawnSync('npx', ['tsx', '--conditions=source', 'apps/api/src/db/bench-import.ts'], {
     cwd: ROOT,
@@ -546,13 +548,15 @@ const resultsFile = path.join(ROOT, 'bench/results.json');
 const previous = () => JSON.parse(readFileSync(resultsFile, 'utf8')) as typeof report;
 const written = loadOnly
   ? { ...previous(), load: loadResults, loadMeasuredAt: report.date }
-  : only
-    ? {
-        ...previous(),
-        endpoints: previous().endpoints.map((e) => results.find((r) => r.name === e.name) ?? e),
-        endpointsRemeasuredAt: report.date,
-      }
-    : report;
+  : webOnly
+    ? { ...previous(), web, webMeasuredAt: report.date }
+    : only
+      ? {
+          ...previous(),
+          endpoints: previous().endpoints.map((e) => results.find((r) => r.name === e.name) ?? e),
+          endpointsRemeasuredAt: report.date,
+        }
+      : report;
 writeFileSync(resultsFile, JSON.stringify(written, null, 2) + '\n');
 console.log(`\nwritten to bench/results.json (load average at the end ${load().join(' / ')})`);
 process.exit(0);
