@@ -112,6 +112,7 @@ export async function checksPractice(
         FROM bounds b
         JOIN blade_runs r ON r.site_id = b.site_id AND r.removed_at >= b.t0 AND r.removed_at < b.t1
         JOIN pairs pr ON pr.saw_id = r.saw_id AND pr.schedule = 'blade_change' AND pr.applies_since < r.removed_at
+             AND r.removed_at >= pr.t0 AND r.removed_at < pr.t1
         CROSS JOIN LATERAL (
           SELECT min(k.checked_at) AS done_at FROM check_records k
            WHERE k.saw_id = r.saw_id AND k.site_check_id = pr.check_id
