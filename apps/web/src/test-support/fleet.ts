@@ -1,4 +1,6 @@
-import type { Figures, FleetSite } from '@kerfline/domain/fleet/schema';
+import { addMonths } from '@kerfline/domain/fleet/period';
+import type { Figures, FleetOverview, FleetSite } from '@kerfline/domain/fleet/schema';
+import type { FakeRequest } from './fake-api';
 import { OTHER_SITE_ID, REGION_ID, SITE_ID } from './fixtures';
 
 /** Invented figures for the web tests of the fleet screens: two plants of the test region. */
@@ -62,5 +64,26 @@ export function makeFigures(overrides: Partial<Figures> = {}): Figures {
     breakInRecorded: 4,
     breakInFollowed: 3,
     ...overrides,
+  };
+}
+
+/** The overview as the API answers the query it was sent: the sites asked for, or all the caller's. */
+export function overviewFor(request: FakeRequest): FleetOverview {
+  const choices = [makeFleetSite(), otherFleetSite()];
+  const asked = request.query.get('sites')?.split(',') ?? choices.map((s) => s.id);
+  const from = request.query.get('from')!;
+  const to = request.query.get('to')!;
+  return {
+    period: { from, to },
+    previous: { from: addMonths(from, -6), to: addMonths(to, -6) },
+    asOf: '2026-12-01T12:00:00.000Z',
+    reportingCurrency: 'USD',
+    sites: choices
+      .filter((s) => asked.includes(s.id))
+      .map((site) => ({ site, current: makeFigures(), previous: makeFigures() })),
+    choices,
+    fleet: { current: makeFigures(), previous: makeFigures() },
+    months: [],
+    warnings: [],
   };
 }

@@ -3,11 +3,11 @@ import { render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { createMemoryRouter } from 'react-router-dom';
 import { addMonths, defaultPeriod } from '@kerfline/domain/fleet/period';
-import type { FleetOverview, Practice } from '@kerfline/domain/fleet/schema';
+import type { Practice } from '@kerfline/domain/fleet/schema';
 import { createQueryClient } from '../../../lib/query-client';
 import { installFakeApi, type FakeRequest } from '../../../test-support/fake-api';
 import { OTHER_SITE_ID, SITE_ID, makeMe, page } from '../../../test-support/fixtures';
-import { makeFigures, makeFleetSite, otherFleetSite } from '../../../test-support/fleet';
+import { makeFigures, makeFleetSite, otherFleetSite, overviewFor } from '../../../test-support/fleet';
 import { AppProviders } from '../../providers';
 import { appRoutes } from '../../router';
 
@@ -31,27 +31,6 @@ const queriesTo = (requests: FakeRequest[], path: string) =>
 const lastQuery = (requests: FakeRequest[], path: string) => queriesTo(requests, path).at(-1)!;
 const searchOf = (router: ReturnType<typeof renderAt>['router']) =>
   Object.fromEntries([...new URLSearchParams(router.state.location.search).entries()]);
-
-/** The overview as the API answers the query it was sent: the sites asked for, or all the caller's. */
-function overviewFor(request: FakeRequest): FleetOverview {
-  const choices = [makeFleetSite(), otherFleetSite()];
-  const asked = request.query.get('sites')?.split(',') ?? choices.map((s) => s.id);
-  const from = request.query.get('from')!;
-  const to = request.query.get('to')!;
-  return {
-    period: { from, to },
-    previous: { from: addMonths(from, -6), to: addMonths(to, -6) },
-    asOf: '2026-12-01T12:00:00.000Z',
-    reportingCurrency: 'USD',
-    sites: choices
-      .filter((s) => asked.includes(s.id))
-      .map((site) => ({ site, current: makeFigures(), previous: makeFigures() })),
-    choices,
-    fleet: { current: makeFigures(), previous: makeFigures() },
-    months: [],
-    warnings: [],
-  };
-}
 
 describe('the fleet overview keeps its filters in the address', () => {
   it(

@@ -1,12 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { render, screen, waitFor } from '@testing-library/react';
 import { createMemoryRouter } from 'react-router-dom';
-import { addMonths, defaultPeriod } from '@kerfline/domain/fleet/period';
-import type { FleetOverview } from '@kerfline/domain/fleet/schema';
+import { defaultPeriod } from '@kerfline/domain/fleet/period';
 import { createQueryClient } from '../../../lib/query-client';
-import { installFakeApi, type FakeRequest, type FakeResponse } from '../../../test-support/fake-api';
+import { installFakeApi, type FakeResponse } from '../../../test-support/fake-api';
 import { SITE_ID, makeMe } from '../../../test-support/fixtures';
-import { makeFigures, makeFleetSite, otherFleetSite } from '../../../test-support/fleet';
+import { overviewFor } from '../../../test-support/fleet';
 import { fleetKeys } from '../../../features/fleet/api/keys';
 import { loadedChartCode } from '../../../features/fleet/components/chart-code';
 import { AppProviders } from '../../providers';
@@ -27,26 +26,6 @@ function held() {
     release = resolve;
   });
   return { release, after: (answer: () => FakeResponse) => released.then(answer) };
-}
-
-function overviewFor(request: FakeRequest): FleetOverview {
-  const choices = [makeFleetSite(), otherFleetSite()];
-  const asked = request.query.get('sites')?.split(',') ?? choices.map((s) => s.id);
-  const from = request.query.get('from')!;
-  const to = request.query.get('to')!;
-  return {
-    period: { from, to },
-    previous: { from: addMonths(from, -6), to: addMonths(to, -6) },
-    asOf: '2026-12-01T12:00:00.000Z',
-    reportingCurrency: 'USD',
-    sites: choices
-      .filter((s) => asked.includes(s.id))
-      .map((site) => ({ site, current: makeFigures(), previous: makeFigures() })),
-    choices,
-    fleet: { current: makeFigures(), previous: makeFigures() },
-    months: [],
-    warnings: [],
-  };
 }
 
 function renderAt(path: string, routes: Parameters<typeof installFakeApi>[0]) {
