@@ -29,7 +29,7 @@ import type { AddressInfo } from 'node:net';
 import pg from 'pg';
 import autocannon from 'autocannon';
 import { databaseUrl, loadEnv } from '../config/env.js';
-import { createSequelize } from './sequelize.js';
+import { SESSION_OPTIONS, createSequelize } from './sequelize.js';
 import { createApp } from '../app.js';
 import { Jobs } from '../jobs/jobs.js';
 import { BENCH_PASSWORD, BENCH_USERS, hasBenchFleet, siteId } from './bench-generator.js';
@@ -72,7 +72,8 @@ type Endpoint = {
   floor?: true;
 };
 
-const sql = new pg.Client({ connectionString: url });
+// The bare SQL runs with the app's own session settings (sequelize.ts), so the two are compared like for like.
+const sql = new pg.Client({ connectionString: url, options: SESSION_OPTIONS });
 await sql.connect();
 const probe = new pg.Client({ connectionString: url });
 await probe.connect();

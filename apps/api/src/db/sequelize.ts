@@ -6,6 +6,14 @@ import { routeReadsByRequest } from './read-routing.js';
 pg.types.setTypeParser(pg.types.builtins.INT8, (v) => Number.parseInt(v, 10));
 
 /**
+ * What every connection of the app sets for its session. JIT compilation off: the dashboards' statements are
+ * estimated dear (their branches over the records cost much, though most months come from the monthly summary),
+ * so PostgreSQL compiled them on every run, about 100 ms of a 500 ms statement, and won nothing back at this size.
+ * The benchmark's bare SQL runs with the same settings.
+ */
+export const SESSION_OPTIONS = '-c jit=off';
+
+/**
  * The app's Sequelize. With `replicaUrl` (a PostgreSQL streaming replica of the same cluster), plain reads go to
  * the replica and writes, transactions and reads marked `useMaster` to `url` (Sequelize's `replication`); see
  * read-routing.ts for which requests read the primary.
@@ -19,6 +27,7 @@ export function createSequelize(
     dialectModule: pg,
     logging: options.logging ? console.log : false,
     pool: { max: options.poolMax ?? 10, idle: 10_000 },
+    dialectOptions: { options: SESSION_OPTIONS },
     define: { underscored: true, timestamps: true },
     ...(options.replicaUrl
       ? { replication: { read: [connectionOf(options.replicaUrl)], write: connectionOf(url) } }
