@@ -65,8 +65,31 @@ async function summaryRows(sequelize: Sequelize, transaction?: import('sequelize
   });
 }
 
+/**
+ * Each site's sorted monthly lists of finished blades (site_month_lives) hold exactly the areas of its saws' months
+ * in saw_month_runs, in order. Built here straight from saw_month_runs, not through the triggers' differences.
+ */
+async function expectSiteListsMatchSummary() {
+  const [kept] = await ctx.sequelize.query(
+    `SELECT site_id, to_char(month, 'YYYY-MM') AS month, lives, followed, skipped
+       FROM site_month_lives WHERE cardinality(lives) > 0 ORDER BY site_id, month`,
+  );
+  const [built] = await ctx.sequelize.query(
+    `SELECT site_id, to_char(month, 'YYYY-MM') AS month, array_agg(v ORDER BY v) AS lives,
+            coalesce(array_agg(v ORDER BY v) FILTER (WHERE k = 1), '{}') AS followed,
+            coalesce(array_agg(v ORDER BY v) FILTER (WHERE k = 2), '{}') AS skipped
+       FROM (SELECT site_id, month, unnest(life_followed) AS v, 1 AS k FROM saw_month_runs
+             UNION ALL SELECT site_id, month, unnest(life_skipped), 2 FROM saw_month_runs
+             UNION ALL SELECT site_id, month, unnest(life_unrecorded), 3 FROM saw_month_runs) x
+      GROUP BY site_id, month ORDER BY site_id, month`,
+  );
+  expect(kept).toEqual(built);
+  return kept;
+}
+
 /** The maintained summary equals what `rollup_rebuild()` makes of the records (rebuilt in a rolled-back transaction). */
 async function expectSummaryMatchesRecords() {
+  await expectSiteListsMatchSummary();
   const maintained = await summaryRows(ctx.sequelize);
   const t = await ctx.sequelize.transaction();
   try {
@@ -176,6 +199,50 @@ describe('the monthly summary stays equal to the records', () => {
     await expectAllAgree();
   });
 
+  it('reads medians from the sorted lists exactly as from every blade, with ties and even counts', async () => {
+    // Two months of one site where a middle value repeats across months and each count is even, so the middle
+    // ranks land on the bounds themselves and between lists.
+    const areas: [string, number][] = [
+      ['2024-09-03T08:00:00Z', 500],
+      ['2024-09-10T08:00:00Z', 500],
+      ['2024-09-17T08:00:00Z', 500],
+      ['2024-09-24T08:00:00Z', 700],
+      ['2024-10-02T08:00:00Z', 300],
+      ['2024-10-09T08:00:00Z', 500],
+      ['2024-10-16T08:00:00Z', 900],
+      ['2024-10-23T08:00:00Z', 900],
+      ['2024-11-05T08:00:00Z', 1],
+    ];
+    for (const [at, area] of areas)
+      await sql(
+        `INSERT INTO blade_runs (site_id, saw_id, blade_spec_id, installed_at, removed_at, removal_reason, area_cut_mm2,
+                                 cost_minor, currency, break_in_followed)
+         SELECT site_id, saw_id, blade_spec_id, $2::timestamptz - interval '2 days', $2::timestamptz, 'worn_out', $3::float8, 100,
+                currency, $3::float8 > 400
+           FROM blade_runs WHERE saw_id = $1 LIMIT 1`,
+        [fx.saws.c1.id, at, area],
+      );
+    await expectSummaryMatchesRecords();
+    await expectFiguresAgree('admin', new Date(), '2024-09', '2024-11');
+    // By hand: September 500, 500, 500, 700 → 500; October 300, 500, 900, 900 → 700; the three months together
+    // 1, 300, 500, 500, 500, 500, 700, 900, 900 → 500; break-in followed (areas over 400) in October 500, 900, 900 → 900.
+    const site = fx.world.sites.C!.id;
+    const figures = await rawFigures(
+      ctx.sequelize,
+      'site',
+      { ability: abilities.admin!, siteIds: [site], asOf: new Date() },
+      [
+        { key: 'sep', from: '2024-09', to: '2024-09' },
+        { key: 'oct', from: '2024-10', to: '2024-10' },
+        { key: 'all', from: '2024-09', to: '2024-11' },
+      ],
+      { breakInMedians: true },
+    );
+    const of = (key: string) => figures.find((f) => f.bucket === key)!;
+    expect([of('sep').medianLifeMm2, of('oct').medianLifeMm2, of('all').medianLifeMm2]).toEqual([500, 700, 500]);
+    expect(of('oct').lifeFollowed).toEqual({ blades: 3, medianMm2: 900 });
+  });
+
   it('follows a removal and its putting back, and an import and its undo', async () => {
     const before = await expectSummaryMatchesRecords();
     await siteAdmin.delete(`/api/blade-runs/${fx.runs.R2.id}`).send({ reason: 'Entered on the wrong saw' }).expect(204);
@@ -273,6 +340,44 @@ describe('the monthly summary stays equal to the records', () => {
       { bind: [a2.id], type: 'SELECT' as never },
     )) as unknown as { n: number }[];
     expect(after!.n).toBe(before!.n + 2);
+    await expectSummaryMatchesRecords();
+  });
+
+  it('two writers at one site in one month, on different saws: both blades are in the site’s sorted list', async () => {
+    const listOf = async () => {
+      const [row] = (await ctx.sequelize.query(
+        `SELECT coalesce((SELECT lives FROM site_month_lives WHERE site_id = $1 AND month = '2023-06-01'), '{}') AS lives`,
+        { bind: [fx.world.sites.A.id], type: 'SELECT' as never },
+      )) as unknown as { lives: number[] }[];
+      return row!.lives;
+    };
+    const before = await listOf();
+    const insert = (client: pg.Client, sawId: string, at: string, area: number) =>
+      client.query(
+        `INSERT INTO blade_runs (site_id, saw_id, blade_spec_id, installed_at, removed_at, removal_reason, area_cut_mm2,
+                                 cost_minor, currency)
+         SELECT site_id, saw_id, blade_spec_id, $2::timestamptz, $2::timestamptz + interval '1 day', 'worn_out', $3,
+                100, currency
+           FROM blade_runs WHERE saw_id = $1 LIMIT 1`,
+        [sawId, at, area],
+      );
+    const one = new pg.Client({ connectionString: testDatabaseUrl() });
+    const two = new pg.Client({ connectionString: testDatabaseUrl() });
+    await Promise.all([one.connect(), two.connect()]);
+    try {
+      await one.query('BEGIN');
+      await two.query('BEGIN');
+      await insert(one, fx.saws.a1.id, '2023-06-05T08:00:00Z', 4321);
+      // The second saw's own summary row is free; the site's list for June waits for the first writer.
+      const second = insert(two, fx.saws.a2.id, '2023-06-12T08:00:00Z', 1234);
+      await new Promise((resolve) => setTimeout(resolve, 300));
+      await one.query('COMMIT');
+      await second;
+      await two.query('COMMIT');
+    } finally {
+      await Promise.all([one.end(), two.end()]);
+    }
+    expect(await listOf()).toEqual([...before, 1234, 4321].sort((a, b) => a - b));
     await expectSummaryMatchesRecords();
   });
 });

@@ -13,6 +13,7 @@ import * as sawHeadForce from './20261205-0301-saw-head-force.js';
 import * as removedRecords from './20261206-0101-removed-records.js';
 import * as fleetWideListIndexes from './20261206-1101-fleet-wide-list-indexes.js';
 import * as monthlyRollup from './20261207-0101-monthly-rollup.js';
+import * as siteMonthLives from './20261208-0101-site-month-lives.js';
 
 type Migration = {
   name: string;
@@ -36,4 +37,5 @@ export const migrations: Migration[] = [
   { name: '20261206-0101-removed-records', ...removedRecords },
   { name: '20261206-1101-fleet-wide-list-indexes', ...fleetWideListIndexes },
   { name: '20261207-0101-monthly-rollup', ...monthlyRollup },
+  { name: '20261208-0101-site-month-lives', ...siteMonthLives },
 ];

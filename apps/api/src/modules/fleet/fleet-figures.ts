@@ -44,7 +44,7 @@ export type FigureScope = {
   asOf: Date;
 };
 
-/** `stops: false` leaves the stops out (all stop figures 0), for a caller that sums them from another level. */
+/** `stops: false` leaves the stops and hours out (all 0), for a caller that sums them from another level. */
 export type FigureOptions = {
   stops?: boolean;
   /** `false` reads every month from the records, never the monthly summary (the tests compare the two). */
@@ -281,6 +281,110 @@ function runMonthsCte(level: Level, scope: FigureScope, params: SqlParams, month
 }
 
 /**
+ * `lives_b`: per group and bucket, the median area of the finished blades (and, with `split`, of those whose
+ * break-in was followed and of those where it was skipped), and how many of the latter two there are. This one
+ * sorts every finished blade's area (`lives`, from runMonthsCte): for the saw level and for callers the sites'
+ * sorted lists cannot serve.
+ */
+function recordMedianCtes(split: boolean): string {
+  const splitMedians = split
+    ? `percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 1) AS followed_median,
+             percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 2) AS skipped_median`
+    : 'NULL::float8 AS followed_median, NULL::float8 AS skipped_median';
+  return `lives_b AS (
+      SELECT l.gid, bm.b,
+             percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) AS median_life,
+             ${splitMedians},
+             count(*) FILTER (WHERE l.f = 1) AS life_followed_n,
+             count(*) FILTER (WHERE l.f = 2) AS life_skipped_n
+        FROM lives l JOIN bucket_months bm ON bm.mdate = l.mdate
+       GROUP BY 1, 2
+    )`;
+}
+
+/**
+ * `lives_b` from the sites' sorted monthly lists (site_month_lives; migration 20261208-0101), the month still
+ * running sorted from the records. The median is exact and equals percentile_cont(0.5) over every blade, without
+ * sorting them all:
+ *
+ * - A bucket's blades are the union of its lists. Take lo = the smallest of the lists' lower middles and hi = the
+ *   largest of their upper middles (each read from its sorted list). Fewer than half of each list lies below its
+ *   lower middle, so fewer than half of the union lies below lo, and likewise above hi: both middle ranks of the
+ *   union, r0 = ⌊(N − 1)/2⌋ and r1 = ⌊N/2⌋, hold values in [lo, hi].
+ * - In each list, width_bucket(x, list) counts the values ≤ x (a binary search). Let `below` = Σ count(≤ lo).
+ *   A middle rank r < below holds lo itself (its value is ≤ lo and ≥ lo); any other holds the (r − below)-th value,
+ *   from 0, of the blades in (lo, hi], which are the only ones sorted.
+ * - median = v(r0) + (v(r1) − v(r0)) · 0.5, percentile_cont's own interpolation.
+ *
+ * A month's bucket is one list, so its median is read, not sorted; a year's sorts the blades between its months'
+ * medians.
+ */
+function listMedianCtes(level: Level, scope: FigureScope, params: SqlParams, split: boolean): string {
+  const asOf = params.add(scope.asOf);
+  const listScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'sl', params);
+  const runScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'r', params);
+  const sorted = (filter: string) =>
+    `coalesce(array_agg(r.area_cut_mm2 ORDER BY r.area_cut_mm2)${filter ? ` FILTER (WHERE ${filter})` : ''}, '{}')`;
+  // Lists by kind: 1 every finished blade, 2 break-in followed, 3 skipped (the latter two's medians with `split`).
+  const window = (r: string) => `CASE WHEN ${r} < w.below THEN w.lo ELSE w.w[${r} - w.below + 1] END`;
+  return `lists AS (
+      SELECT ${groupOf(level, 'sm')} AS gid, bm.b, sl.lives, sl.followed, sl.skipped
+        FROM site_months sm
+        JOIN site_month_lives sl ON sl.site_id = sm.site_id AND sl.month = sm.mdate
+        JOIN bucket_months bm ON bm.mdate = sm.mdate
+       WHERE sm.summed AND ${listScope}
+      UNION ALL
+      SELECT ${groupOf(level, 'sm')}, bm.b, cur.lives, cur.followed, cur.skipped
+        FROM site_months sm
+        JOIN bucket_months bm ON bm.mdate = sm.mdate
+        CROSS JOIN LATERAL (
+          SELECT ${sorted('')} AS lives, ${sorted('r.break_in_followed')} AS followed,
+                 ${sorted('NOT r.break_in_followed')} AS skipped
+            FROM blade_runs r
+           WHERE r.site_id = sm.site_id AND r.removed_at >= sm.t0 AND r.removed_at < sm.t1
+             AND r.removed_at <= ${asOf}::timestamptz AND r.area_cut_mm2 IS NOT NULL AND ${runScope}
+        ) cur
+       WHERE NOT sm.summed
+    ),
+    kind_lists AS (
+      SELECT l.gid, l.b, x.k, x.a
+        FROM lists l CROSS JOIN LATERAL (VALUES (1, l.lives), (2, l.followed), (3, l.skipped)) AS x(k, a)
+       WHERE cardinality(x.a) > 0
+    ),
+    list_bounds AS (
+      SELECT gid, b, k, sum(cardinality(a))::int AS n,
+             min(a[(cardinality(a) + 1) / 2]) AS lo, max(a[cardinality(a) / 2 + 1]) AS hi
+        FROM kind_lists GROUP BY gid, b, k
+    ),
+    list_windows AS (
+      -- Each list's count up to lo, and its values in (lo, hi]; one row per list even when it has none there.
+      SELECT s.gid, s.b, s.k, min(s.n) AS n, min(s.lo) AS lo,
+             sum(s.below) FILTER (WHERE u.i IS NULL OR u.i = 1)::int AS below,
+             array_agg(u.v ORDER BY u.v) FILTER (WHERE u.v IS NOT NULL) AS w
+        FROM (SELECT l.gid, l.b, l.k, d.n, d.lo, width_bucket(d.lo, l.a) AS below,
+                     l.a[width_bucket(d.lo, l.a) + 1 : width_bucket(d.hi, l.a)] AS part
+                FROM kind_lists l JOIN list_bounds d ON d.gid = l.gid AND d.b = l.b AND d.k = l.k
+               WHERE ${split ? 'TRUE' : 'l.k = 1'}) s
+        LEFT JOIN LATERAL unnest(s.part) WITH ORDINALITY AS u(v, i) ON TRUE
+       GROUP BY s.gid, s.b, s.k
+    ),
+    lives_b AS (
+      SELECT gid, b,
+             max(median) FILTER (WHERE k = 1) AS median_life,
+             max(median) FILTER (WHERE k = 2) AS followed_median,
+             max(median) FILTER (WHERE k = 3) AS skipped_median,
+             coalesce(sum(n) FILTER (WHERE k = 2), 0) AS life_followed_n,
+             coalesce(sum(n) FILTER (WHERE k = 3), 0) AS life_skipped_n
+        FROM (SELECT gid, b, k, n, NULL::float8 AS median FROM list_bounds
+              UNION ALL
+              SELECT w.gid, w.b, w.k, NULL, m.v0 + (m.v1 - m.v0) * 0.5
+                FROM list_windows w
+                CROSS JOIN LATERAL (SELECT ${window('(w.n - 1) / 2')} AS v0, ${window('w.n / 2')} AS v1) m) x
+       GROUP BY gid, b
+    )`;
+}
+
+/**
  * Every figure of `level` groups (the fleet, each site or each saw) in each bucket, in one statement. The saws
  * and sites come from the caller's scope; months that have ended come from the per-saw monthly summary, the
  * month still running (and open stops) from the records.
@@ -309,17 +413,17 @@ export function figuresStatement(
   const months = [...new Set(buckets.flatMap((b) => monthsOf(b)))].sort();
   const rollup = options.summary !== false && rollupServes(scope.ability);
   const ctes = scopeCtes(scope, params, months, buckets, rollup);
-  const runMonths = runMonthsCte(level, scope, params, months, true);
+  // A site's or the fleet's medians come from the sites' sorted monthly lists where the summary serves them.
+  const sortedLists = rollup && level !== 'saw' && !scope.sawIds;
+  const runMonths = runMonthsCte(level, scope, params, months, !sortedLists);
+  const lives = sortedLists
+    ? listMedianCtes(level, scope, params, Boolean(options.breakInMedians))
+    : recordMedianCtes(Boolean(options.breakInMedians));
   const summaryScope = scopeSql(scope.ability, 'read', 'Stop', Stop, 'rs', params);
   const stopScope = scopeSql(scope.ability, 'read', 'Stop', Stop, 'p', params);
   // Without stops the clauses are FALSE, so the planner reads none; the scope stays in them for its bound values.
   const noStops = options.stops === false ? 'FALSE AND ' : '';
   const stopGroup = groupOf(level, 'g');
-  // The medians with and without break-in sort the blades twice more: worked out only for a caller that shows them.
-  const splitMedians = options.breakInMedians
-    ? `percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 1) AS followed_median,
-             percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 2) AS skipped_median`
-    : 'NULL::float8 AS followed_median, NULL::float8 AS skipped_median';
   const sum = (c: string) => `sum(rm.${c}) AS ${c}`;
   const categoryColumns = DOWNTIME_CATEGORIES.map(
     (c) => `coalesce(sum(hours) FILTER (WHERE category = '${c}'), 0) AS "stop_${c}"`,
@@ -345,21 +449,19 @@ export function figuresStatement(
         FROM run_months rm JOIN bucket_months bm ON bm.mdate = rm.mdate
        GROUP BY 1, 2
     ),
-    lives_b AS (
-      -- Medians from each finished blade's area (kept one by one in the summary), so they stay exact.
-      SELECT l.gid, bm.b,
-             percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) AS median_life,
-             ${splitMedians},
-             count(*) FILTER (WHERE l.f = 1) AS life_followed_n,
-             count(*) FILTER (WHERE l.f = 2) AS life_skipped_n
-        FROM lives l JOIN bucket_months bm ON bm.mdate = l.mdate
-       GROUP BY 1, 2
-    ),
-    scheduled AS (
+    ${lives},
+    scheduled AS (${
+      options.stops === false
+        ? `
+      -- Without stops, no hours either: one row per group with saws and bucket.
+      SELECT DISTINCT ${groupOf(level, 'w')} AS gid, bm.b, 0 AS scheduled_h
+        FROM saws_in w CROSS JOIN bucket_months bm`
+        : `
       SELECT ${stopGroup} AS gid, bm.b,
              sum(GREATEST(0, extract(epoch FROM (g.w1 - g.w0)))) / 3600.0 AS scheduled_h
         FROM saw_months g JOIN bucket_months bm ON bm.mdate = g.mdate
-       GROUP BY 1, 2
+       GROUP BY 1, 2`
+    }
     ),
     stop_months AS (
       -- Finished stops of the months the summary serves, already clipped and summed per saw and month.
