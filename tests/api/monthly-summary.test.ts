@@ -87,9 +87,39 @@ async function expectSiteListsMatchSummary() {
   return kept;
 }
 
+/**
+ * The per-site sums (site_month_runs, site_month_stops) equal the per-saw summary summed afresh, column by column,
+ * leaving out site-months whose rows are all zero (kept once their saws' rows are gone).
+ */
+async function expectSiteSumsMatchSummary() {
+  for (const [site, saw, keys] of [
+    ['site_month_runs', 'saw_month_runs', 'site_id, month, currency'],
+    ['site_month_stops', 'saw_month_stops', 'site_id, month'],
+  ] as const) {
+    const [columns] = (await ctx.sequelize.query(
+      `SELECT array_agg(column_name::text ORDER BY ordinal_position) AS names FROM information_schema.columns
+        WHERE table_name = '${site}' AND column_name NOT IN ('site_id', 'month', 'currency')`,
+    )) as [{ names: string[] }[], unknown];
+    const names = columns[0]!.names;
+    const row = (alias: string) =>
+      `jsonb_build_object(${names.map((c) => `'${c}', round(${alias}.${c}::numeric, 6)`).join(', ')})`;
+    const [kept] = await ctx.sequelize.query(
+      `SELECT ${keys}, ${row('t')} AS sums FROM ${site} t
+        WHERE ${names.map((c) => `t.${c} <> 0`).join(' OR ')} ORDER BY ${keys}`,
+    );
+    const [built] = await ctx.sequelize.query(
+      `SELECT ${keys}, ${row('t')} AS sums
+         FROM (SELECT ${keys}, ${names.map((c) => `sum(${c}::numeric) AS ${c}`).join(', ')} FROM ${saw} GROUP BY ${keys}) t
+        WHERE ${names.map((c) => `t.${c} <> 0`).join(' OR ')} ORDER BY ${keys}`,
+    );
+    expect(kept, site).toEqual(built);
+  }
+}
+
 /** The maintained summary equals what `rollup_rebuild()` makes of the records (rebuilt in a rolled-back transaction). */
 async function expectSummaryMatchesRecords() {
   await expectSiteListsMatchSummary();
+  await expectSiteSumsMatchSummary();
   const maintained = await summaryRows(ctx.sequelize);
   const t = await ctx.sequelize.transaction();
   try {

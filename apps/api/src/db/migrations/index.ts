@@ -14,6 +14,7 @@ import * as removedRecords from './20261206-0101-removed-records.js';
 import * as fleetWideListIndexes from './20261206-1101-fleet-wide-list-indexes.js';
 import * as monthlyRollup from './20261207-0101-monthly-rollup.js';
 import * as siteMonthLives from './20261208-0101-site-month-lives.js';
+import * as siteMonthSums from './20261208-0102-site-month-sums.js';
 
 type Migration = {
   name: string;
@@ -38,4 +39,5 @@ export const migrations: Migration[] = [
   { name: '20261206-1101-fleet-wide-list-indexes', ...fleetWideListIndexes },
   { name: '20261207-0101-monthly-rollup', ...monthlyRollup },
   { name: '20261208-0101-site-month-lives', ...siteMonthLives },
+  { name: '20261208-0102-site-month-sums', ...siteMonthSums },
 ];

@@ -103,6 +103,21 @@ function rollupServes(ability: AppAbility): boolean {
 }
 
 /**
+ * Whether the per-site summary (site_month_runs, site_month_stops, site_month_lives; migrations 20261208-0101
+ * and -0102) may stand in: for a site's or the fleet's figures, not a saw's or some saws', when the per-saw
+ * summary may and the caller's rules on saws also look at nothing but the site (so a site's saws in scope are all
+ * its saws).
+ */
+function siteSummaryServes(scope: FigureScope, level: Level, rollup: boolean): boolean {
+  return (
+    rollup &&
+    level !== 'saw' &&
+    !scope.sawIds &&
+    [...scopeFields(scope.ability, 'read', 'Saw')].every((field) => field === 'siteId')
+  );
+}
+
+/**
  * The sites and saws in scope as CTEs (`sites_in`, `saws_in`); the months asked about (`months`), each site's
  * months with whether the summary serves them (`site_months`: a month that ended by the as-of time, in the
  * site's zone) and each saw's windows in service (`saw_months`); with buckets, the months of each bucket
@@ -127,7 +142,8 @@ function scopeCtes(
     `sites_in AS (
       SELECT s.id, s.time_zone FROM sites s WHERE s.id = ANY(${siteIds}::uuid[]) AND ${siteScope}
     )`,
-    `saws_in AS (
+    // Materialized: each saw's start of service is looked up once, however many months read it.
+    `saws_in AS MATERIALIZED (
       SELECT w.id, w.site_id, w.retired_at,
              LEAST(w.created_at,
                    (SELECT min(r0.installed_at) FROM blade_runs r0 WHERE r0.saw_id = w.id),
@@ -202,7 +218,14 @@ const groupName = (level: Level, column: string) => (level === 'fleet' ? `'fleet
  * when the summary may not stand in). Runs put on count by install time, runs taken off by removal time, both up
  * to the as-of time.
  */
-function runMonthsCte(level: Level, scope: FigureScope, params: SqlParams, months: Month[], lives: boolean): string {
+function runMonthsCte(
+  level: Level,
+  scope: FigureScope,
+  params: SqlParams,
+  months: Month[],
+  lives: boolean,
+  bySite: boolean,
+): string {
   const asOf = params.add(scope.asOf);
   const summaryScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'ru', params);
   const runScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'r', params);
@@ -229,7 +252,7 @@ function runMonthsCte(level: Level, scope: FigureScope, params: SqlParams, month
         OFFSET 0
       ) r`;
   const summary = `site_months sm
-        JOIN saw_month_runs ru ON ru.site_id = sm.site_id AND ru.month = sm.mdate
+        JOIN ${bySite ? 'site_month_runs' : 'saw_month_runs'} ru ON ru.site_id = sm.site_id AND ru.month = sm.mdate
              AND ru.month >= ${firstMonth}::date AND ru.month <= ${lastMonth}::date`;
   const summaryWhere = `sm.summed AND ${summaryScope}${sawOf('ru')}`;
   const runMonths = `run_months AS (
@@ -413,10 +436,10 @@ export function figuresStatement(
   const months = [...new Set(buckets.flatMap((b) => monthsOf(b)))].sort();
   const rollup = options.summary !== false && rollupServes(scope.ability);
   const ctes = scopeCtes(scope, params, months, buckets, rollup);
-  // A site's or the fleet's medians come from the sites' sorted monthly lists where the summary serves them.
-  const sortedLists = rollup && level !== 'saw' && !scope.sawIds;
-  const runMonths = runMonthsCte(level, scope, params, months, !sortedLists);
-  const lives = sortedLists
+  // A site's or the fleet's sums and medians come from the per-site summary where it serves.
+  const bySite = siteSummaryServes(scope, level, rollup);
+  const runMonths = runMonthsCte(level, scope, params, months, !bySite, bySite);
+  const lives = bySite
     ? listMedianCtes(level, scope, params, Boolean(options.breakInMedians))
     : recordMedianCtes(Boolean(options.breakInMedians));
   const summaryScope = scopeSql(scope.ability, 'read', 'Stop', Stop, 'rs', params);
@@ -445,8 +468,11 @@ export function figuresStatement(
     WITH ${ctes},
     ${runMonths},
     runs_b AS (
+      -- Summed by group and month first, then the few month rows into their buckets (a month is in more than one).
       SELECT rm.gid, bm.b, ${RUN_SUMS.map(sum).join(', ')}
-        FROM run_months rm JOIN bucket_months bm ON bm.mdate = rm.mdate
+        FROM (SELECT gid, mdate, ${RUN_SUMS.map((c) => `sum(${c}) AS ${c}`).join(', ')}
+                FROM run_months GROUP BY gid, mdate) rm
+        JOIN bucket_months bm ON bm.mdate = rm.mdate
        GROUP BY 1, 2
     ),
     ${lives},
@@ -454,24 +480,26 @@ export function figuresStatement(
       options.stops === false
         ? `
       -- Without stops, no hours either: one row per group with saws and bucket.
-      SELECT DISTINCT ${groupOf(level, 'w')} AS gid, bm.b, 0 AS scheduled_h
-        FROM saws_in w CROSS JOIN bucket_months bm`
+      SELECT g.gid, b.b, 0 AS scheduled_h
+        FROM (SELECT DISTINCT ${groupOf(level, 'w')} AS gid FROM saws_in w) g
+        CROSS JOIN (SELECT DISTINCT b FROM bucket_months) b`
         : `
-      SELECT ${stopGroup} AS gid, bm.b,
-             sum(GREATEST(0, extract(epoch FROM (g.w1 - g.w0)))) / 3600.0 AS scheduled_h
-        FROM saw_months g JOIN bucket_months bm ON bm.mdate = g.mdate
+      SELECT g.gid, bm.b, sum(g.seconds) / 3600.0 AS scheduled_h
+        FROM (SELECT ${stopGroup} AS gid, g.mdate, sum(GREATEST(0, extract(epoch FROM (g.w1 - g.w0)))) AS seconds
+                FROM saw_months g GROUP BY 1, 2) g
+        JOIN bucket_months bm ON bm.mdate = g.mdate
        GROUP BY 1, 2`
     }
     ),
     stop_months AS (
-      -- Finished stops of the months the summary serves, already clipped and summed per saw and month.
+      -- Finished stops of the months the summary serves, already clipped and summed per saw (or site) and month.
       SELECT ${groupOf(level, 'rs')} AS gid, sm.mdate,
              rs.downtime_h, rs.unplanned_h, rs.failures, rs.failure_h, ${summaryCategories}
         FROM site_months sm
-        JOIN saw_month_stops rs ON rs.site_id = sm.site_id AND rs.month = sm.mdate
+        JOIN ${bySite ? 'site_month_stops' : 'saw_month_stops'} rs ON rs.site_id = sm.site_id AND rs.month = sm.mdate
              AND rs.month >= ${params.add(monthStart(months[0]!))}::date
              AND rs.month <= ${params.add(monthStart(months[months.length - 1]!))}::date
-       WHERE sm.summed AND ${noStops}${summaryScope} AND rs.saw_id IN (SELECT id FROM saws_in)
+       WHERE sm.summed AND ${noStops}${summaryScope} ${bySite ? '' : 'AND rs.saw_id IN (SELECT id FROM saws_in)'}
       UNION ALL
       -- The rest from the records: every stop of a month the summary does not serve, and open stops.
       SELECT gid, mdate,
@@ -492,7 +520,11 @@ export function figuresStatement(
              sum(sm.failures) AS failures,
              sum(sm.failure_h) AS failure_h,
              ${categorySums}
-        FROM stop_months sm JOIN bucket_months bm ON bm.mdate = sm.mdate
+        FROM (SELECT gid, mdate, sum(downtime_h) AS downtime_h, sum(unplanned_h) AS unplanned_h,
+                     sum(failures) AS failures, sum(failure_h) AS failure_h,
+                     ${DOWNTIME_CATEGORIES.map((c) => `sum("stop_${c}") AS "stop_${c}"`).join(', ')}
+                FROM stop_months GROUP BY gid, mdate) sm
+        JOIN bucket_months bm ON bm.mdate = sm.mdate
        GROUP BY 1, 2
     )
     SELECT ro.*, lb.median_life, lb.followed_median, lb.skipped_median, lb.life_followed_n, lb.life_skipped_n, st.*, c.scheduled_h,
@@ -576,7 +608,7 @@ export async function moneyRows(
   const ctes = scopeCtes(scope, params, monthsOf({ from, to }), null, rollup);
   const sql = `
     WITH ${ctes},
-    ${runMonthsCte(level, scope, params, monthsOf({ from, to }), false)}
+    ${runMonthsCte(level, scope, params, monthsOf({ from, to }), false, siteSummaryServes(scope, level, rollup))}
     SELECT ${groupName(level, 'gid')} AS gid, to_char(mdate, 'YYYY-MM') AS month, currency,
            sum(spend_minor) AS spend, sum(blades_used) AS used,
            sum(finished_cost_minor) AS finished, sum(blades_with_area) AS with_area
