@@ -285,20 +285,23 @@ function runMonthsCte(
        WHERE NOT sm.summed
     )`;
   if (!lives) return runMonths;
-  // Each finished blade's area with how its break-in went (1 followed, 2 skipped, 3 not recorded): from the
-  // summary's lists (one unnest of the three end to end) and from the records for the month still running.
+  // Each finished blade's area in each bucket its month is in (`bucket_months`), with how its break-in went
+  // (1 followed, 2 skipped, 3 not recorded): from the summary's lists (one unnest of the three end to end, after
+  // the month's row met its buckets) and from the records for the month still running.
   return `${runMonths},
     lives AS (
-      SELECT ${groupOf(level, 'ru')} AS gid, sm.mdate, l.v,
+      SELECT ${groupOf(level, 'ru')} AS gid, bm.b, l.v,
              CASE WHEN l.i <= cardinality(ru.life_followed) THEN 1
                   WHEN l.i <= cardinality(ru.life_followed) + cardinality(ru.life_skipped) THEN 2 ELSE 3 END AS f
         FROM ${summary}
+        JOIN bucket_months bm ON bm.mdate = sm.mdate
         CROSS JOIN LATERAL unnest(ru.life_followed || ru.life_skipped || ru.life_unrecorded) WITH ORDINALITY AS l(v, i)
        WHERE ${summaryWhere}
       UNION ALL
-      SELECT ${groupOf(level, 'r')}, sm.mdate, r.area_cut_mm2,
+      SELECT ${groupOf(level, 'r')}, bm.b, r.area_cut_mm2,
              CASE WHEN r.break_in_followed THEN 1 WHEN NOT r.break_in_followed THEN 2 ELSE 3 END
         FROM ${records('removed_at', ' AND r.area_cut_mm2 IS NOT NULL')}
+        JOIN bucket_months bm ON bm.mdate = sm.mdate
        WHERE NOT sm.summed
     )`;
 }
@@ -315,12 +318,12 @@ function recordMedianCtes(split: boolean): string {
              percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 2) AS skipped_median`
     : 'NULL::float8 AS followed_median, NULL::float8 AS skipped_median';
   return `lives_b AS (
-      SELECT l.gid, bm.b,
+      SELECT l.gid, l.b,
              percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) AS median_life,
              ${splitMedians},
              count(*) FILTER (WHERE l.f = 1) AS life_followed_n,
              count(*) FILTER (WHERE l.f = 2) AS life_skipped_n
-        FROM lives l JOIN bucket_months bm ON bm.mdate = l.mdate
+        FROM lives l
        GROUP BY 1, 2
     )`;
 }
