@@ -1,3 +1,4 @@
+import { useDeferredValue } from 'react';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import type { FleetOverview, FleetQuery } from '@kerfline/domain/fleet/schema';
 import { DOWNTIME_CATEGORIES } from '@kerfline/domain/metrics/schema';
@@ -27,51 +28,77 @@ export function exportPath(base: string, query: FleetQuery, units: UnitSystem, e
   return `${base}?${params.toString()}`;
 }
 
-const money = (currency: string) => (major: number) =>
-  new Intl.NumberFormat(APP_LOCALE, {
-    style: 'currency',
-    currency,
-    maximumFractionDigits: major < 1000 ? 2 : 0,
-  }).format(major);
+/** Money on an axis or in a tooltip: cents under a thousand, whole units above (formatters made once per chart). */
+const money = (currency: string) => {
+  const small = new Intl.NumberFormat(APP_LOCALE, { style: 'currency', currency, maximumFractionDigits: 2 });
+  const large = new Intl.NumberFormat(APP_LOCALE, { style: 'currency', currency, maximumFractionDigits: 0 });
+  return (major: number) => (major < 1000 ? small : large).format(major);
+};
+
+/** The months of an overview, in order. */
+const monthsOf = (data: FleetOverview) => [...new Set(data.months.map((m) => m.month))];
+
+/** A site's figures in a month, looked up through one index of the overview's months (60 sites × 12 months). */
+function monthFigures(data: FleetOverview | undefined) {
+  const index = new Map((data?.months ?? []).map((m) => [`${m.siteId}|${m.month}`, m.figures]));
+  return (siteId: string, month: string) => index.get(`${siteId}|${month}`);
+}
+
+/** Spend per site and month, one line per site. */
+function spendSpec(data: FleetOverview | undefined): ChartSpec | null {
+  if (!data) return null;
+  const currency = data.reportingCurrency;
+  const digits = minorUnitDigits(currency);
+  const figure = monthFigures(data);
+  const months = monthsOf(data);
+  return {
+    kind: 'line',
+    series: data.sites.map(({ site: s }) => ({
+      id: s.id,
+      label: s.code,
+      slot: s.colourIndex,
+      points: months.map((m) => {
+        const f = figure(s.id, m);
+        // A month with a missing rate is left out of the line (a gap), not drawn too low.
+        return { x: m, y: f && f.spend.complete ? f.spend.amountMinor / 10 ** digits : null };
+      }),
+    })),
+    yLegend: `${currency} per month`,
+    formatY: money(currency),
+  };
+}
 
 /** The overview's four charts: spend and cost per area per site by month, stop hours by category, blade life. */
-export function OverviewCharts({ data, status, errorMessage, onRetry, units, query }: Props) {
+export function OverviewCharts({ data: shown, status: shownStatus, errorMessage, onRetry, units, query }: Props) {
+  // The first chart draws with the figures as they come; the other three a moment later, in the background
+  // (React's deferred value), so the first one is on screen without waiting for all four.
+  const data = useDeferredValue(shown);
+  const status = shownStatus === 'success' && !data ? 'pending' : shownStatus;
   const currency = data?.reportingCurrency ?? 'USD';
-  const digits = minorUnitDigits(currency);
+  const shownCurrency = shown?.reportingCurrency ?? 'USD';
+  const shownFigure = monthFigures(shown);
   const perAreaUnit = moneyPerAreaToDisplay(1, currency, units).unit;
   const areaUnit = DISPLAY_UNITS.largeArea[units].unit;
-  const months = data ? [...new Set(data.months.map((m) => m.month))] : [];
+  const months = data ? monthsOf(data) : [];
   const sites = data?.sites.map((s) => s.site) ?? [];
-  const legend = sites.map((s) => ({
+  const legend = (shown?.sites.map((s) => s.site) ?? []).map((s) => ({
     key: s.id,
     label: `${s.code} ${s.name}`,
     mark: <SiteMark slot={s.colourIndex} />,
   }));
-  const figure = (siteId: string, month: string) =>
-    data?.months.find((m) => m.siteId === siteId && m.month === month)?.figures;
+  const figure = monthFigures(data);
 
-  const spendSpec: ChartSpec | null = data
-    ? {
-        kind: 'line',
-        series: sites.map((s) => ({
-          id: s.id,
-          label: s.code,
-          slot: s.colourIndex,
-          points: months.map((m) => {
-            const f = figure(s.id, m);
-            // A month with a missing rate is left out of the line (a gap), not drawn too low.
-            return { x: m, y: f && f.spend.complete ? f.spend.amountMinor / 10 ** digits : null };
-          }),
-        })),
-        yLegend: `${currency} per month`,
-        formatY: money(currency),
-      }
-    : null;
-  const monthTable = (cell: (siteId: string, month: string) => string): ChartTable | null =>
-    data
+  const monthTable = (
+    from: FleetOverview | undefined,
+    cell: (siteId: string, month: string) => string,
+  ): ChartTable | null =>
+    from
       ? {
-          columns: ['Site', ...months.map(monthLabel)],
-          rows: sites.map((s) => ({ key: s.id, cells: [s.code, ...months.map((m) => cell(s.id, m))] })),
+          columns: ['Site', ...monthsOf(from).map(monthLabel)],
+          rows: from.sites.map(({ site: s }) => ({
+            key: s.id,
+            cells: [s.code, ...monthsOf(from).map((m) => cell(s.id, m))],
+          })),
         }
       : null;
 
@@ -157,12 +184,14 @@ export function OverviewCharts({ data, status, errorMessage, onRetry, units, que
   return (
     <div className="grid gap-6 xl:grid-cols-2">
       <ChartPanel
-        {...common}
+        status={shownStatus}
+        errorMessage={errorMessage}
+        onRetry={onRetry}
         title="Blade spend by month"
-        units={`${currency}, each month converted at its own rate`}
-        spec={spendSpec}
-        table={monthTable((siteId, m) => {
-          const f = figure(siteId, m);
+        units={`${shownCurrency}, each month converted at its own rate`}
+        spec={spendSpec(shown)}
+        table={monthTable(shown, (siteId, m) => {
+          const f = shownFigure(siteId, m);
           return f ? spendText(f.spend) : '—';
         })}
         legend={legend}
@@ -174,7 +203,7 @@ export function OverviewCharts({ data, status, errorMessage, onRetry, units, que
         title="Cost per area cut by month"
         units={`${currency} per ${units === 'imperial' ? 'square inch' : 'square centimetre'} (${perAreaUnit})`}
         spec={costSpec}
-        table={monthTable((siteId, m) => {
+        table={monthTable(data, (siteId, m) => {
           const f = figure(siteId, m);
           return f ? costPerAreaText(f.costPerAreaMinorPerMm2, currency, units, f.costPerAreaComplete) : '—';
         })}
