@@ -142,12 +142,17 @@ function scopeCtes(
     `sites_in AS (
       SELECT s.id, s.time_zone FROM sites s WHERE s.id = ANY(${siteIds}::uuid[]) AND ${siteScope}
     )`,
-    // Materialized: each saw's start of service is looked up once, however many months read it.
+    // Materialized: each saw's start of service is looked up once, however many months read it (and only for a
+    // statement that reads the saws' months: money does not).
     `saws_in AS MATERIALIZED (
       SELECT w.id, w.site_id, w.retired_at,
-             LEAST(w.created_at,
+             ${
+               buckets
+                 ? `LEAST(w.created_at,
                    (SELECT min(r0.installed_at) FROM blade_runs r0 WHERE r0.saw_id = w.id),
-                   (SELECT min(p0.started_at) FROM stops p0 WHERE p0.saw_id = w.id)) AS in_service_from
+                   (SELECT min(p0.started_at) FROM stops p0 WHERE p0.saw_id = w.id))`
+                 : 'NULL::timestamptz'
+             } AS in_service_from
         FROM saws w JOIN sites_in s ON s.id = w.site_id
        WHERE ${sawScope}${sawFilter}
     )`,
