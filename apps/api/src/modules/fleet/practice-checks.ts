@@ -41,14 +41,39 @@ export async function checksPractice(
   const sawScope = scopeSql(scope.ability, 'read', 'Saw', Saw, 'w', p);
   const checkScope = scopeSql(scope.ability, 'read', 'SiteCheck', SiteCheck, 'c', p);
   const recordScope = (alias: string) => scopeSql(scope.ability, 'read', 'CheckRecord', CheckRecord, alias, p);
-  const runScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'r', p);
+  const runScope = (alias: string) => scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, alias, p);
   const siteIds = p.add(scope.siteIds);
   const m0 = p.add(`${monthStart(period.from)} 00:00:00`);
   const m1 = p.add(`${monthStart(addMonths(period.to, 1))} 00:00:00`);
   const asOf = p.add(scope.asOf);
-  const firstRecord = (alias: string, extra: string) =>
-    `(SELECT min(${alias}.checked_at) FROM check_records ${alias}
-       WHERE ${alias}.saw_id = pr.saw_id AND ${alias}.site_check_id = pr.check_id ${extra} AND ${recordScope(alias)})`;
+  // The latest blade put on a saw before (`<`) or by (`<=`) a time, skipping blades taken off the moment they went
+  // on: those hold no record and overlap nothing, so the no-overlap constraint lets them sit inside another's time.
+  const lastBladeBefore = (alias: string, saw: string, op: '<' | '<=', time: string) =>
+    `FROM blade_runs ${alias}
+      WHERE ${alias}.saw_id = ${saw} AND ${alias}.installed_at ${op} ${time}
+        AND ${alias}.removed_at IS DISTINCT FROM ${alias}.installed_at AND ${runScope(alias)}
+      ORDER BY ${alias}.installed_at DESC LIMIT 1`;
+
+  // The (saw, check) pairs of one schedule: separate statements, so that each has its own row estimate.
+  const pairs = (schedule: 'periodic' | 'blade_change') => `
+      SELECT w.id AS saw_id, w.site_id, c.id AS check_id, c.interval_days, c.grace_hours,
+             greatest(w.created_at, c.created_at) AS applies_since,
+             LEAST(coalesce(c.retired_at, 'infinity'::timestamptz), coalesce(w.retired_at, 'infinity'::timestamptz)) AS applies_until,
+             b.t0, b.t1
+        FROM bounds b
+        JOIN saws w ON w.site_id = b.site_id
+        JOIN site_checks c ON c.site_id = b.site_id
+       WHERE c.schedule = '${schedule}' AND ${sawScope} AND ${checkScope}
+         AND NOT (c.target_rule = 'feed_pressure' AND w.head_feed = 'hydraulic')`;
+
+  // A blade-change occasion of blade `r` for the check terms `c`: the blade was on in the period, the check
+  // applied before it came off, and the occasion fell due in the period while the check still applied.
+  const fallsDue = (r: string, c: string) => `greatest(${r}.installed_at, ${c}.applies_since)`;
+  const grace = (c: string) => `make_interval(secs => ${c}.grace_hours * 3600)`;
+  const changeOccasion = (r: string, c: string) =>
+    `${r}.removed_at IS DISTINCT FROM ${r}.installed_at AND coalesce(${r}.removed_at, 'infinity'::timestamptz) > ${r}.t0
+     AND ${c}.applies_since < coalesce(${r}.removed_at, 'infinity'::timestamptz)
+     AND ${fallsDue(r, c)} >= ${r}.t0 AND ${fallsDue(r, c)} < ${r}.t1 AND ${fallsDue(r, c)} < ${c}.applies_until`;
 
   const sql = `
     WITH bounds AS (
@@ -57,80 +82,130 @@ export async function checksPractice(
              LEAST(${m1}::timestamp AT TIME ZONE s.time_zone, ${asOf}::timestamptz) AS t1
         FROM sites s WHERE s.id = ANY(${siteIds}::uuid[]) AND ${siteScope}
     ),
-    pairs AS (
-      SELECT w.id AS saw_id, w.site_id, c.id AS check_id, c.schedule, c.interval_days, c.grace_hours,
-             greatest(w.created_at, c.created_at) AS applies_since,
-             LEAST(coalesce(c.retired_at, 'infinity'::timestamptz), coalesce(w.retired_at, 'infinity'::timestamptz)) AS applies_until,
-             b.t0, b.t1
-        FROM bounds b
-        JOIN saws w ON w.site_id = b.site_id
-        JOIN site_checks c ON c.site_id = b.site_id
-       WHERE b.t1 > b.t0 AND ${sawScope} AND ${checkScope}
-         AND NOT (c.target_rule = 'feed_pressure' AND w.head_feed = 'hydraulic')
+    periodic AS MATERIALIZED (${pairs('periodic')}),
+    changes AS MATERIALIZED (${pairs('blade_change')}),
+    kinds AS MATERIALIZED (
+      -- A saw's blade-change checks with the same terms fall due together: one row for them, with how many.
+      SELECT saw_id, applies_since, applies_until, grace_hours, count(*)::int AS checks
+        FROM changes GROUP BY saw_id, applies_since, applies_until, grace_hours
+    ),
+    changing AS MATERIALIZED (
+      -- Saws with blade-change checks, and the span of the blades that matter: from the one on when the period
+      -- began (if any) to the taking off of the one on when it ended. Blades on saws never overlap.
+      SELECT w.saw_id, w.t0, w.t1,
+             coalesce((SELECT a.installed_at ${lastBladeBefore('a', 'w.saw_id', '<', 'w.t0')}), w.t0) AS lo,
+             coalesce((SELECT coalesce(z.removed_at, 'infinity'::timestamptz) ${lastBladeBefore('z', 'w.saw_id', '<', 'w.t1')}), w.t0) AS hi
+        FROM (SELECT DISTINCT saw_id, t0, t1 FROM changes) w
+    ),
+    blades AS MATERIALIZED (
+      -- Every blade on in the period or taken off in it (including one put on and off at once).
+      SELECT r.id, r.site_id, r.saw_id, r.installed_at, r.removed_at, r.area_cut_mm2, ch.t0, ch.t1
+        FROM changing ch
+        JOIN blade_runs r ON r.saw_id = ch.saw_id AND r.installed_at >= ch.lo AND r.installed_at < ch.t1
+       WHERE coalesce(r.removed_at, 'infinity'::timestamptz) >= ch.t0 AND ${runScope('r')}
+    ),
+    firsts AS MATERIALIZED (
+      -- The first record of each blade-change check while each blade was on: each record of the span goes to
+      -- the blade on at its time (found by one probe), then the earliest per blade and check.
+      SELECT on_then.id AS run_id, k.saw_id, k.site_check_id AS check_id, min(k.checked_at) AS done_at
+        FROM changing ch
+        JOIN changes pr ON pr.saw_id = ch.saw_id
+        CROSS JOIN LATERAL (
+          -- OFFSET 0 keeps this a scan of the span per pair (not of every record, joined to the spans after).
+          SELECT k.saw_id, k.site_check_id, k.checked_at FROM check_records k
+           WHERE k.saw_id = pr.saw_id AND k.site_check_id = pr.check_id
+             AND k.checked_at >= ch.lo AND k.checked_at < ch.hi AND ${recordScope('k')}
+          OFFSET 0
+        ) k
+        CROSS JOIN LATERAL (
+          SELECT o.id, o.removed_at ${lastBladeBefore('o', 'k.saw_id', '<=', 'k.checked_at')}
+        ) on_then
+       WHERE k.checked_at < coalesce(on_then.removed_at, 'infinity'::timestamptz)
+       GROUP BY on_then.id, k.saw_id, k.site_check_id
     ),
     occasions AS (
       -- Every N days: due N days after each record whose next due time falls in the period…
-      SELECT pr.saw_id, pr.site_id, pr.grace_hours, pr.applies_until, pr.t0, pr.t1,
-             r.checked_at + make_interval(days => pr.interval_days) AS falls_due,
-             ${firstRecord('n', 'AND n.checked_at > r.checked_at')} AS done_at
-        FROM pairs pr
+      SELECT pr.site_id, pr.grace_hours, pr.applies_until, pr.t0, pr.t1,
+             r.checked_at + make_interval(days => pr.interval_days) AS falls_due, n.done_at
+        FROM periodic pr
         JOIN check_records r ON r.saw_id = pr.saw_id AND r.site_check_id = pr.check_id
              AND r.checked_at >= pr.t0 - make_interval(days => pr.interval_days)
              AND r.checked_at < pr.t1 - make_interval(days => pr.interval_days)
-       WHERE pr.schedule = 'periodic' AND ${recordScope('r')}
+        CROSS JOIN LATERAL (
+          SELECT min(n.checked_at) AS done_at FROM check_records n
+           WHERE n.saw_id = pr.saw_id AND n.site_check_id = pr.check_id AND n.checked_at > r.checked_at
+             AND ${recordScope('n')}
+        ) n
+       WHERE ${recordScope('r')}
       UNION ALL
       -- …and the first time, when it began to apply.
-      SELECT pr.saw_id, pr.site_id, pr.grace_hours, pr.applies_until, pr.t0, pr.t1, pr.applies_since,
-             ${firstRecord('f', '')}
-        FROM pairs pr
-       WHERE pr.schedule = 'periodic' AND pr.applies_since >= pr.t0 AND pr.applies_since < pr.t1
-      UNION ALL
-      -- At each blade change: due when the blade went on (or the check began to apply), done by the first record
-      -- while that blade was on.
-      SELECT pr.saw_id, pr.site_id, pr.grace_hours, pr.applies_until, pr.t0, pr.t1,
-             greatest(r.installed_at, pr.applies_since),
-             ${firstRecord('k', "AND k.checked_at >= r.installed_at AND k.checked_at < coalesce(r.removed_at, 'infinity'::timestamptz)")}
-        FROM pairs pr
-        JOIN blade_runs r ON r.saw_id = pr.saw_id
-             AND tstzrange(r.installed_at, r.removed_at, '[)') && tstzrange(pr.t0, pr.t1, '[)')
-       WHERE pr.schedule = 'blade_change' AND ${runScope}
-         AND pr.applies_since < coalesce(r.removed_at, 'infinity'::timestamptz)
+      SELECT pr.site_id, pr.grace_hours, pr.applies_until, pr.t0, pr.t1, pr.applies_since, f.done_at
+        FROM periodic pr
+        CROSS JOIN LATERAL (
+          SELECT min(f.checked_at) AS done_at FROM check_records f
+           WHERE f.saw_id = pr.saw_id AND f.site_check_id = pr.check_id AND ${recordScope('f')}
+        ) f
+       WHERE pr.applies_since >= pr.t0 AND pr.applies_since < pr.t1
     ),
     judged AS (
-      SELECT o.saw_id, o.site_id,
-             o.done_at IS NOT NULL AND o.done_at <= o.falls_due + make_interval(secs => o.grace_hours * 3600) AS on_time
+      SELECT o.site_id, count(*)::int AS due,
+             count(*) FILTER (WHERE o.done_at <= o.falls_due + make_interval(secs => o.grace_hours * 3600))::int AS on_time
         FROM occasions o
        WHERE o.falls_due >= o.t0 AND o.falls_due < o.t1 AND o.falls_due < o.applies_until
          AND (o.done_at IS NOT NULL OR o.falls_due + make_interval(secs => o.grace_hours * 3600) < ${asOf}::timestamptz)
+       GROUP BY o.site_id
+      UNION ALL
+      -- At each blade change: due when the blade went on (or the check began to apply), done by the first record
+      -- while that blade was on. Counted in two parts so that blades are not multiplied by checks: every occasion
+      -- whose grace has run out, done or not (checks of a saw with the same terms counted together)…
+      SELECT r.site_id, sum(kd.checks)::int, 0
+        FROM blades r
+        JOIN kinds kd ON kd.saw_id = r.saw_id
+       WHERE ${changeOccasion('r', 'kd')} AND ${fallsDue('r', 'kd')} + ${grace('kd')} < ${asOf}::timestamptz
+       GROUP BY r.site_id
+      UNION ALL
+      -- …and each occasion done: judged too while still within its grace, and on time when done within it.
+      SELECT r.site_id,
+             count(*) FILTER (WHERE ${fallsDue('r', 'pr')} + ${grace('pr')} >= ${asOf}::timestamptz)::int,
+             count(*) FILTER (WHERE f.done_at <= ${fallsDue('r', 'pr')} + ${grace('pr')})::int
+        FROM firsts f
+        JOIN blades r ON r.id = f.run_id
+        JOIN changes pr ON pr.saw_id = f.saw_id AND pr.check_id = f.check_id
+       WHERE ${changeOccasion('r', 'pr')}
+       GROUP BY r.site_id
     ),
     finished AS (
-      -- Each blade taken off in the period (area recorded): were its blade-change checks done on time?
-      SELECT r.id, r.site_id, r.area_cut_mm2,
-             bool_and(k.done_at IS NOT NULL
-                      AND k.done_at <= greatest(r.installed_at, pr.applies_since)
-                                       + make_interval(secs => pr.grace_hours * 3600)) AS on_time
-        FROM bounds b
-        JOIN blade_runs r ON r.site_id = b.site_id AND r.removed_at >= b.t0 AND r.removed_at < b.t1
-        JOIN pairs pr ON pr.saw_id = r.saw_id AND pr.schedule = 'blade_change' AND pr.applies_since < r.removed_at
-             AND r.removed_at >= pr.t0 AND r.removed_at < pr.t1
-        CROSS JOIN LATERAL (
-          SELECT min(k.checked_at) AS done_at FROM check_records k
-           WHERE k.saw_id = r.saw_id AND k.site_check_id = pr.check_id
-             AND k.checked_at >= r.installed_at AND k.checked_at < r.removed_at AND ${recordScope('k')}
-        ) k
-       WHERE r.area_cut_mm2 IS NOT NULL AND ${runScope}
-       GROUP BY r.id, r.site_id, r.area_cut_mm2
+      -- Each blade taken off in the period (area recorded): were all its blade-change checks done on time? Its
+      -- checks that applied, less those done within their grace (one pass, no join of the two).
+      SELECT id, site_id, area_cut_mm2, sum(open) = 0 AS on_time
+        FROM (
+          SELECT r.id, r.site_id, r.area_cut_mm2, kd.checks AS open
+            FROM blades r
+            JOIN kinds kd ON kd.saw_id = r.saw_id AND kd.applies_since < r.removed_at
+           WHERE r.removed_at >= r.t0 AND r.removed_at < r.t1 AND r.area_cut_mm2 IS NOT NULL
+          UNION ALL
+          SELECT r.id, r.site_id, r.area_cut_mm2, -1
+            FROM firsts f
+            JOIN blades r ON r.id = f.run_id
+            JOIN changes pr ON pr.saw_id = f.saw_id AND pr.check_id = f.check_id
+           WHERE r.removed_at >= r.t0 AND r.removed_at < r.t1 AND r.area_cut_mm2 IS NOT NULL
+             AND pr.applies_since < r.removed_at AND f.done_at <= ${fallsDue('r', 'pr')} + ${grace('pr')}
+        ) checks
+       GROUP BY id, site_id, area_cut_mm2
+      HAVING max(open) > 0
     ),
     life AS (
       SELECT site_id,
              percentile_cont(0.5) WITHIN GROUP (ORDER BY area_cut_mm2) FILTER (WHERE on_time) AS on_time_median,
              percentile_cont(0.5) WITHIN GROUP (ORDER BY area_cut_mm2) FILTER (WHERE NOT on_time) AS late_median
         FROM finished GROUP BY site_id
+    ),
+    per_site AS (
+      SELECT site_id, sum(due)::int AS due, sum(on_time)::int AS on_time FROM judged GROUP BY site_id
     )
-    SELECT j.site_id, count(*)::int AS due, count(*) FILTER (WHERE j.on_time)::int AS on_time,
-           l.on_time_median, l.late_median
-      FROM judged j LEFT JOIN life l ON l.site_id = j.site_id
-     GROUP BY j.site_id, l.on_time_median, l.late_median`;
+    SELECT j.site_id, j.due, j.on_time, l.on_time_median, l.late_median
+      FROM per_site j LEFT JOIN life l ON l.site_id = j.site_id
+     WHERE j.due > 0`;
 
   const rows = await sequelize.query<{
     site_id: string;

@@ -154,3 +154,100 @@ describe('checks done on time, per site and period', () => {
     expect([due, onTime]).toEqual([5, 2]);
   });
 });
+
+/*
+ * May 2026 on the same saw (2026-04-30T22:00Z to 2026-05-31T22:00Z): a second check at each blade change, "Band
+ * tension" (24 h grace), begins to apply on 15 April. Blades: 28 Apr 06:00 to 4 May 06:00 (both its checks done
+ * before the period began), 10 May 08:00 to 20 May 08:00 (its guide check at the very minute it went on), and one
+ * put on 25 May 08:00 and still on, whose guide check came after the period ended.
+ */
+describe('blade-change checks around the period’s edges', () => {
+  const may = [
+    { on: '2026-04-28T06:00:00Z', off: '2026-05-04T06:00:00Z', area: 4_000_000 },
+    { on: '2026-05-10T08:00:00Z', off: '2026-05-20T08:00:00Z', area: 5_000_000 },
+    { on: '2026-05-25T08:00:00Z', off: null, area: null },
+  ];
+  beforeAll(async () => {
+    const saw = world.saws.A![0]!;
+    const [guide, tension] = await Promise.all(
+      ['Guide opening', 'Band tension'].map(async (name) =>
+        name === 'Guide opening'
+          ? (
+              (await ctx.sequelize.query(`SELECT id FROM site_checks WHERE site_id = :site AND name = :name`, {
+                replacements: { site: saw.siteId, name },
+                type: QueryTypes.SELECT,
+              })) as { id: string }[]
+            )[0]!.id
+          : (
+              (await ctx.sequelize.query(
+                `INSERT INTO site_checks (site_id, name, quantity, target_rule, schedule, interval_days, grace_hours, created_at)
+                 VALUES (:site, :name, 'length', 'band_tension', 'blade_change', NULL, 24, '2026-04-15T00:00:00Z') RETURNING id`,
+                { replacements: { site: saw.siteId, name }, type: QueryTypes.SELECT },
+              )) as { id: string }[]
+            )[0]!.id,
+      ),
+    );
+    const records: [string, string][] = [
+      [guide!, '2026-04-28T10:00:00Z'], // first blade, within 8 h of 06:00: on time
+      [tension!, '2026-04-29T05:00:00Z'], // first blade, within 24 h: on time
+      [guide!, '2026-05-10T08:00:00Z'], // second blade, the minute it went on: on time
+      [tension!, '2026-05-11T09:00:00Z'], // second blade, an hour past its 24 h: late
+      [guide!, '2026-06-02T08:00:00Z'], // third blade, a week after it went on: late
+    ];
+    for (const [check, t] of records)
+      await ctx.sequelize.query(
+        `INSERT INTO check_records (site_id, saw_id, site_check_id, checked_at, target_rule, quantity, reading, passed, explanation)
+         VALUES (:site, :saw, :check, :t, 'tracking', 'length', 1, true, 'fixture')`,
+        { replacements: { site: saw.siteId, saw: saw.id, check, t }, type: QueryTypes.RAW },
+      );
+    const spec = await BladeSpec.findOne({ where: { name: 'Practice spec' } });
+    for (const r of may)
+      await BladeRun.create({
+        siteId: saw.siteId,
+        sawId: saw.id,
+        bladeSpecId: spec!.id,
+        stockReceiptId: null,
+        installedAt: at(r.on),
+        installedById: null,
+        tensionMpa: null,
+        materialGroup: 'carbon_steel',
+        breakInFollowed: true,
+        installNotes: null,
+        costMinor: 6000,
+        currency: 'EUR',
+        removedAt: r.off === null ? null : at(r.off),
+        removalReason: r.off === null ? null : 'worn_out',
+        areaCutMm2: r.area,
+        cuts: r.off === null ? null : 100,
+      });
+  });
+
+  it('finds each blade’s first record even before the period or after it, and counts each check apart (by hand)', async () => {
+    const practice = await getPractice(
+      await abilityFor(world.users.admin.id),
+      { from: '2026-05', to: '2026-05' },
+      AS_OF,
+    );
+    const a = practice.sites.find((s) => s.site.code === 'A')!;
+    // The first blade fell due in April. Second blade: guide on time, tension late; third blade: guide done after
+    // its grace (on 2 June), tension never done and its grace long over → both late. No weekly check fell due in
+    // May (its last record, 27 Mar, fell due again in April). 4 occasions, 1 on time.
+    expect([a.checksDue, a.checksOnTime]).toEqual([4, 1]);
+    // Taken off in May: the first blade, both checks done on time before May (4 000 000 mm²), and the second, its
+    // tension check late (5 000 000 mm²). The third is still on.
+    expect(a.medianLifeChecksOnTimeMm2).toBe(4_000_000);
+    expect(a.medianLifeChecksLateMm2).toBe(5_000_000);
+  });
+
+  it('still counts March as before: the tension check began to apply after March’s blades came off', async () => {
+    const practice = await getPractice(
+      await abilityFor(world.users.admin.id),
+      { from: '2026-03', to: '2026-03' },
+      AS_OF,
+    );
+    const a = practice.sites.find((s) => s.site.code === 'A')!;
+    expect([a.checksDue, a.checksOnTime]).toEqual([5, 2]);
+    expect(a.medianLifeChecksOnTimeMm2).toBe(3_000_000);
+    expect(a.medianLifeChecksLateMm2).toBe(1_000_000);
+  });
+});
