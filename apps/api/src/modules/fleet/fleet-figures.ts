@@ -133,7 +133,8 @@ function scopeCtes(
   const siteScope = scopeSql(scope.ability, 'read', 'Site', Site, 's', params);
   const sawScope = scopeSql(scope.ability, 'read', 'Saw', Saw, 'w', params);
   const siteIds = params.add(scope.siteIds);
-  const sawFilter = scope.sawIds ? ` AND w.id = ANY(${params.add(scope.sawIds)}::uuid[])` : '';
+  // A list of saws (1 500 for a fleet-wide review) is matched through a hashed set, not scanned per saw.
+  const sawFilter = scope.sawIds ? ` AND w.id IN (SELECT unnest(${params.add(scope.sawIds)}::uuid[]))` : '';
   const asOf = params.add(scope.asOf);
   const monthKeys = params.add(months);
   const monthStarts = params.add(months.map((m) => `${monthStart(m)} 00:00:00`));
@@ -148,9 +149,13 @@ function scopeCtes(
       SELECT w.id, w.site_id, w.retired_at,
              ${
                buckets
-                 ? `LEAST(w.created_at,
-                   (SELECT min(r0.installed_at) FROM blade_runs r0 WHERE r0.saw_id = w.id),
-                   (SELECT min(p0.started_at) FROM stops p0 WHERE p0.saw_id = w.id))`
+                 ? // A saw created a day or more before the first month began was in service for all of it, in any
+                   // zone: its first run and stop cannot move its months' windows, so they are not looked up.
+                   `CASE WHEN w.created_at <= ${params.add(`${monthStart(months[0]!)} 00:00:00`)}::timestamp AT TIME ZONE 'UTC' - interval '1 day'
+                        THEN w.created_at
+                        ELSE LEAST(w.created_at,
+                                   (SELECT min(r0.installed_at) FROM blade_runs r0 WHERE r0.saw_id = w.id),
+                                   (SELECT min(p0.started_at) FROM stops p0 WHERE p0.saw_id = w.id)) END`
                  : 'NULL::timestamptz'
              } AS in_service_from
         FROM saws w JOIN sites_in s ON s.id = w.site_id
@@ -242,7 +247,7 @@ function runMonthsCte(
     level === 'saw'
       ? ` AND ${alias}.saw_id IN (SELECT id FROM saws_in)`
       : sawIds
-        ? ` AND ${alias}.saw_id = ANY(${sawIds}::uuid[])`
+        ? ` AND ${alias}.saw_id IN (SELECT unnest(${sawIds}::uuid[]))`
         : '';
   const materials = Object.fromEntries(
     MATERIAL_GROUPS.map((m) => [`material_${m}`, `(r.material_group = '${m}')::int`]),
