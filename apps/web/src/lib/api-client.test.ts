@@ -1,6 +1,6 @@
-import { describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { z } from 'zod';
-import { ApiError, apiRequest, api } from './api-client';
+import { ApiError, apiRequest, api, askEarly } from './api-client';
 import { installFakeApi } from '../test-support/fake-api';
 
 const thing = z.object({ id: z.string(), widthMm: z.number() });
@@ -66,5 +66,48 @@ describe('apiRequest', () => {
     const { requests } = installFakeApi({ 'POST /api/auth/sign-out': { status: 204 } });
     await expect(api.post('/auth/sign-out', undefined, null)).resolves.toBeUndefined();
     expect(requests[0]?.method).toBe('POST');
+  });
+});
+
+describe('answers asked for early', () => {
+  afterEach(() => vi.useRealTimers());
+
+  it('the first read of the same address takes the early answer; the next read asks again', async () => {
+    let served = 0;
+    const { requests } = installFakeApi({
+      'GET /api/saws': () => ({ status: 200, body: { id: `answer-${(served += 1)}`, widthMm: 34 } }),
+    });
+    askEarly('/saws', { from: '2026-01', to: '2026-06', sites: null });
+    expect(requests).toHaveLength(1);
+    await expect(api.get('/saws', thing, { query: { from: '2026-01', to: '2026-06' } })).resolves.toEqual({
+      id: 'answer-1',
+      widthMm: 34,
+    });
+    expect(requests).toHaveLength(1);
+    await expect(api.get('/saws', thing, { query: { from: '2026-01', to: '2026-06' } })).resolves.toMatchObject({
+      id: 'answer-2',
+    });
+    expect(requests).toHaveLength(2);
+  });
+
+  it('an answer asked for more than ten seconds before it is read is not used', async () => {
+    vi.useFakeTimers({ toFake: ['Date'] });
+    let served = 0;
+    const { requests } = installFakeApi({
+      'GET /api/saws': () => ({ status: 200, body: { id: `answer-${(served += 1)}`, widthMm: 34 } }),
+    });
+    askEarly('/saws');
+    vi.setSystemTime(Date.now() + 11_000);
+    await expect(api.get('/saws', thing)).resolves.toMatchObject({ id: 'answer-2' });
+    expect(requests).toHaveLength(2);
+  });
+
+  it('an early answer for another address is left alone', async () => {
+    const { requests } = installFakeApi({
+      'GET /api/saws': { status: 200, body: { id: 'x', widthMm: 34 } },
+    });
+    askEarly('/saws', { from: '2026-01' });
+    await api.get('/saws', thing, { query: { from: '2026-02' } });
+    expect(requests.map((r) => r.query.get('from'))).toEqual(['2026-01', '2026-02']);
   });
 });

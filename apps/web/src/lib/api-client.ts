@@ -80,6 +80,36 @@ type RequestOptions = {
   signal?: AbortSignal;
 };
 
+/** How long an answer asked for early waits to be taken before it is thrown away as too old to show. */
+const EARLY_ANSWER_MS = 10_000;
+const earlyAnswers = new Map<string, { askedAt: number; answer: Promise<Response> }>();
+
+/**
+ * Asks for a GET answer now, before the code that reads it has arrived (a route's loader, while the page's code
+ * loads); the first `api.get` of the same address within ten seconds takes it instead of asking again. A failure
+ * is left for that reader, who handles it as its own.
+ */
+export function askEarly(path: string, query: Query = {}): void {
+  const url = urlOf(path, query);
+  const waiting = earlyAnswers.get(url);
+  if (waiting && Date.now() - waiting.askedAt < EARLY_ANSWER_MS) return;
+  const answer = fetch(url, { headers: { Accept: 'application/json' }, credentials: 'same-origin' });
+  answer.catch(() => undefined);
+  earlyAnswers.set(url, { askedAt: Date.now(), answer });
+}
+
+/** The answer asked for early for `url`, once, if it is recent enough. */
+function takeEarly(url: string): Promise<Response> | undefined {
+  const waiting = earlyAnswers.get(url);
+  earlyAnswers.delete(url);
+  return waiting && Date.now() - waiting.askedAt < EARLY_ANSWER_MS ? waiting.answer : undefined;
+}
+
+function urlOf(path: string, query: Query | undefined): string {
+  const search = query ? toSearchParams(query).toString() : '';
+  return `/api${path}${search ? `?${search}` : ''}`;
+}
+
 async function readJson(response: Response): Promise<unknown> {
   const text = await response.text();
   if (text.trim() === '') return undefined;
@@ -99,8 +129,7 @@ export async function apiRequest<T>(
   schema: z.ZodType<T> | null,
   options: RequestOptions = {},
 ): Promise<T> {
-  const search = options.query ? toSearchParams(options.query).toString() : '';
-  const url = `/api${path}${search ? `?${search}` : ''}`;
+  const url = urlOf(path, options.query);
   const headers: Record<string, string> = { Accept: 'application/json' };
   // A form (a file upload) sets its own multipart type and boundary; everything else is JSON.
   const isForm = typeof FormData !== 'undefined' && options.body instanceof FormData;
@@ -108,13 +137,16 @@ export async function apiRequest<T>(
 
   let response: Response;
   try {
-    response = await fetch(url, {
-      method: options.method ?? 'GET',
-      headers,
-      credentials: 'same-origin',
-      body: options.body === undefined ? undefined : isForm ? (options.body as FormData) : JSON.stringify(options.body),
-      signal: options.signal,
-    });
+    const early = (options.method ?? 'GET') === 'GET' ? takeEarly(url) : undefined;
+    response = await (early ??
+      fetch(url, {
+        method: options.method ?? 'GET',
+        headers,
+        credentials: 'same-origin',
+        body:
+          options.body === undefined ? undefined : isForm ? (options.body as FormData) : JSON.stringify(options.body),
+        signal: options.signal,
+      }));
   } catch (cause) {
     // An abort is the caller's own doing (a query that is no longer needed): pass it through untouched.
     if (cause instanceof DOMException && cause.name === 'AbortError') throw cause;

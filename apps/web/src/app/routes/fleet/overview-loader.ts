@@ -1,5 +1,8 @@
 import type { QueryClient } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
+import { defaultPeriod } from '@kerfline/domain/fleet/period';
+import { askEarly } from '../../../lib/api-client';
+import { fleetKeys } from '../../../features/fleet/api/keys';
 import { forgetFailedChartCode, loadChartCode } from '../../../features/fleet/components/chart-code';
 
 /**
@@ -11,8 +14,19 @@ import { forgetFailedChartCode, loadChartCode } from '../../../features/fleet/co
  */
 export function overviewLoader(queryClient: QueryClient) {
   return ({ request }: LoaderFunctionArgs) => {
-    // The queries and their schemas (zod) come in their own small chunk, so the first page's JavaScript stays light.
     const search = new URL(request.url).searchParams;
+    // On a first visit the figures are asked for at once, by the same address the page's query will use (the
+    // period asked for, or the last twelve whole months), before the query code below has arrived; that query then
+    // takes this answer rather than asking again. A period the query reads differently just goes unused.
+    if (queryClient.getQueryCache().findAll({ queryKey: [...fleetKeys.all, 'overview'] }).length === 0) {
+      const period = search.has('from') || search.has('to') ? null : defaultPeriod(new Date());
+      askEarly('/fleet/overview', {
+        from: period?.from ?? search.get('from'),
+        to: period?.to ?? search.get('to'),
+        sites: search.get('sites'),
+      });
+    }
+    // The queries and their schemas (zod) come in their own small chunk, so the first page's JavaScript stays light.
     void import('../../../features/fleet/api/queries').then(({ fleetOverviewQuery, fleetQueryFromSearch }) =>
       queryClient.prefetchQuery(fleetOverviewQuery(fleetQueryFromSearch(search))),
     );
