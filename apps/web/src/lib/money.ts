@@ -1,3 +1,4 @@
+import { numberFormat } from '@kerfline/domain/common/number-format';
 import { APP_LOCALE } from './format';
 
 /**
@@ -6,9 +7,7 @@ import { APP_LOCALE } from './format';
  */
 export function currencyDigits(currency: string): number {
   try {
-    return (
-      new Intl.NumberFormat(APP_LOCALE, { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2
-    );
+    return numberFormat(APP_LOCALE, { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2;
   } catch {
     return 2;
   }
@@ -23,7 +22,7 @@ export function formatMoney(minor: number, currency: string, options: { cents?: 
   const major = minor / 10 ** digits;
   const cents = options.cents ?? true;
   const keep = cents === 'auto' ? Math.abs(major) < 1000 : cents;
-  return new Intl.NumberFormat(APP_LOCALE, {
+  return numberFormat(APP_LOCALE, {
     style: 'currency',
     currency,
     minimumFractionDigits: keep ? digits : 0,

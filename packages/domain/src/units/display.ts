@@ -5,6 +5,7 @@
  * on the shop floor (1.25 in / 31.8 mm, 246 ft/min / 75 m/min, 0.042 in / 1.07 mm).
  */
 import type { UnitSystem } from '../sites/schema.js';
+import { numberFormat as cachedNumberFormat } from '../common/number-format.js';
 import {
   fpmToMPerMin,
   in2ToMm2,
@@ -426,7 +427,7 @@ export function dualText(
 
 /** Decimals of an amount of money in a currency (2 for USD, 0 for JPY), from the platform's currency data. */
 function currencyDigits(currency: string): number {
-  return new Intl.NumberFormat('en-US', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2;
+  return cachedNumberFormat('en-US', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2;
 }
 
 /**
@@ -446,7 +447,7 @@ export function moneyPerAreaToDisplay(
   const unit = system === 'imperial' ? 'in²' : 'cm²';
   const decimals = Math.max(digits, significantDecimals(value));
   const rounded = roundTo(value, decimals);
-  const money = new Intl.NumberFormat(options.locale ?? 'en-US', {
+  const money = cachedNumberFormat(options.locale ?? 'en-US', {
     style: 'currency',
     currency,
     minimumFractionDigits: digits,

@@ -1,4 +1,5 @@
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
+import { numberFormat } from '@kerfline/domain/common/number-format';
 import type { Figures } from '@kerfline/domain/fleet/schema';
 import { monthLabel } from '@kerfline/domain/fleet/period';
 import { minorUnitDigits } from '@kerfline/domain/money/currency';
@@ -54,8 +55,7 @@ export function MonthPanel({
             },
           ],
           yLegend: `${currency} per month`,
-          formatY: (v) =>
-            new Intl.NumberFormat(APP_LOCALE, { style: 'currency', currency, maximumFractionDigits: 0 }).format(v),
+          formatY: (v) => numberFormat(APP_LOCALE, { style: 'currency', currency, maximumFractionDigits: 0 }).format(v),
         }
       }
       table={

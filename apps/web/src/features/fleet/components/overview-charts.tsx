@@ -1,4 +1,5 @@
 import { useDeferredValue } from 'react';
+import { numberFormat } from '@kerfline/domain/common/number-format';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import type { FleetOverview, FleetQuery } from '@kerfline/domain/fleet/schema';
 import { DOWNTIME_CATEGORIES } from '@kerfline/domain/metrics/schema';
@@ -30,8 +31,8 @@ export function exportPath(base: string, query: FleetQuery, units: UnitSystem, e
 
 /** Money on an axis or in a tooltip: cents under a thousand, whole units above (formatters made once per chart). */
 const money = (currency: string) => {
-  const small = new Intl.NumberFormat(APP_LOCALE, { style: 'currency', currency, maximumFractionDigits: 2 });
-  const large = new Intl.NumberFormat(APP_LOCALE, { style: 'currency', currency, maximumFractionDigits: 0 });
+  const small = numberFormat(APP_LOCALE, { style: 'currency', currency, maximumFractionDigits: 2 });
+  const large = numberFormat(APP_LOCALE, { style: 'currency', currency, maximumFractionDigits: 0 });
   return (major: number) => (major < 1000 ? small : large).format(major);
 };
 
@@ -71,8 +72,9 @@ function spendSpec(data: FleetOverview | undefined): ChartSpec | null {
 /** The overview's four charts: spend and cost per area per site by month, stop hours by category, blade life. */
 export function OverviewCharts({ data: shown, status: shownStatus, errorMessage, onRetry, units, query }: Props) {
   // The first chart draws with the figures as they come; the other three a moment later, in the background
-  // (React's deferred value), so the first one is on screen without waiting for all four.
-  const data = useDeferredValue(shown);
+  // (React's deferred value), so the first one is on screen without waiting for all four. Null as the first value
+  // defers them also when the figures were already in the cache as the page mounted.
+  const data = useDeferredValue<FleetOverview | null | undefined>(shown, null) ?? undefined;
   const status = shownStatus === 'success' && !data ? 'pending' : shownStatus;
   const currency = data?.reportingCurrency ?? 'USD';
   const shownCurrency = shown?.reportingCurrency ?? 'USD';
@@ -116,7 +118,7 @@ export function OverviewCharts({ data: shown, status: shownStatus, errorMessage,
         })),
         yLegend: perAreaUnit,
         formatY: (v) =>
-          new Intl.NumberFormat(APP_LOCALE, { style: 'currency', currency, maximumSignificantDigits: 2 }).format(v),
+          numberFormat(APP_LOCALE, { style: 'currency', currency, maximumSignificantDigits: 2 }).format(v),
       }
     : null;
 
