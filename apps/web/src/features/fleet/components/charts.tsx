@@ -1,5 +1,6 @@
-import { ResponsiveLine } from '@nivo/line';
-import { ResponsiveBar } from '@nivo/bar';
+import { useLayoutEffect, useRef, useState, type ReactNode } from 'react';
+import { Line } from '@nivo/line';
+import { Bar } from '@nivo/bar';
 import { monthLabel } from '@kerfline/domain/fleet/period';
 import { siteColour, siteShape } from '../../../lib/palette';
 import type { ChartSpec } from './chart-spec';
@@ -50,66 +51,138 @@ function PointShape({ x, y, slot, size }: { x: number; y: number; slot: number; 
   }
 }
 
+/**
+ * A chart as wide as its box. The width is read in the same commit that first shows the box (a layout effect,
+ * before the browser paints), so a chart draws with its figures instead of one frame later, as a resize observer
+ * alone would; the observer then follows the box as the window changes.
+ */
+function Sized({ height, children }: { height: number; children: (width: number) => ReactNode }) {
+  const box = useRef<HTMLDivElement>(null);
+  const [width, setWidth] = useState(0);
+  useLayoutEffect(() => {
+    const element = box.current;
+    if (!element) return;
+    setWidth(Math.floor(element.getBoundingClientRect().width));
+    if (typeof ResizeObserver === 'undefined') return;
+    const observer = new ResizeObserver(([entry]) => {
+      if (entry) setWidth(Math.floor(entry.contentRect.width));
+    });
+    observer.observe(element);
+    return () => observer.disconnect();
+  }, []);
+  return (
+    <div ref={box} style={{ height }}>
+      {width > 0 ? children(width) : null}
+    </div>
+  );
+}
+
 export default function FleetChart({ spec, label, height = 320 }: { spec: ChartSpec; label: string; height?: number }) {
   const margin = { top: 16, right: 24, bottom: 56, left: 84 };
   if (spec.kind === 'line') {
     const slotOf = new Map(spec.series.map((s) => [s.id, s.slot]));
     return (
-      <div style={{ height }}>
-        <ResponsiveLine
-          data={spec.series.map((s) => ({ id: s.id, data: s.points.map((p) => ({ ...p, slot: s.slot })) }))}
-          margin={margin}
-          theme={THEME}
-          colors={(serie) => siteColour(slotOf.get(String(serie.id)) ?? 0)}
-          lineWidth={2.5}
-          xScale={{ type: 'point' }}
-          yScale={{ type: 'linear', min: 0, max: 'auto' }}
-          axisBottom={{ format: (v) => shortMonth(String(v)), tickRotation: -35 }}
-          gridYValues={5}
-          axisLeft={{
-            format: (v) => spec.formatY(Number(v)),
-            tickValues: 5,
-            legend: spec.yLegend,
-            legendOffset: -74,
-            legendPosition: 'middle',
-          }}
-          pointSize={8}
-          pointSymbol={({ size, datum }) => (
-            // nivo hands the point's own data to the symbol: each point carries its series' slot for its shape.
-            <PointShape x={0} y={0} size={size} slot={(datum as { slot?: number }).slot ?? 0} />
-          )}
-          useMesh
-          enableSlices="x"
-          sliceTooltip={({ slice }) => (
-            <div className="rounded-sheet border border-rule bg-card px-3 py-2 text-sm shadow">
-              <p className="font-bold">{monthLabel(String(slice.points[0]?.data.x))}</p>
-              {slice.points.map((p) => (
-                <p key={p.id}>
-                  {spec.series.find((s) => s.id === p.seriesId)?.label}: {spec.formatY(Number(p.data.y))}
-                </p>
-              ))}
-            </div>
-          )}
-          role="img"
-          ariaLabel={label}
-        />
-      </div>
+      <Sized height={height}>
+        {(width) => (
+          <Line
+            width={width}
+            height={height}
+            data={spec.series.map((s) => ({ id: s.id, data: s.points.map((p) => ({ ...p, slot: s.slot })) }))}
+            margin={margin}
+            theme={THEME}
+            colors={(serie) => siteColour(slotOf.get(String(serie.id)) ?? 0)}
+            lineWidth={2.5}
+            xScale={{ type: 'point' }}
+            yScale={{ type: 'linear', min: 0, max: 'auto' }}
+            axisBottom={{ format: (v) => shortMonth(String(v)), tickRotation: -35 }}
+            gridYValues={5}
+            axisLeft={{
+              format: (v) => spec.formatY(Number(v)),
+              tickValues: 5,
+              legend: spec.yLegend,
+              legendOffset: -74,
+              legendPosition: 'middle',
+            }}
+            pointSize={8}
+            pointSymbol={({ size, datum }) => (
+              // nivo hands the point's own data to the symbol: each point carries its series' slot for its shape.
+              <PointShape x={0} y={0} size={size} slot={(datum as { slot?: number }).slot ?? 0} />
+            )}
+            useMesh
+            enableSlices="x"
+            sliceTooltip={({ slice }) => (
+              <div className="rounded-sheet border border-rule bg-card px-3 py-2 text-sm shadow">
+                <p className="font-bold">{monthLabel(String(slice.points[0]?.data.x))}</p>
+                {slice.points.map((p) => (
+                  <p key={p.id}>
+                    {spec.series.find((s) => s.id === p.seriesId)?.label}: {spec.formatY(Number(p.data.y))}
+                  </p>
+                ))}
+              </div>
+            )}
+            role="img"
+            ariaLabel={label}
+          />
+        )}
+      </Sized>
     );
   }
   if (spec.kind === 'stacked') {
     return (
-      <div style={{ height }}>
-        <ResponsiveBar
-          data={spec.rows.map((r) => ({ id: r.label, ...r.values }))}
-          keys={spec.keys.map((k) => k.key)}
+      <Sized height={height}>
+        {(width) => (
+          <Bar
+            width={width}
+            height={height}
+            data={spec.rows.map((r) => ({ id: r.label, ...r.values }))}
+            keys={spec.keys.map((k) => k.key)}
+            indexBy="id"
+            groupMode="stacked"
+            margin={margin}
+            theme={THEME}
+            padding={0.3}
+            colors={(bar) => spec.keys.find((k) => k.key === bar.id)?.colour ?? '#000'}
+            borderColor="#FFFDF9"
+            borderWidth={1}
+            enableLabel={false}
+            gridYValues={5}
+            axisLeft={{
+              format: (v) => spec.formatY(Number(v)),
+              tickValues: 5,
+              legend: spec.yLegend,
+              legendOffset: -74,
+              legendPosition: 'middle',
+            }}
+            axisBottom={{ tickRotation: 0 }}
+            tooltip={({ id, value, indexValue }) => (
+              <div className="rounded-sheet border border-rule bg-card px-3 py-2 text-sm shadow">
+                {indexValue}: {spec.keys.find((k) => k.key === id)?.label} {spec.formatY(value)}
+              </div>
+            )}
+            role="img"
+            ariaLabel={label}
+            barAriaLabel={(d) =>
+              `${d.indexValue}, ${spec.keys.find((k) => k.key === d.id)?.label}: ${spec.formatY(d.value ?? 0)}`
+            }
+          />
+        )}
+      </Sized>
+    );
+  }
+  const slotOf = new Map(spec.rows.map((r) => [r.label, r.slot]));
+  return (
+    <Sized height={height}>
+      {(width) => (
+        <Bar
+          width={width}
+          height={height}
+          data={spec.rows.map((r) => ({ id: r.label, value: r.value ?? 0 }))}
+          keys={['value']}
           indexBy="id"
-          groupMode="stacked"
           margin={margin}
           theme={THEME}
-          padding={0.3}
-          colors={(bar) => spec.keys.find((k) => k.key === bar.id)?.colour ?? '#000'}
-          borderColor="#FFFDF9"
-          borderWidth={1}
+          padding={0.35}
+          colors={(bar) => siteColour(slotOf.get(String(bar.indexValue)) ?? 0)}
           enableLabel={false}
           gridYValues={5}
           axisLeft={{
@@ -119,50 +192,16 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
             legendOffset: -74,
             legendPosition: 'middle',
           }}
-          axisBottom={{ tickRotation: 0 }}
-          tooltip={({ id, value, indexValue }) => (
+          tooltip={({ value, indexValue }) => (
             <div className="rounded-sheet border border-rule bg-card px-3 py-2 text-sm shadow">
-              {indexValue}: {spec.keys.find((k) => k.key === id)?.label} {spec.formatY(value)}
+              {indexValue}: {spec.formatY(value)}
             </div>
           )}
           role="img"
           ariaLabel={label}
-          barAriaLabel={(d) =>
-            `${d.indexValue}, ${spec.keys.find((k) => k.key === d.id)?.label}: ${spec.formatY(d.value ?? 0)}`
-          }
+          barAriaLabel={(d) => `${d.indexValue}: ${spec.formatY(d.value ?? 0)}`}
         />
-      </div>
-    );
-  }
-  const slotOf = new Map(spec.rows.map((r) => [r.label, r.slot]));
-  return (
-    <div style={{ height }}>
-      <ResponsiveBar
-        data={spec.rows.map((r) => ({ id: r.label, value: r.value ?? 0 }))}
-        keys={['value']}
-        indexBy="id"
-        margin={margin}
-        theme={THEME}
-        padding={0.35}
-        colors={(bar) => siteColour(slotOf.get(String(bar.indexValue)) ?? 0)}
-        enableLabel={false}
-        gridYValues={5}
-        axisLeft={{
-          format: (v) => spec.formatY(Number(v)),
-          tickValues: 5,
-          legend: spec.yLegend,
-          legendOffset: -74,
-          legendPosition: 'middle',
-        }}
-        tooltip={({ value, indexValue }) => (
-          <div className="rounded-sheet border border-rule bg-card px-3 py-2 text-sm shadow">
-            {indexValue}: {spec.formatY(value)}
-          </div>
-        )}
-        role="img"
-        ariaLabel={label}
-        barAriaLabel={(d) => `${d.indexValue}: ${spec.formatY(d.value ?? 0)}`}
-      />
-    </div>
+      )}
+    </Sized>
   );
 }

@@ -1,4 +1,4 @@
-import { useDeferredValue } from 'react';
+import { useDeferredValue, useEffect, useState } from 'react';
 import { numberFormat } from '@kerfline/domain/common/number-format';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import type { FleetOverview, FleetQuery } from '@kerfline/domain/fleet/schema';
@@ -36,6 +36,23 @@ const money = (currency: string) => {
   return (major: number) => (major < 1000 ? small : large).format(major);
 };
 
+/** True from the frame after `ready` first became true: what waits for it lets the screen paint first. */
+function useAfterNextFrame(ready: boolean): boolean {
+  const [after, setAfter] = useState(false);
+  useEffect(() => {
+    if (!ready || after) return;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const frame = requestAnimationFrame(() => {
+      timer = setTimeout(() => setAfter(true), 0);
+    });
+    return () => {
+      cancelAnimationFrame(frame);
+      if (timer !== undefined) clearTimeout(timer);
+    };
+  }, [ready, after]);
+  return after;
+}
+
 /** The months of an overview, in order. */
 const monthsOf = (data: FleetOverview) => [...new Set(data.months.map((m) => m.month))];
 
@@ -71,10 +88,10 @@ function spendSpec(data: FleetOverview | undefined): ChartSpec | null {
 
 /** The overview's four charts: spend and cost per area per site by month, stop hours by category, blade life. */
 export function OverviewCharts({ data: shown, status: shownStatus, errorMessage, onRetry, units, query }: Props) {
-  // The first chart draws with the figures as they come; the other three a moment later, in the background
-  // (React's deferred value), so the first one is on screen without waiting for all four. Null as the first value
-  // defers them also when the figures were already in the cache as the page mounted.
-  const data = useDeferredValue<FleetOverview | null | undefined>(shown, null) ?? undefined;
+  // The first chart draws with the figures as they come; the other three once it is on screen (after the next
+  // frame), and then in the background (React's deferred value), so the first one never waits for all four.
+  const restShown = useAfterNextFrame(shown !== undefined);
+  const data = useDeferredValue<FleetOverview | null | undefined>(restShown ? shown : null, null) ?? undefined;
   const status = shownStatus === 'success' && !data ? 'pending' : shownStatus;
   const currency = data?.reportingCurrency ?? 'USD';
   const shownCurrency = shown?.reportingCurrency ?? 'USD';
