@@ -3,44 +3,7 @@
  * field holds `2026-03-04T07:30` in the site's time zone, and these turn it into the instant the API stores
  * (and back). Daylight-saving changes are handled by asking Intl for the zone's offset at that moment.
  */
-
-const partsFormats = new Map<string, Intl.DateTimeFormat>();
-function partsFormat(timeZone: string): Intl.DateTimeFormat {
-  let format = partsFormats.get(timeZone);
-  if (!format) {
-    format = new Intl.DateTimeFormat('en-US', {
-      timeZone,
-      hourCycle: 'h23',
-      year: 'numeric',
-      month: '2-digit',
-      day: '2-digit',
-      hour: '2-digit',
-      minute: '2-digit',
-      second: '2-digit',
-    });
-    partsFormats.set(timeZone, format);
-  }
-  return format;
-}
-
-/** The wall-clock fields at `timeZone` for an instant. */
-function wallClock(
-  at: Date,
-  timeZone: string,
-): Record<'year' | 'month' | 'day' | 'hour' | 'minute' | 'second', number> {
-  const fields = { year: 0, month: 0, day: 0, hour: 0, minute: 0, second: 0 };
-  for (const part of partsFormat(timeZone).formatToParts(at)) {
-    if (part.type in fields) fields[part.type as keyof typeof fields] = Number(part.value);
-  }
-  return fields;
-}
-
-/** Milliseconds the zone's clock is ahead of UTC at an instant (negative west of Greenwich). */
-function offsetMs(at: Date, timeZone: string): number {
-  const w = wallClock(at, timeZone);
-  const asUtc = Date.UTC(w.year, w.month - 1, w.day, w.hour, w.minute, w.second);
-  return asUtc - Math.floor(at.getTime() / 1000) * 1000;
-}
+import { wallClock, zoneOffsetMs } from '@kerfline/domain/common/zone-clock';
 
 const pad = (n: number, width = 2) => String(n).padStart(width, '0');
 
@@ -67,8 +30,8 @@ export function fromZonedInput(value: string, timeZone: string): Date | null {
   if (check.getUTCMonth() !== mo! - 1 || check.getUTCDate() !== d!) return null;
   // Try the offsets in force a day either side; keep the earliest instant whose wall clock is the one typed.
   const candidates = [
-    offsetMs(new Date(asUtc - 86_400_000), timeZone),
-    offsetMs(new Date(asUtc + 86_400_000), timeZone),
+    zoneOffsetMs(new Date(asUtc - 86_400_000), timeZone),
+    zoneOffsetMs(new Date(asUtc + 86_400_000), timeZone),
   ]
     .map((offset) => asUtc - offset)
     .sort((a, b) => a - b);

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { zoneOffsetMs } from '../common/zone-clock.js';
 
 /**
  * Reporting periods are whole calendar months, written `YYYY-MM`, each read in the site's own time zone (a
@@ -80,33 +81,6 @@ export function monthLabel(month: Month): string {
 
 export function periodLabel(period: MonthPeriod): string {
   return period.from === period.to ? monthLabel(period.from) : `${monthLabel(period.from)} – ${monthLabel(period.to)}`;
-}
-
-/** One formatter per time zone: making an Intl.DateTimeFormat costs far more than using one. */
-const zoneFormats = new Map<string, Intl.DateTimeFormat>();
-function zoneFormat(timeZone: string): Intl.DateTimeFormat {
-  let format = zoneFormats.get(timeZone);
-  if (!format) {
-    format = new Intl.DateTimeFormat('en-US', {
-      timeZone,
-      hourCycle: 'h23',
-      year: 'numeric',
-      month: '2-digit',
-      day: '2-digit',
-      hour: '2-digit',
-      minute: '2-digit',
-      second: '2-digit',
-    });
-    zoneFormats.set(timeZone, format);
-  }
-  return format;
-}
-
-/** Offset of a time zone from UTC at an instant, in milliseconds (local − UTC). */
-function zoneOffsetMs(at: number, timeZone: string): number {
-  const parts = zoneFormat(timeZone).formatToParts(new Date(at));
-  const get = (type: string) => Number(parts.find((p) => p.type === type)!.value);
-  return Date.UTC(get('year'), get('month') - 1, get('day'), get('hour'), get('minute'), get('second')) - at;
 }
 
 /**

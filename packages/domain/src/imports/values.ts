@@ -1,4 +1,5 @@
 import { UNITS, unitFromText, type Quantity } from './units.js';
+import { zoneOffsetMs } from '../common/zone-clock.js';
 
 /**
  * Reading one cell of a legacy file: numbers with a decimal point or comma (and thousands separators, and the
@@ -287,26 +288,8 @@ export function readDate(cell: Cell, order: DateOrder): Read<string | null> {
 
 const pad = (n: number) => String(n).padStart(2, '0');
 
-const formatters = new Map<string, Intl.DateTimeFormat>();
 function exactOffsetMinutes(timeZone: string, utcMs: number): number {
-  let f = formatters.get(timeZone);
-  if (!f) {
-    f = new Intl.DateTimeFormat('en-US', {
-      timeZone,
-      hourCycle: 'h23',
-      year: 'numeric',
-      month: '2-digit',
-      day: '2-digit',
-      hour: '2-digit',
-      minute: '2-digit',
-      second: '2-digit',
-    });
-    formatters.set(timeZone, f);
-  }
-  const parts = f.formatToParts(new Date(utcMs));
-  const get = (type: string) => Number(parts.find((p) => p.type === type)?.value ?? 0);
-  const asUtc = Date.UTC(get('year'), get('month') - 1, get('day'), get('hour'), get('minute'), get('second'));
-  return Math.round((asUtc - Math.floor(utcMs / 1000) * 1000) / 60_000);
+  return Math.round(zoneOffsetMs(utcMs, timeZone) / 60_000);
 }
 
 /**

@@ -16,7 +16,8 @@ import type { MigrationContext } from '../umzug.js';
  * Reads: fleet-figures.ts (listMedianCtes); the API's tests compare it with the lists built from saw_month_runs
  * after writes, imports and undo.
  */
-const fromRows = (rows: string) => `
+/** Each site-month's areas in `rows` (rows shaped like saw_month_runs), sorted: all, break-in followed, skipped. */
+export const fromRows = (rows: string) => `
   SELECT x.site_id, x.month,
          array_agg(x.v ORDER BY x.v) AS lives,
          coalesce(array_agg(x.v ORDER BY x.v) FILTER (WHERE x.k = 1), '{}') AS followed,

@@ -1,4 +1,5 @@
 import type { MigrationContext } from '../umzug.js';
+import { fromRows } from './20261208-0101-site-month-lives.js';
 
 /**
  * The per-saw monthly summary summed per site: site_month_runs (per site, site-local month and currency) and
@@ -106,17 +107,6 @@ const fill = (table: string, source: string, keys: string[], columns: [string, s
       FROM ${source} GROUP BY ${keys.join(', ')};`;
 
 /** site_month_lives' keeper (20261208-0101) again, now locking its rows in key order first, as the sums do. */
-const livesRows = (rows: string) => `
-  SELECT x.site_id, x.month,
-         array_agg(x.v ORDER BY x.v) AS lives,
-         coalesce(array_agg(x.v ORDER BY x.v) FILTER (WHERE x.k = 1), '{}') AS followed,
-         coalesce(array_agg(x.v ORDER BY x.v) FILTER (WHERE x.k = 2), '{}') AS skipped
-    FROM (SELECT r.site_id, r.month, l.v, 1 AS k FROM ${rows} r CROSS JOIN LATERAL unnest(r.life_followed) AS l(v)
-          UNION ALL
-          SELECT r.site_id, r.month, l.v, 2 FROM ${rows} r CROSS JOIN LATERAL unnest(r.life_skipped) AS l(v)
-          UNION ALL
-          SELECT r.site_id, r.month, l.v, 3 FROM ${rows} r CROSS JOIN LATERAL unnest(r.life_unrecorded) AS l(v)) x
-   GROUP BY x.site_id, x.month`;
 const livesLock = (rows: string) => `
         PERFORM 1 FROM site_month_lives l JOIN (SELECT DISTINCT site_id, month FROM ${rows}) d
                 ON l.site_id = d.site_id AND l.month = d.month
@@ -125,11 +115,11 @@ const livesOut = `${livesLock('old_rows')}
         UPDATE site_month_lives l
            SET lives = lives_without(l.lives, d.lives), followed = lives_without(l.followed, d.followed),
                skipped = lives_without(l.skipped, d.skipped)
-          FROM (${livesRows('old_rows')}) d
+          FROM (${fromRows('old_rows')}) d
          WHERE l.site_id = d.site_id AND l.month = d.month;`;
 const livesIn = `${livesLock('new_rows')}
         INSERT INTO site_month_lives AS l (site_id, month, lives, followed, skipped)
-        SELECT * FROM (${livesRows('new_rows')}) d ORDER BY site_id, month
+        SELECT * FROM (${fromRows('new_rows')}) d ORDER BY site_id, month
         ON CONFLICT (site_id, month) DO UPDATE
            SET lives = lives_with(l.lives, excluded.lives), followed = lives_with(l.followed, excluded.followed),
                skipped = lives_with(l.skipped, excluded.skipped);`;
