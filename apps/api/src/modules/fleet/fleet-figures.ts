@@ -460,6 +460,8 @@ export function figuresStatement(
   // Without stops the clauses are FALSE, so the planner reads none; the scope stays in them for its bound values.
   const noStops = options.stops === false ? 'FALSE AND ' : '';
   const stopGroup = groupOf(level, 'g');
+  // Rows by group and month: summed first where a group has many (`grouped`), as they are where it has one (`own`).
+  const perMonth = (grouped: string, own: string) => (level === 'saw' ? own : `(${grouped})`);
   const sum = (c: string) => `sum(rm.${c}) AS ${c}`;
   const categoryColumns = DOWNTIME_CATEGORIES.map(
     (c) => `coalesce(sum(hours) FILTER (WHERE category = '${c}'), 0) AS "stop_${c}"`,
@@ -481,10 +483,10 @@ export function figuresStatement(
     WITH ${ctes},
     ${runMonths},
     runs_b AS (
-      -- Summed by group and month first, then the few month rows into their buckets (a month is in more than one).
+      -- A site's or the fleet's rows summed by group and month first, then the few month rows into their buckets (a
+      -- month is in more than one); a saw's rows are one per month already.
       SELECT rm.gid, bm.b, ${RUN_SUMS.map(sum).join(', ')}
-        FROM (SELECT gid, mdate, ${RUN_SUMS.map((c) => `sum(${c}) AS ${c}`).join(', ')}
-                FROM run_months GROUP BY gid, mdate) rm
+        FROM ${perMonth(`SELECT gid, mdate, ${RUN_SUMS.map((c) => `sum(${c}) AS ${c}`).join(', ')} FROM run_months GROUP BY gid, mdate`, 'run_months')} rm
         JOIN bucket_months bm ON bm.mdate = rm.mdate
        GROUP BY 1, 2
     ),
@@ -498,8 +500,10 @@ export function figuresStatement(
         CROSS JOIN (SELECT DISTINCT b FROM bucket_months) b`
         : `
       SELECT g.gid, bm.b, sum(g.seconds) / 3600.0 AS scheduled_h
-        FROM (SELECT ${stopGroup} AS gid, g.mdate, sum(GREATEST(0, extract(epoch FROM (g.w1 - g.w0)))) AS seconds
-                FROM saw_months g GROUP BY 1, 2) g
+        FROM ${perMonth(
+          `SELECT ${stopGroup} AS gid, g.mdate, sum(GREATEST(0, extract(epoch FROM (g.w1 - g.w0)))) AS seconds FROM saw_months g GROUP BY 1, 2`,
+          `(SELECT ${stopGroup} AS gid, g.mdate, GREATEST(0, extract(epoch FROM (g.w1 - g.w0))) AS seconds FROM saw_months g)`,
+        )} g
         JOIN bucket_months bm ON bm.mdate = g.mdate
        GROUP BY 1, 2`
     }
@@ -533,10 +537,13 @@ export function figuresStatement(
              sum(sm.failures) AS failures,
              sum(sm.failure_h) AS failure_h,
              ${categorySums}
-        FROM (SELECT gid, mdate, sum(downtime_h) AS downtime_h, sum(unplanned_h) AS unplanned_h,
+        FROM ${perMonth(
+          `SELECT gid, mdate, sum(downtime_h) AS downtime_h, sum(unplanned_h) AS unplanned_h,
                      sum(failures) AS failures, sum(failure_h) AS failure_h,
                      ${DOWNTIME_CATEGORIES.map((c) => `sum("stop_${c}") AS "stop_${c}"`).join(', ')}
-                FROM stop_months GROUP BY gid, mdate) sm
+                FROM stop_months GROUP BY gid, mdate`,
+          'stop_months',
+        )} sm
         JOIN bucket_months bm ON bm.mdate = sm.mdate
        GROUP BY 1, 2
     )
