@@ -79,6 +79,14 @@ function Sized({ height, children }: { height: number; children: (width: number)
 
 export default function FleetChart({ spec, label, height = 320 }: { spec: ChartSpec; label: string; height?: number }) {
   const margin = { top: 16, right: 24, bottom: 56, left: 84 };
+  // The value axis reads the same on every chart: five ticks in the chart's own unit, its legend beside them.
+  const leftAxis = {
+    format: (v: unknown) => spec.formatY(Number(v)),
+    tickValues: 5,
+    legend: spec.yLegend,
+    legendOffset: -74,
+    legendPosition: 'middle' as const,
+  };
   if (spec.kind === 'line') {
     const slotOf = new Map(spec.series.map((s) => [s.id, s.slot]));
     return (
@@ -96,13 +104,7 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
             yScale={{ type: 'linear', min: 0, max: 'auto' }}
             axisBottom={{ format: (v) => shortMonth(String(v)), tickRotation: -35 }}
             gridYValues={5}
-            axisLeft={{
-              format: (v) => spec.formatY(Number(v)),
-              tickValues: 5,
-              legend: spec.yLegend,
-              legendOffset: -74,
-              legendPosition: 'middle',
-            }}
+            axisLeft={leftAxis}
             pointSize={8}
             pointSymbol={({ size, datum }) => (
               // nivo hands the point's own data to the symbol: each point carries its series' slot for its shape.
@@ -146,13 +148,7 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
             borderWidth={1}
             enableLabel={false}
             gridYValues={5}
-            axisLeft={{
-              format: (v) => spec.formatY(Number(v)),
-              tickValues: 5,
-              legend: spec.yLegend,
-              legendOffset: -74,
-              legendPosition: 'middle',
-            }}
+            axisLeft={leftAxis}
             axisBottom={{ tickRotation: 0 }}
             tooltip={({ id, value, indexValue }) => (
               <div className="rounded-sheet border border-rule bg-card px-3 py-2 text-sm shadow">
@@ -185,13 +181,7 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
           colors={(bar) => siteColour(slotOf.get(String(bar.indexValue)) ?? 0)}
           enableLabel={false}
           gridYValues={5}
-          axisLeft={{
-            format: (v) => spec.formatY(Number(v)),
-            tickValues: 5,
-            legend: spec.yLegend,
-            legendOffset: -74,
-            legendPosition: 'middle',
-          }}
+          axisLeft={leftAxis}
           tooltip={({ value, indexValue }) => (
             <div className="rounded-sheet border border-rule bg-card px-3 py-2 text-sm shadow">
               {indexValue}: {spec.formatY(value)}
