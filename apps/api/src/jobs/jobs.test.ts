@@ -95,7 +95,10 @@ describe('the weekly digest', () => {
     // The retired saw at A is history, not counted as in service.
     expect(north.text).toContain('- Site A · A · 1 · 1 down');
 
-    const rows = (await mailLog()).filter((r) => r.kind === 'weekly_digest');
+    // The catcher has both messages; the worker marks each sent once its SMTP exchange has closed.
+    const digests = async () => (await mailLog()).filter((r) => r.kind === 'weekly_digest');
+    await eventually(async () => (await digests()).every((r) => r.status !== 'sending'), 'both digests are logged');
+    const rows = await digests();
     expect(rows).toEqual([
       { kind: 'weekly_digest', to_address: 'lead-north@test.example', status: 'sent', attempts: 1, last_error: null },
       { kind: 'weekly_digest', to_address: 'lead-south@test.example', status: 'sent', attempts: 1, last_error: null },
