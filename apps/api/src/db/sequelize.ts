@@ -11,7 +11,7 @@ pg.types.setTypeParser(pg.types.builtins.INT8, (v) => Number.parseInt(v, 10));
  * so PostgreSQL compiled them on every run, about 100 ms of a 500 ms statement, and won nothing back at this size.
  * The benchmark's bare SQL runs with the same settings.
  */
-export const SESSION_OPTIONS = '-c jit=off';
+export const SESSION_OPTIONS = '-c jit=off -c work_mem=16MB';
 
 /**
  * The app's Sequelize. With `replicaUrl` (a PostgreSQL streaming replica of the same cluster), plain reads go to

@@ -15,6 +15,7 @@ import * as fleetWideListIndexes from './20261206-1101-fleet-wide-list-indexes.j
 import * as monthlyRollup from './20261207-0101-monthly-rollup.js';
 import * as siteMonthLives from './20261208-0101-site-month-lives.js';
 import * as siteMonthSums from './20261208-0102-site-month-sums.js';
+import * as bladeCheckFirsts from './20261209-0101-blade-check-firsts.js';
 
 type Migration = {
   name: string;
@@ -40,4 +41,5 @@ export const migrations: Migration[] = [
   { name: '20261207-0101-monthly-rollup', ...monthlyRollup },
   { name: '20261208-0101-site-month-lives', ...siteMonthLives },
   { name: '20261208-0102-site-month-sums', ...siteMonthSums },
+  { name: '20261209-0101-blade-check-firsts', ...bladeCheckFirsts },
 ];

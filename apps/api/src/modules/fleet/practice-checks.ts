@@ -86,8 +86,8 @@ export async function checksPractice(
     changes AS MATERIALIZED (${pairs('blade_change')}),
     kinds AS MATERIALIZED (
       -- A saw's blade-change checks with the same terms fall due together: one row for them, with how many.
-      SELECT saw_id, applies_since, applies_until, grace_hours, count(*)::int AS checks
-        FROM changes GROUP BY saw_id, applies_since, applies_until, grace_hours
+      SELECT saw_id, site_id, applies_since, applies_until, grace_hours, count(*)::int AS checks
+        FROM changes GROUP BY saw_id, site_id, applies_since, applies_until, grace_hours
     ),
     changing AS MATERIALIZED (
       -- Saws with blade-change checks, and the span of the blades that matter: from the one on when the period
@@ -97,31 +97,12 @@ export async function checksPractice(
              coalesce((SELECT coalesce(z.removed_at, 'infinity'::timestamptz) ${lastBladeBefore('z', 'w.saw_id', '<', 'w.t1')}), w.t0) AS hi
         FROM (SELECT DISTINCT saw_id, t0, t1 FROM changes) w
     ),
-    blades AS MATERIALIZED (
-      -- Every blade on in the period or taken off in it (including one put on and off at once).
-      SELECT r.id, r.site_id, r.saw_id, r.installed_at, r.removed_at, r.area_cut_mm2, ch.t0, ch.t1
+    finished_blades AS MATERIALIZED (
+      -- Every blade taken off in the period with its area recorded.
+      SELECT r.id, r.site_id, r.saw_id, r.removed_at, r.area_cut_mm2
         FROM changing ch
         JOIN blade_runs r ON r.saw_id = ch.saw_id AND r.installed_at >= ch.lo AND r.installed_at < ch.t1
-       WHERE coalesce(r.removed_at, 'infinity'::timestamptz) >= ch.t0 AND ${runScope('r')}
-    ),
-    firsts AS MATERIALIZED (
-      -- The first record of each blade-change check while each blade was on: each record of the span goes to
-      -- the blade on at its time (found by one probe), then the earliest per blade and check.
-      SELECT on_then.id AS run_id, k.saw_id, k.site_check_id AS check_id, min(k.checked_at) AS done_at
-        FROM changing ch
-        JOIN changes pr ON pr.saw_id = ch.saw_id
-        CROSS JOIN LATERAL (
-          -- OFFSET 0 keeps this a scan of the span per pair (not of every record, joined to the spans after).
-          SELECT k.saw_id, k.site_check_id, k.checked_at FROM check_records k
-           WHERE k.saw_id = pr.saw_id AND k.site_check_id = pr.check_id
-             AND k.checked_at >= ch.lo AND k.checked_at < ch.hi AND ${recordScope('k')}
-          OFFSET 0
-        ) k
-        CROSS JOIN LATERAL (
-          SELECT o.id, o.removed_at ${lastBladeBefore('o', 'k.saw_id', '<=', 'k.checked_at')}
-        ) on_then
-       WHERE k.checked_at < coalesce(on_then.removed_at, 'infinity'::timestamptz)
-       GROUP BY on_then.id, k.saw_id, k.site_check_id
+       WHERE r.removed_at >= ch.t0 AND r.removed_at < ch.t1 AND r.area_cut_mm2 IS NOT NULL AND ${runScope('r')}
     ),
     occasions AS (
       -- Every N days: due N days after each record whose next due time falls in the period…
@@ -147,52 +128,74 @@ export async function checksPractice(
         ) f
        WHERE pr.applies_since >= pr.t0 AND pr.applies_since < pr.t1
     ),
-    judged AS (
+    periodic_judged AS MATERIALIZED (
       SELECT o.site_id, count(*)::int AS due,
              count(*) FILTER (WHERE o.done_at <= o.falls_due + make_interval(secs => o.grace_hours * 3600))::int AS on_time
         FROM occasions o
        WHERE o.falls_due >= o.t0 AND o.falls_due < o.t1 AND o.falls_due < o.applies_until
          AND (o.done_at IS NOT NULL OR o.falls_due + make_interval(secs => o.grace_hours * 3600) < ${asOf}::timestamptz)
        GROUP BY o.site_id
-      UNION ALL
-      -- At each blade change: due when the blade went on (or the check began to apply), done by the first record
-      -- while that blade was on. Counted in two parts so that blades are not multiplied by checks: every occasion
-      -- whose grace has run out, done or not (checks of a saw with the same terms counted together)…
-      SELECT r.site_id, sum(kd.checks)::int, 0
-        FROM blades r
-        JOIN kinds kd ON kd.saw_id = r.saw_id
-       WHERE ${changeOccasion('r', 'kd')} AND ${fallsDue('r', 'kd')} + ${grace('kd')} < ${asOf}::timestamptz
-       GROUP BY r.site_id
-      UNION ALL
-      -- …and each occasion done: judged too while still within its grace, and on time when done within it.
-      SELECT r.site_id,
-             count(*) FILTER (WHERE ${fallsDue('r', 'pr')} + ${grace('pr')} >= ${asOf}::timestamptz)::int,
-             count(*) FILTER (WHERE f.done_at <= ${fallsDue('r', 'pr')} + ${grace('pr')})::int
-        FROM firsts f
-        JOIN blades r ON r.id = f.run_id
-        JOIN changes pr ON pr.saw_id = f.saw_id AND pr.check_id = f.check_id
-       WHERE ${changeOccasion('r', 'pr')}
-       GROUP BY r.site_id
+    ),
+    -- At each blade change: due when the blade went on (or the check began to apply), done by the first record
+    -- while that blade was on. Counted in two parts so that blades are not multiplied by checks: every occasion
+    -- whose grace has run out, done or not (checks of a saw with the same terms counted together)…
+    change_expired AS MATERIALIZED (
+      -- Counted from the blade index, per saw and terms: the blades put on in the period (non-empty) once the
+      -- checks applied, due when put on; and the blade on when the checks began to apply, due then.
+      SELECT kd.site_id, sum(kd.checks * (n.put_on + n.on_then))::int AS due
+        FROM kinds kd
+        JOIN changing ch ON ch.saw_id = kd.saw_id
+        CROSS JOIN LATERAL (
+          SELECT (SELECT count(*) FROM blade_runs r
+                   WHERE r.saw_id = kd.saw_id AND r.installed_at >= greatest(ch.t0, kd.applies_since)
+                     AND r.installed_at < LEAST(ch.t1, kd.applies_until, ${asOf}::timestamptz - ${grace('kd')})
+                     AND r.removed_at IS DISTINCT FROM r.installed_at AND ${runScope('r')})::int AS put_on,
+                 CASE WHEN kd.applies_since >= ch.t0 AND kd.applies_since < ch.t1 AND kd.applies_since < kd.applies_until
+                        AND kd.applies_since + ${grace('kd')} < ${asOf}::timestamptz
+                        AND (SELECT coalesce(z.removed_at, 'infinity'::timestamptz) > kd.applies_since
+                               ${lastBladeBefore('z', 'kd.saw_id', '<', 'kd.applies_since')})
+                      THEN 1 ELSE 0 END AS on_then
+        ) n
+       GROUP BY kd.site_id
+    ),
+    -- …and, per blade, its occasions done: judged too while still within their grace, and on time when done
+    -- within it; and, for a blade taken off in the period, how many of the checks that applied to it were done
+    -- within their grace. The first record of each check while each blade of the span was on is kept per blade,
+    -- with the blade's times, in blade_check_firsts (its triggers keep it with the records and blade runs).
+    done AS MATERIALIZED (
+      SELECT r.id AS run_id, r.site_id,
+             count(*) FILTER (WHERE ${changeOccasion('r', 'pr')}
+                                AND ${fallsDue('r', 'pr')} + ${grace('pr')} >= ${asOf}::timestamptz)::int AS pending,
+             count(*) FILTER (WHERE ${changeOccasion('r', 'pr')}
+                                AND r.done_at <= ${fallsDue('r', 'pr')} + ${grace('pr')})::int AS on_time,
+             count(*) FILTER (WHERE pr.applies_since < r.removed_at
+                                AND r.done_at <= ${fallsDue('r', 'pr')} + ${grace('pr')})::int AS applied_on_time
+        FROM (SELECT f.blade_run_id AS id, f.site_id, f.saw_id, f.site_check_id, f.first_at AS done_at,
+                     f.installed_at, f.removed_at, ch.t0, ch.t1
+                FROM changing ch
+                JOIN blade_check_firsts f ON f.saw_id = ch.saw_id AND f.first_at >= ch.lo AND f.first_at < ch.hi
+               WHERE ${recordScope('f')} AND ${runScope('f')}) r
+        JOIN changes pr ON pr.saw_id = r.saw_id AND pr.check_id = r.site_check_id
+       GROUP BY r.id, r.site_id
+    ),
+    change_done AS MATERIALIZED (
+      SELECT site_id, sum(pending)::int AS due, sum(on_time)::int AS on_time FROM done GROUP BY site_id
+    ),
+    steps AS MATERIALIZED (
+      -- How many of a saw's blade-change checks applied to a blade taken off at a time (those that began to
+      -- apply before): a step per time one began to apply, from it to the next.
+      SELECT saw_id, since,
+             coalesce(lead(since) OVER (PARTITION BY saw_id ORDER BY since), 'infinity'::timestamptz) AS until,
+             sum(checks) OVER (PARTITION BY saw_id ORDER BY since)::int AS applying
+        FROM (SELECT saw_id, applies_since AS since, sum(checks) AS checks FROM kinds GROUP BY saw_id, applies_since) k
     ),
     finished AS (
-      -- Each blade taken off in the period (area recorded): were all its blade-change checks done on time? Its
-      -- checks that applied, less those done within their grace (one pass, no join of the two).
-      SELECT id, site_id, area_cut_mm2, sum(open) = 0 AS on_time
-        FROM (
-          SELECT r.id, r.site_id, r.area_cut_mm2, kd.checks AS open
-            FROM blades r
-            JOIN kinds kd ON kd.saw_id = r.saw_id AND kd.applies_since < r.removed_at
-           WHERE r.removed_at >= r.t0 AND r.removed_at < r.t1 AND r.area_cut_mm2 IS NOT NULL
-          UNION ALL
-          SELECT r.id, r.site_id, r.area_cut_mm2, -1
-            FROM firsts f
-            JOIN blades r ON r.id = f.run_id
-            JOIN changes pr ON pr.saw_id = f.saw_id AND pr.check_id = f.check_id
-           WHERE r.removed_at >= r.t0 AND r.removed_at < r.t1 AND r.area_cut_mm2 IS NOT NULL
-             AND pr.applies_since < r.removed_at AND f.done_at <= ${fallsDue('r', 'pr')} + ${grace('pr')}
-        ) checks
-       GROUP BY id, site_id, area_cut_mm2
-      HAVING max(open) > 0
+      -- Each blade taken off in the period (area recorded) to which a blade-change check applied: were all of
+      -- them done on time?
+      SELECT r.site_id, r.area_cut_mm2, st.applying = coalesce(d.applied_on_time, 0) AS on_time
+        FROM finished_blades r
+        JOIN steps st ON st.saw_id = r.saw_id AND r.removed_at > st.since AND r.removed_at <= st.until
+        LEFT JOIN done d ON d.run_id = r.id
     ),
     life AS (
       SELECT site_id,
@@ -201,27 +204,37 @@ export async function checksPractice(
         FROM finished GROUP BY site_id
     ),
     per_site AS (
-      SELECT site_id, sum(due)::int AS due, sum(on_time)::int AS on_time FROM judged GROUP BY site_id
-    )
-    SELECT j.site_id, j.due, j.on_time, l.on_time_median, l.late_median
-      FROM per_site j LEFT JOIN life l ON l.site_id = j.site_id
-     WHERE j.due > 0`;
+      SELECT site_id, sum(due)::int AS due, sum(on_time)::int AS on_time
+        FROM (SELECT site_id, due, on_time FROM periodic_judged
+              UNION ALL SELECT site_id, due, 0 FROM change_expired
+              UNION ALL SELECT site_id, due, on_time FROM change_done) judged
+       GROUP BY site_id
+    )`;
 
-  const rows = await sequelize.query<{
-    site_id: string;
-    due: number;
-    on_time: number;
-    on_time_median: number | null;
-    late_median: number | null;
-  }>(sql, { bind: p.values, type: QueryTypes.SELECT });
+  // The counts and the blade lives read the same steps but apart from there share only the first records: two
+  // statements (PostgreSQL leaves a statement's unread steps unrun), so that each can have a core of its own.
+  type Due = { site_id: string; due: number; on_time: number };
+  type Life = { site_id: string; on_time_median: number | null; late_median: number | null };
+  const [due, life] = await Promise.all([
+    sequelize.query<Due>(`${sql} SELECT site_id, due, on_time FROM per_site WHERE due > 0`, {
+      bind: p.values,
+      type: QueryTypes.SELECT,
+    }),
+    sequelize.query<Life>(`${sql} SELECT site_id, on_time_median, late_median FROM life`, {
+      bind: p.values,
+      type: QueryTypes.SELECT,
+    }),
+  ]);
+  const lives = new Map(life.map((l) => [l.site_id, l]));
+  const median = (value: number | null | undefined) => (value === null || value === undefined ? null : Number(value));
   return new Map(
-    rows.map((r) => [
+    due.map((r) => [
       r.site_id,
       {
         due: r.due,
         onTime: r.on_time,
-        medianLifeOnTimeMm2: r.on_time_median === null ? null : Number(r.on_time_median),
-        medianLifeLateMm2: r.late_median === null ? null : Number(r.late_median),
+        medianLifeOnTimeMm2: median(lives.get(r.site_id)?.on_time_median),
+        medianLifeLateMm2: median(lives.get(r.site_id)?.late_median),
       },
     ]),
   );

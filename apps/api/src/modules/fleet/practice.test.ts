@@ -251,3 +251,37 @@ describe('blade-change checks around the period’s edges', () => {
     expect(a.medianLifeChecksLateMm2).toBe(1_000_000);
   });
 });
+
+describe('a blade-change check that begins to apply while a blade is on', () => {
+  it('falls due when it began, and the first record while that blade is on fulfils it (by hand)', async () => {
+    const saw = world.saws.A![0]!;
+    // The blade put on 25 May is still on when “Band tracking” joins the list on 1 June (24 h grace), recorded
+    // 1 June 10:00: one occasion in June, on time. No other check falls due in June (the weekly check's last
+    // occasion was in April; the May blades' changes fell due in May).
+    const [tracking] = (await ctx.sequelize.query(
+      `INSERT INTO site_checks (site_id, name, quantity, target_rule, schedule, interval_days, grace_hours, created_at)
+       VALUES (:site, 'Band tracking', 'length', 'tracking', 'blade_change', NULL, 24, '2026-06-01T00:00:00Z')
+       RETURNING id`,
+      { replacements: { site: saw.siteId }, type: QueryTypes.SELECT },
+    )) as { id: string }[];
+    const june = async () =>
+      (await getPractice(await abilityFor(world.users.admin.id), { from: '2026-06', to: '2026-06' }, AS_OF)).sites.find(
+        (s) => s.site.code === 'A',
+      )!;
+    // Not recorded yet, its grace long over by the as-of time: due and late.
+    expect([(await june()).checksDue, (await june()).checksOnTime]).toEqual([1, 0]);
+    await ctx.sequelize.query(
+      `INSERT INTO check_records (site_id, saw_id, site_check_id, checked_at, target_rule, quantity, reading, passed,
+                                  explanation)
+       VALUES (:site, :saw, :check, '2026-06-01T10:00:00Z', 'tracking', 'length', 1, true, 'fixture')`,
+      { replacements: { site: saw.siteId, saw: saw.id, check: tracking!.id }, type: QueryTypes.RAW },
+    );
+    const a = await june();
+    expect([a.checksDue, a.checksOnTime]).toEqual([1, 1]);
+    // May is as before: the check began after May's blades came off.
+    const may = (
+      await getPractice(await abilityFor(world.users.admin.id), { from: '2026-05', to: '2026-05' }, AS_OF)
+    ).sites.find((s) => s.site.code === 'A')!;
+    expect([may.checksDue, may.checksOnTime]).toEqual([4, 1]);
+  });
+});
