@@ -1,5 +1,5 @@
 import { useLayoutEffect, useRef, useState, type ReactNode } from 'react';
-import { Line } from '@nivo/line';
+import { Line, type LineCustomSvgLayerProps, type LineSvgLayer } from '@nivo/line';
 import { Bar } from '@nivo/bar';
 import { monthLabel } from '@kerfline/domain/fleet/period';
 import { siteColour, siteShape } from '../../../lib/palette';
@@ -51,6 +51,43 @@ function PointShape({ x, y, slot, size }: { x: number; y: number; slot: number; 
   }
 }
 
+/** A line chart's series as drawn: each point carries its site's slot, for its shape. */
+type SiteSeries = { id: string; data: { x: string; y: number | null; slot: number }[] };
+
+/*
+ * The lines and their points drawn as plain SVG. The library's own layers give every line and every point an
+ * animated value (springs), which for 60 sites × 12 months was most of the time between the figures arriving and
+ * the chart showing; the charts do not animate, so plain shapes draw the same picture at a fraction of the work.
+ * These are called as functions by the chart (not mounted as components), so they hold no state of their own.
+ */
+function plainLines({ series, lineGenerator, lineWidth }: LineCustomSvgLayerProps<SiteSeries>) {
+  return (
+    <g>
+      {[...series].reverse().map((s) => (
+        <path
+          key={s.id}
+          d={lineGenerator(s.data.map((d) => d.position)) ?? undefined}
+          fill="none"
+          stroke={s.color}
+          strokeWidth={lineWidth}
+        />
+      ))}
+    </g>
+  );
+}
+
+function plainPoints({ points, pointSize }: LineCustomSvgLayerProps<SiteSeries>) {
+  return (
+    <g>
+      {points.map((p) => (
+        <PointShape key={p.id} x={p.x} y={p.y} size={pointSize ?? 8} slot={p.data.slot} />
+      ))}
+    </g>
+  );
+}
+
+const LINE_LAYERS: LineSvgLayer<SiteSeries>[] = ['grid', 'axes', 'crosshair', plainLines, plainPoints, 'slices'];
+
 /**
  * A chart as wide as its box. The width is read in the same commit that first shows the box (a layout effect,
  * before the browser paints), so a chart draws with its figures instead of one frame later, as a resize observer
@@ -92,12 +129,13 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
     return (
       <Sized height={height}>
         {(width) => (
-          <Line
+          <Line<SiteSeries>
             width={width}
             height={height}
             data={spec.series.map((s) => ({ id: s.id, data: s.points.map((p) => ({ ...p, slot: s.slot })) }))}
             margin={margin}
             theme={THEME}
+            animate={false}
             colors={(serie) => siteColour(slotOf.get(String(serie.id)) ?? 0)}
             lineWidth={2.5}
             xScale={{ type: 'point' }}
@@ -106,11 +144,7 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
             gridYValues={5}
             axisLeft={leftAxis}
             pointSize={8}
-            pointSymbol={({ size, datum }) => (
-              // nivo hands the point's own data to the symbol: each point carries its series' slot for its shape.
-              <PointShape x={0} y={0} size={size} slot={(datum as { slot?: number }).slot ?? 0} />
-            )}
-            useMesh
+            layers={LINE_LAYERS}
             enableSlices="x"
             sliceTooltip={({ slice }) => (
               <div className="rounded-sheet border border-rule bg-card px-3 py-2 text-sm shadow">
@@ -142,6 +176,7 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
             groupMode="stacked"
             margin={margin}
             theme={THEME}
+            animate={false}
             padding={0.3}
             colors={(bar) => spec.keys.find((k) => k.key === bar.id)?.colour ?? '#000'}
             borderColor="#FFFDF9"
@@ -177,6 +212,7 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
           indexBy="id"
           margin={margin}
           theme={THEME}
+          animate={false}
           padding={0.35}
           colors={(bar) => siteColour(slotOf.get(String(bar.indexValue)) ?? 0)}
           enableLabel={false}
