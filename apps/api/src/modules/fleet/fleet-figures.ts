@@ -468,6 +468,11 @@ export function figuresStatement(
   ).join(',\n             ');
   const summaryCategories = DOWNTIME_CATEGORIES.map((c) => `rs.stop_${c} AS "stop_${c}"`).join(', ');
   const categorySums = DOWNTIME_CATEGORIES.map((c) => `sum(sm."stop_${c}") AS "stop_${c}"`).join(',\n             ');
+  // A saw's stop rows (one per saw and month) meet their buckets in `stop_months` itself, beside the sites' months:
+  // joined afterwards, the planner misjudged their number and matched 18 000 saw-months to the buckets in a nested
+  // loop (a fleet-wide year, about 35 ms of the statement). A site's or the fleet's are summed by month first.
+  const sawBuckets = level === 'saw';
+  const stopKey = sawBuckets ? 'bm.b' : 'sm.mdate';
   // Each stop clipped to each month of its saw: [w0, w1) (an open stop runs to the as-of time).
   const clipped = (which: string) => `
           SELECT ${stopGroup} AS gid, g.mdate, p.category, p.planned,
@@ -510,16 +515,16 @@ export function figuresStatement(
     ),
     stop_months AS (
       -- Finished stops of the months the summary serves, already clipped and summed per saw (or site) and month.
-      SELECT ${groupOf(level, 'rs')} AS gid, sm.mdate,
+      SELECT ${groupOf(level, 'rs')} AS gid, ${stopKey},
              rs.downtime_h, rs.unplanned_h, rs.failures, rs.failure_h, ${summaryCategories}
-        FROM site_months sm
+        FROM site_months sm${sawBuckets ? '\n        JOIN bucket_months bm ON bm.mdate = sm.mdate' : ''}
         JOIN ${bySite ? 'site_month_stops' : 'saw_month_stops'} rs ON rs.site_id = sm.site_id AND rs.month = sm.mdate
              AND rs.month >= ${params.add(monthStart(months[0]!))}::date
              AND rs.month <= ${params.add(monthStart(months[months.length - 1]!))}::date
        WHERE sm.summed AND ${noStops}${summaryScope} ${bySite ? '' : 'AND rs.saw_id IN (SELECT id FROM saws_in)'}
       UNION ALL
       -- The rest from the records: every stop of a month the summary does not serve, and open stops.
-      SELECT gid, mdate,
+      SELECT gid, ${sawBuckets ? 'bm.b' : 'mdate'},
              sum(hours) AS downtime_h,
              coalesce(sum(hours) FILTER (WHERE NOT planned), 0) AS unplanned_h,
              count(*) FILTER (WHERE began AND NOT planned AND category IN (${FAILURE_LIST})) AS failures,
@@ -527,11 +532,11 @@ export function figuresStatement(
              ${categoryColumns}
         FROM (${clipped('NOT g.summed')}
           UNION ALL${clipped('g.summed AND p.ended_at IS NULL')}
-        ) clipped
+        ) clipped${sawBuckets ? '\n        JOIN bucket_months bm ON bm.mdate = clipped.mdate' : ''}
        GROUP BY 1, 2
     ),
     stopped AS (
-      SELECT sm.gid, bm.b,
+      SELECT sm.gid, ${sawBuckets ? 'sm.b' : 'bm.b'},
              sum(sm.downtime_h) AS downtime_h,
              sum(sm.unplanned_h) AS unplanned_h,
              sum(sm.failures) AS failures,
@@ -543,8 +548,7 @@ export function figuresStatement(
                      ${DOWNTIME_CATEGORIES.map((c) => `sum("stop_${c}") AS "stop_${c}"`).join(', ')}
                 FROM stop_months GROUP BY gid, mdate`,
           'stop_months',
-        )} sm
-        JOIN bucket_months bm ON bm.mdate = sm.mdate
+        )} sm${sawBuckets ? '' : '\n        JOIN bucket_months bm ON bm.mdate = sm.mdate'}
        GROUP BY 1, 2
     )
     SELECT ro.*, lb.median_life, lb.followed_median, lb.skipped_median, lb.life_followed_n, lb.life_skipped_n, st.*, c.scheduled_h,
