@@ -59,11 +59,14 @@ export async function reviewScope(
   const sites = await fleetSites(ability, { only: options.siteIds, activeFrom: periodStartsBy(period) });
   const siteById = new Map(sites.map((s) => [s.id, s]));
   const starts = periodStartsBy(period).getTime();
+  // Plain rows of the few columns the review reads: 1 500 full model instances were ~15 ms before any figure.
   const saws = (
-    await Saw.findAll({
+    (await Saw.findAll({
+      attributes: ['id', 'siteId', 'assetTag', 'name', 'kind', 'retiredAt'],
       where: scopedWhere(ability, 'read', 'Saw', Saw, { siteId: sites.map((s) => s.id) }),
       order: [['assetTag', 'ASC']],
-    })
+      raw: true,
+    })) as Pick<Saw, 'id' | 'siteId' | 'assetTag' | 'name' | 'kind' | 'retiredAt'>[]
   ).filter((s) => !s.retiredAt || s.retiredAt.getTime() > starts);
   const reporting = (await reportingCurrency()).currency;
   const scope = { ability, siteIds: sites.map((s) => s.id), sawIds: saws.map((s) => s.id), asOf };
