@@ -77,6 +77,13 @@ export type RawFigures = {
   lifeFollowed: { blades: number; medianMm2: number | null };
   lifeSkipped: { blades: number; medianMm2: number | null };
   removalReasons: Record<RemovalReason, number>;
+  /**
+   * The one currency every run of the group in the bucket was in (null when several, or none), and the spend and
+   * cost of finished blades with area summed in it: with that currency the money needs no month-by-month rows.
+   */
+  moneyCurrency: string | null;
+  spendMinor: number;
+  finishedCostMinor: number;
   scheduledHours: number;
   downtimeHours: number;
   unplannedStopHours: number;
@@ -475,6 +482,13 @@ export function figuresStatement(
   // Rows by group and month: summed first where a group has many (`grouped`), as they are where it has one (`own`).
   const perMonth = (grouped: string, own: string) => (level === 'saw' ? own : `(${grouped})`);
   const sum = (c: string) => `sum(rm.${c}) AS ${c}`;
+  // The lowest and highest currency of a group's rows with money (a month's summary row can hold none, once its
+  // runs were removed): a saw's straight from its rows, a site's or the fleet's from its months'.
+  const withMoney = (alias: string) => `${alias}blades_used > 0 OR ${alias}blades_with_area > 0`;
+  const [currencyLo, currencyHi] =
+    level === 'saw'
+      ? ['min', 'max'].map((f) => `${f}(rm.currency) FILTER (WHERE ${withMoney('rm.')})`)
+      : ['min(rm.currency_lo)', 'max(rm.currency_hi)'];
   const categoryColumns = DOWNTIME_CATEGORIES.map(
     (c) => `coalesce(sum(hours) FILTER (WHERE category = '${c}'), 0) AS "stop_${c}"`,
   ).join(',\n             ');
@@ -502,8 +516,10 @@ export function figuresStatement(
     runs_b AS (
       -- A site's or the fleet's rows summed by group and month first, then the few month rows into their buckets (a
       -- month is in more than one); a saw's rows are one per month already.
-      SELECT rm.gid, bm.b, ${RUN_SUMS.map(sum).join(', ')}
-        FROM ${perMonth(`SELECT gid, mdate, ${RUN_SUMS.map((c) => `sum(${c}) AS ${c}`).join(', ')} FROM run_months GROUP BY gid, mdate`, 'run_months')} rm
+      -- With the one currency all its runs were in (null when several), so money in that currency is whole as summed.
+      SELECT rm.gid, bm.b, ${RUN_SUMS.map(sum).join(', ')},
+             CASE WHEN ${currencyLo} = ${currencyHi} THEN ${currencyLo} END AS money_currency
+        FROM ${perMonth(`SELECT gid, mdate, ${RUN_SUMS.map((c) => `sum(${c}) AS ${c}`).join(', ')}, min(currency) FILTER (WHERE ${withMoney('')}) AS currency_lo, max(currency) FILTER (WHERE ${withMoney('')}) AS currency_hi FROM run_months GROUP BY gid, mdate`, 'run_months')} rm
         JOIN bucket_months bm ON bm.mdate = rm.mdate
        GROUP BY 1, 2
     ),
@@ -616,6 +632,9 @@ function toRawFigures(r: Record<string, unknown>): RawFigures {
     lifeFollowed: { blades: followed, medianMm2: numOrNull(r.followed_median) },
     lifeSkipped: { blades: num(r.life_skipped_n), medianMm2: numOrNull(r.skipped_median) },
     removalReasons,
+    moneyCurrency: r.money_currency === null || r.money_currency === undefined ? null : String(r.money_currency).trim(),
+    spendMinor: num(r.spend_minor),
+    finishedCostMinor: num(r.finished_cost_minor),
     scheduledHours: num(r.scheduled_h),
     downtimeHours: num(r.downtime_h),
     unplannedStopHours: num(r.unplanned_h),
