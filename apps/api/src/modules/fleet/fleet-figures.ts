@@ -358,6 +358,77 @@ function recordMedianCtes(split: boolean): string {
 }
 
 /**
+ * `lives_b` of each saw: the same figures as `recordMedianCtes`, each saw's and bucket's worked out on its own
+ * (a lateral subquery), from its summary rows (read through the primary key) and, for the months the summary does
+ * not serve, its runs (through (saw_id, removed_at)). Sorting each saw's hundred-odd blades apart beats sorting a
+ * fleet-wide year's 150 000 together by saw: about 40 ms of the outlier review's statement.
+ *
+ * Which months the summary serves is the site's (`site_buckets`: per site and bucket, the months it serves and the
+ * others' windows). A saw's runs are always at its own site (foreign key blade_runs_saw_site), and so are its
+ * summary rows, recomputed from them.
+ */
+function sawMedianCtes(scope: FigureScope, params: SqlParams, months: Month[], split: boolean): string {
+  const asOf = params.add(scope.asOf);
+  const summaryScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'ru', params);
+  const runScope = scopeSql(scope.ability, 'read', 'BladeRun', BladeRun, 'r', params);
+  const firstMonth = params.add(monthStart(months[0]!));
+  const lastMonth = params.add(monthStart(months[months.length - 1]!));
+  const splitMedians = split
+    ? `percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 1) AS followed_median,
+                 percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) FILTER (WHERE l.f = 2) AS skipped_median`
+    : 'NULL::float8 AS followed_median, NULL::float8 AS skipped_median';
+  // With `split`, each blade's break-in: 1 followed, 2 skipped, 3 not recorded (else 0, and no counts).
+  const summaryKind = split
+    ? `CASE WHEN u.i <= cardinality(ru.life_followed) THEN 1
+                      WHEN u.i <= cardinality(ru.life_followed) + cardinality(ru.life_skipped) THEN 2 ELSE 3 END`
+    : '0';
+  const recordKind = split
+    ? 'CASE WHEN r.break_in_followed THEN 1 WHEN NOT r.break_in_followed THEN 2 ELSE 3 END'
+    : '0';
+  return `site_buckets AS (
+      SELECT sm.site_id, bm.b,
+             coalesce(array_agg(sm.mdate) FILTER (WHERE sm.summed), '{}') AS summed,
+             coalesce(array_agg(sm.t0) FILTER (WHERE NOT sm.summed), '{}') AS open_t0,
+             coalesce(array_agg(sm.t1) FILTER (WHERE NOT sm.summed), '{}') AS open_t1
+        FROM site_months sm JOIN bucket_months bm ON bm.mdate = sm.mdate
+       GROUP BY 1, 2
+    ),
+    open_span AS (
+      -- Where any month the summary does not serve lies (none: nothing, and no run is read).
+      SELECT min(t0) AS t0, max(t1) AS t1 FROM site_months WHERE NOT summed
+    ),
+    lives_b AS MATERIALIZED (
+      -- Materialized: each saw's subquery runs once, however the planner joins the figures afterwards.
+      SELECT w.id AS gid, sb.b, x.median_life, x.followed_median, x.skipped_median,
+             x.life_followed_n, x.life_skipped_n
+        FROM saws_in w
+        JOIN site_buckets sb ON sb.site_id = w.site_id
+        CROSS JOIN LATERAL (
+          SELECT percentile_cont(0.5) WITHIN GROUP (ORDER BY l.v) AS median_life,
+                 ${splitMedians},
+                 count(*) FILTER (WHERE l.f = 1) AS life_followed_n,
+                 count(*) FILTER (WHERE l.f = 2) AS life_skipped_n
+            FROM (
+              SELECT u.v, ${summaryKind} AS f
+                FROM saw_month_runs ru
+                CROSS JOIN LATERAL unnest(ru.life_followed || ru.life_skipped || ru.life_unrecorded)${split ? ' WITH ORDINALITY AS u(v, i)' : ' AS u(v)'}
+               WHERE ru.saw_id = w.id AND ru.month >= ${firstMonth}::date AND ru.month <= ${lastMonth}::date
+                 AND ru.site_id = w.site_id AND ru.month = ANY(sb.summed) AND ${summaryScope}
+              UNION ALL
+              SELECT r.area_cut_mm2, ${recordKind}
+                FROM blade_runs r
+               WHERE r.saw_id = w.id AND r.removed_at IS NOT NULL
+                 AND r.removed_at >= (SELECT t0 FROM open_span) AND r.removed_at < (SELECT t1 FROM open_span)
+                 AND r.removed_at <= ${asOf}::timestamptz AND r.area_cut_mm2 IS NOT NULL AND r.site_id = w.site_id
+                 AND ${runScope}
+                 AND EXISTS (SELECT 1 FROM unnest(sb.open_t0, sb.open_t1) AS m(t0, t1)
+                              WHERE r.removed_at >= m.t0 AND r.removed_at < m.t1)
+            ) l
+        ) x
+    )`;
+}
+
+/**
  * `lives_b` from the sites' sorted monthly lists (site_month_lives; migration 20261208-0101), the month still
  * running sorted from the records. The median is exact and equals percentile_cont(0.5) over every blade, without
  * sorting them all:
@@ -470,10 +541,14 @@ export function figuresStatement(
   const ctes = scopeCtes(scope, params, months, buckets, rollup);
   // A site's or the fleet's sums and medians come from the per-site summary where it serves.
   const bySite = siteSummaryServes(scope, level, rollup);
-  const runMonths = runMonthsCte(level, scope, params, months, !bySite, bySite, Boolean(options.breakInMedians));
-  const lives = bySite
-    ? listMedianCtes(level, scope, params, Boolean(options.breakInMedians))
-    : recordMedianCtes(Boolean(options.breakInMedians));
+  const split = Boolean(options.breakInMedians);
+  const runMonths = runMonthsCte(level, scope, params, months, !bySite && level !== 'saw', bySite, split);
+  const lives =
+    level === 'saw'
+      ? sawMedianCtes(scope, params, months, split)
+      : bySite
+        ? listMedianCtes(level, scope, params, split)
+        : recordMedianCtes(split);
   const summaryScope = scopeSql(scope.ability, 'read', 'Stop', Stop, 'rs', params);
   const stopScope = scopeSql(scope.ability, 'read', 'Stop', Stop, 'p', params);
   // Without stops the clauses are FALSE, so the planner reads none; the scope stays in them for its bound values.
