@@ -10,11 +10,25 @@ import { currencySchema } from '../sites/schema.js';
 const digitsCache = new Map<string, number>();
 
 /**
+ * `currencySchema.parse`, remembered for the few codes a database holds: a fleet-wide review converts tens of
+ * thousands of monthly parts, all in a handful of currencies. Only valid codes are kept, and at most 256 of them.
+ */
+const codeCache = new Map<string, string>();
+function currencyCode(input: string): string {
+  let code = codeCache.get(input);
+  if (code === undefined) {
+    code = currencySchema.parse(input);
+    if (codeCache.size < 256) codeCache.set(input, code);
+  }
+  return code;
+}
+
+/**
  * Digits of the currency's minor unit (ISO 4217 "minor unit": USD 2, JPY 0, KWD 3), read from the platform's
  * CLDR data through Intl, so no table of our own can drift from the standard.
  */
 export function minorUnitDigits(currency: string): number {
-  const code = currencySchema.parse(currency);
+  const code = currencyCode(currency);
   let digits = digitsCache.get(code);
   if (digits === undefined) {
     digits = new Intl.NumberFormat('en', { style: 'currency', currency: code }).resolvedOptions()
@@ -37,8 +51,8 @@ export const exchangeRateValueSchema = z
  * minor unit. The same currency converts at 1 whatever rate is given.
  */
 export function convertMinor(input: { amountMinor: number; from: string; to: string; rate: number }): number {
-  const from = currencySchema.parse(input.from);
-  const to = currencySchema.parse(input.to);
+  const from = currencyCode(input.from);
+  const to = currencyCode(input.to);
   if (!Number.isInteger(input.amountMinor)) throw new Error('Amount must be a whole number of minor units');
   if (from === to) return input.amountMinor;
   const rate = exchangeRateValueSchema.parse(input.rate);
@@ -72,11 +86,11 @@ export type RateLookup = (currency: string, month: string) => number | null;
  * each part is rounded once). Parts with no rate are left out and listed in `missing`; `complete` is then false.
  */
 export function convertTotal(parts: readonly MoneyPart[], to: string, rateOf: RateLookup): ConvertedTotal {
-  const target = currencySchema.parse(to);
+  const target = currencyCode(to);
   let amountMinor = 0;
   const missing = new Map<string, UnconvertedPart>();
   for (const part of parts) {
-    const currency = currencySchema.parse(part.currency);
+    const currency = currencyCode(part.currency);
     if (currency === target) {
       amountMinor += part.amountMinor;
       continue;

@@ -114,7 +114,9 @@ export function reviewPeers(saws: readonly SawForReview[]): PeerReview {
   const byGroup = new Map<string, SawForReview[]>();
   for (const saw of saws) {
     const key = peerGroupKey(saw.kind, saw.mainMaterial);
-    byGroup.set(key, [...(byGroup.get(key) ?? []), saw]);
+    const members = byGroup.get(key);
+    if (members) members.push(saw);
+    else byGroup.set(key, [saw]);
   }
   const groups: PeerGroupSummary[] = [];
   const flags: PeerFlag[] = [];

@@ -64,6 +64,10 @@ describe('findOutliers', () => {
     );
     expect(r.items[0]!.modifiedZ).toBeCloseTo(-1.349, 3);
     expect(r.items[0]!.reason).toContain('in line with the group');
+    // The words are worked out when first read, yet copy and serialise like any other field.
+    expect(JSON.parse(JSON.stringify(top))).toEqual({ ...top, reason: top.reason });
+    expect({ ...r.items[0]! }.reason).toBe(r.items[0]!.reason);
+    expect(Object.keys(top)).toContain('reason');
   });
 
   it('flags a low value as low', () => {

@@ -120,6 +120,26 @@ export function findOutliers(input: OutlierInput): OutlierResult {
   // by the fences either, so one group never gets two contradicting verdicts.
   const canFlag = scale !== null;
 
+  // How each value was judged, in words. Worked out when first read: a fleet-wide review judges thousands of saws
+  // and reads the words of the few it flags, and formatting every number was a good share of its time.
+  const reasonOf = (item: Omit<OutlierItem, 'id' | 'reason'>): string => {
+    if (!canFlag) return notice!;
+    const { value, modifiedZ, outsideFences, flagged, direction, deviationFromMedian, ratioToMedian } = item;
+    const zText = `modified z-score ${fmt(modifiedZ!)} (limit ±${fmt(v.threshold)})`;
+    const fenceText = outsideFences
+      ? value > upperFence
+        ? `above the upper fence ${fmt(upperFence)}`
+        : `below the lower fence ${fmt(lowerFence)}`
+      : `inside the fences ${fmt(lowerFence)} to ${fmt(upperFence)}`;
+    const howMuch =
+      ratioToMedian === null
+        ? `${fmt(deviationFromMedian)} from the median`
+        : `${fmt(ratioToMedian)}× the group median of ${fmt(med)}`;
+    return flagged
+      ? `${fmt(value)} is unusually ${direction}: ${howMuch}; ${zText}, ${fenceText}.`
+      : `${fmt(value)} is in line with the group: ${zText}, ${fenceText}.`;
+  };
+
   const items: OutlierItem[] = v.items.map(({ id, value }) => {
     const deviationFromMedian = value - med;
     const ratioToMedian = med === 0 ? null : value / med;
@@ -129,26 +149,21 @@ export function findOutliers(input: OutlierInput): OutlierResult {
     const fenceFlag = canFlag && outsideFences;
     const flagged = canFlag && ruleFlags(v.rule, zFlag, fenceFlag);
     const direction = flagged ? (deviationFromMedian > 0 ? 'high' : 'low') : null;
-
-    let reason: string;
-    if (!canFlag) {
-      reason = notice!;
-    } else {
-      const zText = `modified z-score ${fmt(modifiedZ!)} (limit ±${fmt(v.threshold)})`;
-      const fenceText = outsideFences
-        ? value > upperFence
-          ? `above the upper fence ${fmt(upperFence)}`
-          : `below the lower fence ${fmt(lowerFence)}`
-        : `inside the fences ${fmt(lowerFence)} to ${fmt(upperFence)}`;
-      const howMuch =
-        ratioToMedian === null
-          ? `${fmt(deviationFromMedian)} from the median`
-          : `${fmt(ratioToMedian)}× the group median of ${fmt(med)}`;
-      reason = flagged
-        ? `${fmt(value)} is unusually ${direction}: ${howMuch}; ${zText}, ${fenceText}.`
-        : `${fmt(value)} is in line with the group: ${zText}, ${fenceText}.`;
-    }
-    return { id, value, modifiedZ, outsideFences, flagged, direction, deviationFromMedian, ratioToMedian, reason };
+    let reason: string | undefined;
+    return {
+      id,
+      value,
+      modifiedZ,
+      outsideFences,
+      flagged,
+      direction,
+      deviationFromMedian,
+      ratioToMedian,
+      // An own, enumerable getter: the item reads, spreads and serialises as if the words were stored.
+      get reason() {
+        return (reason ??= reasonOf(this));
+      },
+    };
   });
 
   return {

@@ -2,7 +2,13 @@ import type { AppAbility } from '@kerfline/domain/authz/ability';
 import { DOWNTIME_CATEGORIES, type DowntimeCategory } from '@kerfline/domain/metrics/schema';
 import { REMOVAL_REASONS, type RemovalReason } from '@kerfline/domain/diagnosis/schema';
 import { costPerAreaCut } from '@kerfline/domain/metrics/blade-economics';
-import { convertTotal, missingRateWords, type RateLookup, type UnconvertedPart } from '@kerfline/domain/money/currency';
+import {
+  convertTotal,
+  missingRateWords,
+  type MoneyPart,
+  type RateLookup,
+  type UnconvertedPart,
+} from '@kerfline/domain/money/currency';
 import { monthsOf, type Month, type MonthPeriod } from '@kerfline/domain/fleet/period';
 import type { Figures, FleetSite } from '@kerfline/domain/fleet/schema';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
@@ -36,6 +42,9 @@ export function emptyRaw(groupId: string, bucket: string): RawFigures {
     lifeFollowed: { blades: 0, medianMm2: null },
     lifeSkipped: { blades: 0, medianMm2: null },
     removalReasons: Object.fromEntries(REMOVAL_REASONS.map((r) => [r, 0])) as Record<RemovalReason, number>,
+    moneyCurrency: null,
+    spendMinor: 0,
+    finishedCostMinor: 0,
     scheduledHours: 0,
     downtimeHours: 0,
     unplannedStopHours: 0,
@@ -86,11 +95,20 @@ function rowsOf(rows: MoneyRow[], groupId: string): MoneyRow[] {
   return index.get(groupId) ?? [];
 }
 
-/** A group's money rows of one kind inside some months. */
-export function moneyParts(rows: MoneyRow[], groupId: string | null, kind: MoneyRow['kind'], months: Set<Month>) {
-  return (groupId === null ? rows : rowsOf(rows, groupId))
-    .filter((r) => r.kind === kind && months.has(r.month))
-    .map((r) => ({ amountMinor: r.amountMinor, currency: r.currency, month: r.month }));
+/**
+ * A group's money rows of one kind inside some months. A money row is itself a part (amount, currency, month), so
+ * the rows are handed on as they are, not copied.
+ */
+export function moneyParts(
+  rows: MoneyRow[],
+  groupId: string | null,
+  kind: MoneyRow['kind'],
+  months: Set<Month>,
+): MoneyPart[] {
+  const parts: MoneyPart[] = [];
+  for (const r of groupId === null ? rows : rowsOf(rows, groupId))
+    if (r.kind === kind && months.has(r.month)) parts.push(r);
+  return parts;
 }
 
 /** The figures of one group over the months of a bucket. `groupId` null: every group's money together. */

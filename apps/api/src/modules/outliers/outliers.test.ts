@@ -7,6 +7,8 @@ import { BladeRun } from '../blade-runs/blade-run.model.js';
 import { Stop } from '../stops/stop.model.js';
 import { CutLog } from '../cut-logs/cut-log.model.js';
 import { Saw } from '../saws/saw.model.js';
+import { Site } from '../sites/site.model.js';
+import { ExchangeRate } from '../exchange-rates/exchange-rate.model.js';
 import type { RemovalReason } from '@kerfline/domain/diagnosis/schema';
 
 /*
@@ -226,5 +228,45 @@ describe('GET /api/outliers/saws/:sawId', () => {
     expect(res.body.flags).toHaveLength(4);
     // Its peers: the seven ordinary saws and A-FEW (in the group, though too new to be judged on blade life).
     expect(res.body.peers).toHaveLength(8);
+  });
+});
+
+describe('money in other currencies', () => {
+  type Review = { saws: { saw: { id: string }; values: { cost_per_area: number | null } }[]; warnings: string[] };
+  const review = async () => (await agents.leadNorth!.get(`/api/outliers?${Q}`).expect(200)).body as Review;
+  const costPerArea = (body: Review, tag: string) =>
+    body.saws.find((s) => s.saw.id === saws[tag]!.id)!.values.cost_per_area;
+
+  it('converts a saw’s foreign blades month by month, whichever currency its site keeps', async () => {
+    const before = await review();
+    // A-N1's four blades at €60.00 over 3.8 + 4.0 + 4.2 + 4.4 million mm².
+    expect(costPerArea(before, 'A-N1')).toBeCloseTo(24_000 / 16.4e6, 15);
+
+    // Site B keeps dollars from now on (its blades were still bought in euros): the same figures.
+    await Site.update({ currency: 'USD' }, { where: { id: world.sites.B.id } });
+    const siteInDollars = await review();
+    for (const tag of ['B-N5', 'B-N6', 'B-N7', 'V-1'])
+      expect(costPerArea(siteInDollars, tag)).toBe(costPerArea(before, tag));
+
+    // One of A-N1's blades was bought for US$70.00 (on in January, off in February). Without February's rate
+    // there is no cost per area, and the warning says which rate is missing.
+    const first = (await BladeRun.findOne({ where: { sawId: saws['A-N1']!.id }, order: [['installedAt', 'ASC']] }))!;
+    await first.update({ currency: 'USD', costMinor: 7000 });
+    const noRate = await review();
+    expect(costPerArea(noRate, 'A-N1')).toBeNull();
+    expect(noRate.warnings.join(' ')).toContain('USD');
+    // With February's rate: 7 000 × 0.9 = 6 300 cents beside the other three blades' 18 000.
+    await ExchangeRate.create({
+      month: '2026-02-01',
+      currency: 'USD',
+      reportingCurrency: 'EUR',
+      rate: 0.9,
+      setById: null,
+    });
+    expect(costPerArea(await review(), 'A-N1')).toBeCloseTo(24_300 / 16.4e6, 15);
+
+    await ExchangeRate.destroy({ where: {} });
+    await first.update({ currency: 'EUR', costMinor: 6000 });
+    await Site.update({ currency: 'EUR' }, { where: { id: world.sites.B.id } });
   });
 });
