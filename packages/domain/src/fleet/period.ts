@@ -88,9 +88,17 @@ export function periodLabel(period: MonthPeriod): string {
  * `'2026-03-01 00:00'::timestamp AT TIME ZONE zone` gives it: 1 March 2026 in Berlin is 2026-02-28T23:00Z.
  */
 export function monthStartInstant(month: Month, timeZone: string): Date {
-  const wall = Date.parse(`${month}-01T00:00:00Z`);
-  let at = wall - zoneOffsetMs(wall, timeZone);
-  // Once more with the offset at the first guess, for zones whose offset changes near midnight.
-  at = wall - zoneOffsetMs(at, timeZone);
+  const key = `${month}|${timeZone}`;
+  let at = monthStarts.get(key);
+  if (at === undefined) {
+    const wall = Date.parse(`${month}-01T00:00:00Z`);
+    at = wall - zoneOffsetMs(wall, timeZone);
+    // Once more with the offset at the first guess, for zones whose offset changes near midnight.
+    at = wall - zoneOffsetMs(at, timeZone);
+    // A fleet's screens ask for the same few months in the same few zones hundreds of times a request.
+    if (monthStarts.size >= 10_000) monthStarts.clear();
+    monthStarts.set(key, at);
+  }
   return new Date(at);
 }
+const monthStarts = new Map<string, number>();

@@ -57,12 +57,21 @@ export async function getBudgetStatus(ability: AppAbility, q: FleetQuery, asOf =
   const names = await namesOf(budgets.map((b) => b.setById));
   const budgetOf = new Map(budgets.map((b) => [`${b.siteId}|${b.month.slice(0, 7)}`, toDto(b, names)]));
   const missing: UnconvertedPart[] = [];
+  // Each site-month's spend, found through one index of the money rows (60 sites × the period's months).
+  const spendOf = new Map<string, typeof money>();
+  for (const m of money) {
+    if (m.kind !== 'spend') continue;
+    const key = `${m.groupId}|${m.month}`;
+    const parts = spendOf.get(key);
+    if (parts) parts.push(m);
+    else spendOf.set(key, [m]);
+  }
 
   const statusSites = sites.map((site) => {
     const months: BudgetMonth[] = monthsOf(period).map((month) => {
       let spentMinor = 0;
       let complete = true;
-      for (const part of money.filter((m) => m.groupId === site.id && m.kind === 'spend' && m.month === month)) {
+      for (const part of spendOf.get(`${site.id}|${month}`) ?? []) {
         if (part.currency === site.currency) {
           spentMinor += part.amountMinor;
           continue;
