@@ -349,7 +349,8 @@ export async function getPractice(ability: AppAbility, q: FleetQuery, asOf = new
   const sites = await fleetSites(ability, { only: q.sites, activeFrom: periodStartsBy(period) });
   const scope = { ability, siteIds: sites.map((s) => s.id), asOf };
   const [rows, checks] = await Promise.all([
-    rawFigures(sequelize(), 'site', scope, [{ key: 'current', ...period }], { breakInMedians: true }),
+    // Practice reads no stop: the figures leave the stops out.
+    rawFigures(sequelize(), 'site', scope, [{ key: 'current', ...period }], { breakInMedians: true, stops: false }),
     checksPractice(sequelize(), scope, period),
   ]);
   const raw = indexRaw(rows);

@@ -158,28 +158,33 @@ export async function checksPractice(
         ) n
        GROUP BY kd.site_id
     ),
-    -- …and, per blade, its occasions done: judged too while still within their grace, and on time when done
-    -- within it; and, for a blade taken off in the period, how many of the checks that applied to it were done
-    -- within their grace. The first record of each check while each blade of the span was on is kept per blade,
-    -- with the blade's times, in blade_check_firsts (its triggers keep it with the records and blade runs).
-    done AS MATERIALIZED (
-      SELECT r.id AS run_id, r.site_id,
-             count(*) FILTER (WHERE ${changeOccasion('r', 'pr')}
-                                AND ${fallsDue('r', 'pr')} + ${grace('pr')} >= ${asOf}::timestamptz)::int AS pending,
-             count(*) FILTER (WHERE ${changeOccasion('r', 'pr')}
-                                AND r.done_at <= ${fallsDue('r', 'pr')} + ${grace('pr')})::int AS on_time,
-             count(*) FILTER (WHERE pr.applies_since < r.removed_at
-                                AND r.done_at <= ${fallsDue('r', 'pr')} + ${grace('pr')})::int AS applied_on_time
-        FROM (SELECT f.blade_run_id AS id, f.site_id, f.saw_id, f.site_check_id, f.first_at AS done_at,
-                     f.installed_at, f.removed_at, ch.t0, ch.t1
-                FROM changing ch
-                JOIN blade_check_firsts f ON f.saw_id = ch.saw_id AND f.first_at >= ch.lo AND f.first_at < ch.hi
-               WHERE ${recordScope('f')} AND ${runScope('f')}) r
-        JOIN changes pr ON pr.saw_id = r.saw_id AND pr.check_id = r.site_check_id
-       GROUP BY r.id, r.site_id
+    -- …and each occasion done: judged too while still within its grace, and on time when done within it. The
+    -- first record of each check while each blade of the span was on is kept per blade, with the blade's times, in
+    -- blade_check_firsts (its triggers keep it with the records and blade runs).
+    firsts AS (
+      SELECT f.blade_run_id AS id, f.site_id, f.saw_id, f.site_check_id, f.first_at AS done_at,
+             f.installed_at, f.removed_at, ch.t0, ch.t1
+        FROM changing ch
+        JOIN blade_check_firsts f ON f.saw_id = ch.saw_id AND f.first_at >= ch.lo AND f.first_at < ch.hi
+       WHERE ${recordScope('f')} AND ${runScope('f')}
     ),
     change_done AS MATERIALIZED (
-      SELECT site_id, sum(pending)::int AS due, sum(on_time)::int AS on_time FROM done GROUP BY site_id
+      SELECT r.site_id,
+             count(*) FILTER (WHERE ${fallsDue('r', 'pr')} + ${grace('pr')} >= ${asOf}::timestamptz)::int AS due,
+             count(*) FILTER (WHERE r.done_at <= ${fallsDue('r', 'pr')} + ${grace('pr')})::int AS on_time
+        FROM firsts r
+        JOIN changes pr ON pr.saw_id = r.saw_id AND pr.check_id = r.site_check_id
+       WHERE ${changeOccasion('r', 'pr')}
+       GROUP BY r.site_id
+    ),
+    -- For each blade taken off in the period: how many of the checks that applied to it were done within grace.
+    applied AS MATERIALIZED (
+      SELECT r.id AS run_id, count(*)::int AS on_time
+        FROM firsts r
+        JOIN changes pr ON pr.saw_id = r.saw_id AND pr.check_id = r.site_check_id
+       WHERE r.removed_at >= r.t0 AND r.removed_at < r.t1 AND pr.applies_since < r.removed_at
+         AND r.done_at <= ${fallsDue('r', 'pr')} + ${grace('pr')}
+       GROUP BY r.id
     ),
     steps AS MATERIALIZED (
       -- How many of a saw's blade-change checks applied to a blade taken off at a time (those that began to
@@ -192,10 +197,10 @@ export async function checksPractice(
     finished AS (
       -- Each blade taken off in the period (area recorded) to which a blade-change check applied: were all of
       -- them done on time?
-      SELECT r.site_id, r.area_cut_mm2, st.applying = coalesce(d.applied_on_time, 0) AS on_time
+      SELECT r.site_id, r.area_cut_mm2, st.applying = coalesce(a.on_time, 0) AS on_time
         FROM finished_blades r
         JOIN steps st ON st.saw_id = r.saw_id AND r.removed_at > st.since AND r.removed_at <= st.until
-        LEFT JOIN done d ON d.run_id = r.id
+        LEFT JOIN applied a ON a.run_id = r.id
     ),
     life AS (
       SELECT site_id,
