@@ -1,3 +1,4 @@
+import './early-asks';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import '@fontsource/manrope/latin-400.css';

@@ -451,6 +451,24 @@ async function measureWeb() {
   return out;
 }
 
+/**
+ * Run in the page before its own code: notes when the first chart's shapes enter the page (a mutation observer,
+ * run as React commits them) and the frame after, in the page's clock (from the navigation's start). Playwright's
+ * own wait polls on the page's main thread, so it also waits behind whatever the page draws next (the other
+ * charts); both are reported.
+ */
+/** Cold loads of the chart page timed, after one warm-up. */
+const FIRST_CHART_LOADS = 9;
+
+const firstChartMark = (selector: string) => `
+  new MutationObserver((_, observer) => {
+    if (window.kerflineFirstChart || !document.querySelector(${JSON.stringify(selector)})) return;
+    const mark = { at: performance.now() };
+    window.kerflineFirstChart = mark;
+    requestAnimationFrame(() => { mark.frame = performance.now(); });
+    observer.disconnect();
+  }).observe(document, { childList: true, subtree: true });`;
+
 async function timeFirstChart(): Promise<Record<string, unknown> | null> {
   const page = process.env.BENCH_CHART_PAGE ?? '/fleet';
   let chromium: typeof import('playwright-core').chromium;
@@ -475,22 +493,30 @@ async function timeFirstChart(): Promise<Record<string, unknown> | null> {
         '--disable-sync',
       ],
     });
+    const selector = process.env.BENCH_CHART_SELECTOR ?? 'figure svg path';
     const times: number[] = [];
+    const waits: number[] = [];
     try {
-      for (let i = 0; i < 4; i += 1) {
+      for (let i = 0; i < 1 + FIRST_CHART_LOADS; i += 1) {
         const context = await browser.newContext({ viewport: { width: 1440, height: 900 }, baseURL: api });
         const tab = await context.newPage();
         // Sign in through the API in the page's context (the cookie lands in the browser), then open the page cold.
         const cookie = await signIn(api, BENCH_USERS.manager);
         const [name, value] = cookie.split('=') as [string, string];
         await context.addCookies([{ name, value, url: api }]);
+        await tab.addInitScript({ content: firstChartMark(selector) });
         const t = performance.now();
         await tab.goto(page);
         const found = await tab
-          .waitForSelector(process.env.BENCH_CHART_SELECTOR ?? 'figure svg path', { timeout: 20_000 })
+          .waitForSelector(selector, { timeout: 20_000 })
           .then(() => true)
           .catch(() => false);
-        if (i > 0 && found) times.push(performance.now() - t);
+        const waited = performance.now() - t;
+        const mark = (await tab.evaluate('window.kerflineFirstChart')) as { at: number; frame?: number } | undefined;
+        if (i > 0 && found && mark) {
+          times.push(mark.frame ?? mark.at);
+          waits.push(waited);
+        }
         if (!found) {
           await context.close();
           return { page, found: false };
@@ -501,8 +527,12 @@ async function timeFirstChart(): Promise<Record<string, unknown> | null> {
       await browser.close();
     }
     const s = stats(times);
-    console.log(`first chart on ${page}: median ${s.medianMs} ms, worst ${s.p95Ms} ms (target ≤ 1,500 ms)`);
-    return { page, found: true, ...s, meets: s.p95Ms <= 1500, loadAverage: load() };
+    const w = stats(waits);
+    console.log(
+      `first chart on ${page}: median ${s.medianMs} ms, worst ${s.p95Ms} ms (target ≤ 1,500 ms); ` +
+        `Playwright's wait for it: median ${w.medianMs} ms, worst ${w.p95Ms} ms`,
+    );
+    return { page, found: true, ...s, meets: s.p95Ms <= 1500, playwrightWait: w, loadAverage: load() };
   } finally {
     child.kill('SIGTERM');
   }

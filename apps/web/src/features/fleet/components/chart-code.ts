@@ -1,3 +1,5 @@
+import { useEffect, useState } from 'react';
+
 type ChartCode = typeof import('./charts');
 
 let loading: Promise<ChartCode> | undefined;
@@ -34,4 +36,27 @@ export function forgetFailedChartCode(): void {
   if (!failed) return;
   failed = false;
   loading = undefined;
+}
+
+/**
+ * Follows the chart code: 'coming' until it arrives, then 'here' (or 'failed'). A panel shows its own loading
+ * state while the code is coming and draws with an ordinary render once it is here, rather than suspending: React
+ * holds back what a suspended boundary reveals by up to a few hundred milliseconds, and the first chart would wait.
+ */
+export function useChartCode(): 'coming' | 'here' | 'failed' {
+  const [state, setState] = useState<'coming' | 'here' | 'failed'>(() =>
+    loaded !== undefined ? 'here' : failed ? 'failed' : 'coming',
+  );
+  useEffect(() => {
+    if (state !== 'coming') return;
+    let live = true;
+    loadChartCode().then(
+      () => live && setState('here'),
+      () => live && setState('failed'),
+    );
+    return () => {
+      live = false;
+    };
+  }, [state]);
+  return state;
 }

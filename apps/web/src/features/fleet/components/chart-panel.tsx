@@ -4,7 +4,7 @@ import { Notice } from '../../../lib/ui/notice';
 import { Button } from '../../../lib/ui/button';
 import { ExportButton } from '../../../lib/ui/export-button';
 import { isEmptySpec, type ChartSpec, type ChartTable } from './chart-spec';
-import { forgetFailedChartCode, loadChartCode, loadedChartCode } from './chart-code';
+import { forgetFailedChartCode, loadChartCode, loadedChartCode, useChartCode } from './chart-code';
 
 /**
  * The chart itself, from the chart code's own chunk. When the route already started loading it and it has
@@ -62,6 +62,12 @@ export function ChartPanel({
 }) {
   const [view, setView] = useState<'chart' | 'table'>('chart');
   const headingId = useId();
+  const chartCode = useChartCode();
+  const chartLoading = (
+    <div role="status" className="flex h-80 items-center justify-center rounded-sheet bg-paper-deep text-ink-muted">
+      Loading the chart…
+    </div>
+  );
   const empty = spec !== null && isEmptySpec(spec);
   const label = `${title}, in ${units}. The table view lists the same numbers.`;
 
@@ -141,19 +147,14 @@ export function ChartPanel({
           </Notice>
         )}
       >
-        <Suspense
-          fallback={
-            <div
-              role="status"
-              className="flex h-80 items-center justify-center rounded-sheet bg-paper-deep text-ink-muted"
-            >
-              Loading the chart…
-            </div>
-          }
-        >
-          <figure aria-labelledby={headingId}>
-            <FleetChart spec={spec} label={label} />
-          </figure>
+        <Suspense fallback={chartLoading}>
+          {chartCode === 'coming' ? (
+            chartLoading
+          ) : (
+            <figure aria-labelledby={headingId}>
+              <FleetChart spec={spec} label={label} />
+            </figure>
+          )}
         </Suspense>
       </ChartBoundary>
     );

@@ -10,6 +10,7 @@ import { minorUnitDigits } from '@kerfline/domain/money/currency';
 import { APP_LOCALE, formatNumber } from '../../../lib/format';
 import { CATEGORY_COLOURS } from '../../../lib/palette';
 import { ChartPanel } from './chart-panel';
+import { useChartCode } from './chart-code';
 import type { ChartSpec, ChartTable } from './chart-spec';
 import { costPerAreaText, lifeText, spendText } from './figure-text';
 import { SiteMark } from './site-mark';
@@ -88,9 +89,11 @@ function spendSpec(data: FleetOverview | undefined): ChartSpec | null {
 
 /** The overview's four charts: spend and cost per area per site by month, stop hours by category, blade life. */
 export function OverviewCharts({ data: shown, status: shownStatus, errorMessage, onRetry, units, query }: Props) {
-  // The first chart draws with the figures as they come; the other three once it is on screen (after the next
-  // frame), and then in the background (React's deferred value), so the first one never waits for all four.
-  const restShown = useAfterNextFrame(shown !== undefined);
+  // The first chart draws with the figures as they come; the other three once it is on screen (the frame after
+  // both the figures and the chart code are here), and then in the background (React's deferred value), so the
+  // first one never waits for all four.
+  const chartCodeHere = useChartCode() === 'here';
+  const restShown = useAfterNextFrame(shown !== undefined && chartCodeHere);
   const data = useDeferredValue<FleetOverview | null | undefined>(restShown ? shown : null, null) ?? undefined;
   const status = shownStatus === 'success' && !data ? 'pending' : shownStatus;
   const currency = data?.reportingCurrency ?? 'USD';
