@@ -37,6 +37,24 @@ import { BENCH_PASSWORD, BENCH_USERS, hasBenchFleet, siteId } from './bench-gene
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../../..');
 const REPEATS = Number(process.env.BENCH_REPEATS ?? 20);
 const HEAVY_REPEATS = Number(process.env.BENCH_HEAVY_REPEATS ?? 5);
+
+/**
+ * Run in the page before its own code: notes when the first chart's shapes enter the page (a mutation observer,
+ * run as React commits them) and the frame after, in the page's clock (from the navigation's start). Playwright's
+ * own wait polls on the page's main thread, so it also waits behind whatever the page draws next (the other
+ * charts); both are reported.
+ */
+/** Cold loads of the chart page timed, after one warm-up. */
+const FIRST_CHART_LOADS = 9;
+
+const firstChartMark = (selector: string) => `
+  new MutationObserver((_, observer) => {
+    if (window.kerflineFirstChart || !document.querySelector(${JSON.stringify(selector)})) return;
+    const mark = { at: performance.now() };
+    window.kerflineFirstChart = mark;
+    requestAnimationFrame(() => { mark.frame = performance.now(); });
+    observer.disconnect();
+  }).observe(document, { childList: true, subtree: true });`;
 const args = new Set(process.argv.slice(2));
 /** --load-only: run the load tests alone and put them into the existing bench/results.json. */
 const loadOnly = args.has('--load-only');
@@ -450,24 +468,6 @@ async function measureWeb() {
   );
   return out;
 }
-
-/**
- * Run in the page before its own code: notes when the first chart's shapes enter the page (a mutation observer,
- * run as React commits them) and the frame after, in the page's clock (from the navigation's start). Playwright's
- * own wait polls on the page's main thread, so it also waits behind whatever the page draws next (the other
- * charts); both are reported.
- */
-/** Cold loads of the chart page timed, after one warm-up. */
-const FIRST_CHART_LOADS = 9;
-
-const firstChartMark = (selector: string) => `
-  new MutationObserver((_, observer) => {
-    if (window.kerflineFirstChart || !document.querySelector(${JSON.stringify(selector)})) return;
-    const mark = { at: performance.now() };
-    window.kerflineFirstChart = mark;
-    requestAnimationFrame(() => { mark.frame = performance.now(); });
-    observer.disconnect();
-  }).observe(document, { childList: true, subtree: true });`;
 
 async function timeFirstChart(): Promise<Record<string, unknown> | null> {
   const page = process.env.BENCH_CHART_PAGE ?? '/fleet';
