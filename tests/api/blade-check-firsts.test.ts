@@ -1,13 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type supertest from 'supertest';
-import pg from 'pg';
 import { QueryTypes } from 'sequelize';
-import {
-  signedInAgent,
-  startTestApp,
-  testDatabaseUrl,
-  type TestContext,
-} from '../../apps/api/src/test-support/test-db.js';
+import { signedInAgent, startTestApp, type TestContext } from '../../apps/api/src/test-support/test-db.js';
+import { twoWriters } from '../../apps/api/src/test-support/two-writers.js';
 import { buildWorld, PASSWORD, specBody, type World } from '../../apps/api/src/test-support/fixtures.js';
 
 /**
@@ -187,35 +182,23 @@ describe('each blade’s first record of each check stays equal to the records',
   it('two writers of one saw at once (a blade put on, a check recorded in its time): the second waits, both count', async () => {
     const other = world.saws.A![1]!;
     const at = iso(40);
-    const one = new pg.Client({ connectionString: testDatabaseUrl() });
-    const two = new pg.Client({ connectionString: testDatabaseUrl() });
-    await Promise.all([one.connect(), two.connect()]);
-    try {
-      await one.query('BEGIN');
-      await two.query('BEGIN');
-      await one.query(
-        `INSERT INTO blade_runs (site_id, saw_id, blade_spec_id, installed_at, removed_at, removal_reason, cost_minor, currency)
-         SELECT $1, $2, id, $3::timestamptz - interval '1 day', $3::timestamptz + interval '1 day', 'worn_out', 100, 'EUR'
-           FROM blade_specs LIMIT 1`,
-        [other.siteId, other.id, at],
-      );
-      let secondDone = false;
-      const second = two
-        .query(
+    const { secondWaited } = await twoWriters(
+      (one) =>
+        one.query(
+          `INSERT INTO blade_runs (site_id, saw_id, blade_spec_id, installed_at, removed_at, removal_reason, cost_minor, currency)
+           SELECT $1, $2, id, $3::timestamptz - interval '1 day', $3::timestamptz + interval '1 day', 'worn_out', 100, 'EUR'
+             FROM blade_specs LIMIT 1`,
+          [other.siteId, other.id, at],
+        ),
+      (two) =>
+        two.query(
           `INSERT INTO check_records (site_id, saw_id, site_check_id, checked_at, target_rule, quantity, reading,
                                       passed, explanation)
            VALUES ($1, $2, $3, $4, 'guide_clearance', 'length', 1.1, true, 'concurrent writer')`,
           [other.siteId, other.id, checkIds.guide, at],
-        )
-        .then(() => (secondDone = true));
-      await new Promise((resolve) => setTimeout(resolve, 300));
-      expect(secondDone).toBe(false);
-      await one.query('COMMIT');
-      await second;
-      await two.query('COMMIT');
-    } finally {
-      await Promise.all([one.end(), two.end()]);
-    }
+        ),
+    );
+    expect(secondWaited).toBe(true);
     await expectKept();
     const [run] = await rows<{ id: string }>(`SELECT id FROM blade_runs WHERE saw_id = :saw`, { saw: other.id });
     expect(await firstOf(run!.id, checkIds.guide)).toBe(at);

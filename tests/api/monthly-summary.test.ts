@@ -1,17 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type supertest from 'supertest';
-import pg from 'pg';
+import type pg from 'pg';
 import type { Sequelize } from 'sequelize';
 import type { AppAbility } from '@kerfline/domain/authz/ability';
 import { addMonths, type Month } from '@kerfline/domain/fleet/period';
-import {
-  signedInAgent,
-  startTestApp,
-  testDatabaseUrl,
-  type TestContext,
-} from '../../apps/api/src/test-support/test-db.js';
+import { signedInAgent, startTestApp, type TestContext } from '../../apps/api/src/test-support/test-db.js';
 import { PASSWORD } from '../../apps/api/src/test-support/fixtures.js';
 import { FLEET_AS_OF, buildFleetFixture, type FleetFixture } from '../../apps/api/src/test-support/fleet-fixture.js';
+import { twoWriters } from '../../apps/api/src/test-support/two-writers.js';
 import { abilityFor } from '../../apps/api/src/test-support/abilities.js';
 import {
   moneyRows,
@@ -364,23 +360,11 @@ describe('the monthly summary stays equal to the records', () => {
            FROM blade_runs WHERE saw_id = $1 LIMIT 1`,
         [a2.id, at],
       );
-    const one = new pg.Client({ connectionString: testDatabaseUrl() });
-    const two = new pg.Client({ connectionString: testDatabaseUrl() });
-    await Promise.all([one.connect(), two.connect()]);
-    try {
-      await one.query('BEGIN');
-      await two.query('BEGIN');
-      await insert(one, '2023-05-03T08:00:00Z');
-      let secondDone = false;
-      const second = insert(two, '2023-05-20T08:00:00Z').then(() => (secondDone = true));
-      await new Promise((resolve) => setTimeout(resolve, 300));
-      expect(secondDone).toBe(false);
-      await one.query('COMMIT');
-      await second;
-      await two.query('COMMIT');
-    } finally {
-      await Promise.all([one.end(), two.end()]);
-    }
+    const { secondWaited } = await twoWriters(
+      (one) => insert(one, '2023-05-03T08:00:00Z'),
+      (two) => insert(two, '2023-05-20T08:00:00Z'),
+    );
+    expect(secondWaited).toBe(true);
     const [after] = (await ctx.sequelize.query(
       `SELECT sum(blades_used)::int AS n FROM saw_month_runs WHERE saw_id = $1 AND month = '2023-05-01'`,
       { bind: [a2.id], type: 'SELECT' as never },
@@ -407,22 +391,11 @@ describe('the monthly summary stays equal to the records', () => {
            FROM blade_runs WHERE saw_id = $1 LIMIT 1`,
         [sawId, at, area],
       );
-    const one = new pg.Client({ connectionString: testDatabaseUrl() });
-    const two = new pg.Client({ connectionString: testDatabaseUrl() });
-    await Promise.all([one.connect(), two.connect()]);
-    try {
-      await one.query('BEGIN');
-      await two.query('BEGIN');
-      await insert(one, fx.saws.a1.id, '2023-06-05T08:00:00Z', 4321);
-      // The second saw's own summary row is free; the site's list for June waits for the first writer.
-      const second = insert(two, fx.saws.a2.id, '2023-06-12T08:00:00Z', 1234);
-      await new Promise((resolve) => setTimeout(resolve, 300));
-      await one.query('COMMIT');
-      await second;
-      await two.query('COMMIT');
-    } finally {
-      await Promise.all([one.end(), two.end()]);
-    }
+    // The second saw's own summary row is free; the site's list for June waits for the first writer.
+    await twoWriters(
+      (one) => insert(one, fx.saws.a1.id, '2023-06-05T08:00:00Z', 4321),
+      (two) => insert(two, fx.saws.a2.id, '2023-06-12T08:00:00Z', 1234),
+    );
     expect(await listOf()).toEqual([...before, 1234, 4321].sort((a, b) => a - b));
     await expectSummaryMatchesRecords();
   });
