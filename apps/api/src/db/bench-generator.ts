@@ -326,7 +326,7 @@ export async function buildBenchFleet(
        ALTER TABLE check_records ENABLE TRIGGER USER`,
     );
     await step('monthly summary (rollup_rebuild)', 'SELECT rollup_rebuild()');
-    await step("each blade's first checks (blade_check_firsts_rebuild)", 'SELECT blade_check_firsts_rebuild()');
+    await step('first checks (blade_check_firsts_rebuild)', 'SELECT blade_check_firsts_rebuild()');
     // VACUUM as autovacuum would have by now on a database five years old: counts read the indexes alone.
     await client.query('VACUUM (ANALYZE)');
     log(`  ${'indexes and statistics'.padEnd(44)} ${((performance.now() - t) / 1000).toFixed(1).padStart(6)} s`);
