@@ -2,8 +2,10 @@ import { describe, expect, it, vi } from 'vitest';
 import { act, render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { ChartPanel } from './chart-panel';
+import { OverviewCharts } from './overview-charts';
 import { loadChartCode } from './chart-code';
 import type { ChartSpec, ChartTable } from './chart-spec';
+import { overviewFor } from '../../../test-support/fleet';
 
 // The chart code's chunk as the network gives it: the test says whether the next load fails.
 const network = vi.hoisted(() => ({ down: true, loads: 0 }));
@@ -25,6 +27,51 @@ const table: ChartTable = {
 };
 
 describe('the chart code', () => {
+  // First: the chart code has not been asked for yet in this file, and the network is down.
+  it('that could not load is said in every panel of the overview, not left loading', async () => {
+    const reported = vi.spyOn(console, 'error').mockImplementation(() => undefined);
+    const data = overviewFor({
+      method: 'GET',
+      path: '/api/fleet/overview',
+      query: new URLSearchParams({ from: '2026-01', to: '2026-06' }),
+      body: undefined,
+    });
+    await act(async () => {
+      render(
+        <OverviewCharts
+          data={data}
+          status="success"
+          onRetry={() => undefined}
+          units="metric"
+          query={{ from: '2026-01', to: '2026-06' }}
+        />,
+      );
+    });
+    // Each of the four panels says the chart could not be drawn, or that it has nothing to draw; none is loading.
+    const panels = [
+      'Blade spend by month',
+      'Cost per area cut by month',
+      'Stop hours by category',
+      'Blade life by site (median)',
+    ].map((name) => screen.getByRole('region', { name }));
+    await waitFor(
+      () =>
+        expect(
+          panels.map((p) =>
+            within(p).queryByText('The chart could not be drawn')
+              ? 'failed'
+              : within(p).queryByText(/^No .* in this period\.$/)
+                ? 'empty'
+                : 'loading',
+          ),
+        ).not.toContain('loading'),
+      { timeout: 10_000 },
+    );
+    expect(screen.getAllByText('The chart could not be drawn').length).toBeGreaterThan(0);
+    expect(screen.queryByText('Loading the figures…')).toBeNull();
+    reported.mockRestore();
+  }, 20_000);
+
   it('says when it could not load, asks again only on "Try again", and then draws the chart', async () => {
     // React reports the failed load it hands to the panel's boundary; the panel's own words are what is checked.
     const reported = vi.spyOn(console, 'error').mockImplementation(() => undefined);

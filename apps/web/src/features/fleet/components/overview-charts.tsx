@@ -90,10 +90,10 @@ function spendSpec(data: FleetOverview | undefined): ChartSpec | null {
 /** The overview's four charts: spend and cost per area per site by month, stop hours by category, blade life. */
 export function OverviewCharts({ data: shown, status: shownStatus, errorMessage, onRetry, units, query }: Props) {
   // The first chart draws with the figures as they come; the other three once it is on screen (the frame after
-  // both the figures and the chart code are here), and then in the background (React's deferred value), so the
-  // first one never waits for all four.
-  const chartCodeHere = useChartCode() === 'here';
-  const restShown = useAfterNextFrame(shown !== undefined && chartCodeHere);
+  // both the figures and the chart code are here, or the code failed and every panel says so), and then in the
+  // background (React's deferred value), so the first one never waits for all four.
+  const chartCodeSettled = useChartCode() !== 'coming';
+  const restShown = useAfterNextFrame(shown !== undefined && chartCodeSettled);
   const data = useDeferredValue<FleetOverview | null | undefined>(restShown ? shown : null, null) ?? undefined;
   const status = shownStatus === 'success' && !data ? 'pending' : shownStatus;
   const currency = data?.reportingCurrency ?? 'USD';
