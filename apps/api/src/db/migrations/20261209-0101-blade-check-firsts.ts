@@ -22,7 +22,8 @@ import type { MigrationContext } from '../umzug.js';
 export async function up({ sequelize }: MigrationContext): Promise<void> {
   await sequelize.query(`
     CREATE TABLE blade_check_firsts (
-      blade_run_id uuid NOT NULL,
+      -- A blade run's rows go with it (the triggers remove them too; this also holds for TRUNCATE … CASCADE).
+      blade_run_id uuid NOT NULL REFERENCES blade_runs(id) ON DELETE CASCADE,
       site_check_id uuid NOT NULL,
       saw_id uuid NOT NULL,
       site_id uuid NOT NULL,
