@@ -136,6 +136,8 @@ describe('from a saw to its figures, on a phone', () => {
       .first()
       .click();
     await page.waitForURL('**/saws/*');
+    // As above: the saw's page has drawn its links before one is tapped (a tap on a link being drawn can be lost).
+    await expect.poll(() => page.getByRole('link', { name: 'Break-in plan' }).count()).toBe(1);
     await page.getByRole('link', { name: 'Break-in plan' }).click();
     await page.waitForURL('**/calculators/break-in?units=imperial&sawId=*');
     await expect.poll(() => page.getByRole('heading', { level: 1, name: 'Break-in plan' }).count()).toBe(1);
