@@ -43,6 +43,11 @@ describe('times of records', () => {
     expect(messages(stopListQuerySchema.safeParse({ from: '2026-03-04', to: '2026-03-01' }))).toEqual([
       ['to', 'To must be after From'],
     ]);
+    // An offset that moves year 1 back into year 0 is refused with a message, not passed to the database.
+    expect(messages(stopListQuerySchema.safeParse({ to: '0001-01-01T00:00:00+14:00' }))).toEqual([
+      ['to', 'To must fall between the years 1 and 9999 (in UTC)'],
+    ]);
+    expect(rangeBoundSchema('To').parse('0001-01-01T00:00:00Z').getUTCFullYear()).toBe(1);
   });
 
   it('keeps notes as text with line breaks, empty as none, and refuses control characters', () => {

@@ -48,7 +48,11 @@ export const rangeBoundSchema = (label: string) =>
     .union([z.iso.datetime({ offset: true }), z.iso.date()], {
       message: `${label} must be a date (2026-03-04) or a date and time with its offset`,
     })
-    .transform((value) => new Date(value.length === 10 ? `${value}T00:00:00Z` : value));
+    .transform((value) => new Date(value.length === 10 ? `${value}T00:00:00Z` : value))
+    // An offset can move year 1 or year 9999 past the calendar the database and the answers write out.
+    .refine((d) => d.getUTCFullYear() >= 1 && d.getUTCFullYear() <= 9999, {
+      message: `${label} must fall between the years 1 and 9999 (in UTC)`,
+    });
 
 /** `true`/`false` in a query string. */
 export const queryFlagSchema = z
