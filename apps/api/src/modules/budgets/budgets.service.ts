@@ -12,7 +12,7 @@ import { writeAudit, type Actor } from '../../audit/write-audit.js';
 import { inTransaction } from '../../db/models.js';
 import { auditCopy, namesOf } from '../records/record-support.js';
 import { moneyRows } from '../fleet/fleet-figures.js';
-import { fleetSite, fleetSites, periodStartsBy, rateWarnings } from '../fleet/assemble.js';
+import { fleetSite, fleetSites, moneyParts, periodStartsBy, rateWarnings } from '../fleet/assemble.js';
 import { rateLookup, reportingCurrency } from '../exchange-rates/rates.js';
 import { Budget } from './budget.model.js';
 
@@ -57,21 +57,12 @@ export async function getBudgetStatus(ability: AppAbility, q: FleetQuery, asOf =
   const names = await namesOf(budgets.map((b) => b.setById));
   const budgetOf = new Map(budgets.map((b) => [`${b.siteId}|${b.month.slice(0, 7)}`, toDto(b, names)]));
   const missing: UnconvertedPart[] = [];
-  // Each site-month's spend, found through one index of the money rows (60 sites × the period's months).
-  const spendOf = new Map<string, typeof money>();
-  for (const m of money) {
-    if (m.kind !== 'spend') continue;
-    const key = `${m.groupId}|${m.month}`;
-    const parts = spendOf.get(key);
-    if (parts) parts.push(m);
-    else spendOf.set(key, [m]);
-  }
 
   const statusSites = sites.map((site) => {
     const months: BudgetMonth[] = monthsOf(period).map((month) => {
       let spentMinor = 0;
       let complete = true;
-      for (const part of spendOf.get(`${site.id}|${month}`) ?? []) {
+      for (const part of moneyParts(money, site.id, 'spend', new Set([month]))) {
         if (part.currency === site.currency) {
           spentMinor += part.amountMinor;
           continue;
