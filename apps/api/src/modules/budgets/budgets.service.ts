@@ -39,11 +39,12 @@ const canReadBudgets = (ability: AppAbility, site: FleetSite) =>
  */
 export async function getBudgetStatus(ability: AppAbility, q: FleetQuery, asOf = new Date()): Promise<BudgetStatus> {
   const period = { from: q.from, to: q.to };
-  const sites = (await fleetSites(ability, { only: q.sites, activeFrom: periodStartsBy(period) })).filter((s) =>
-    canReadBudgets(ability, s),
-  );
+  const [readable, { currency: reporting }] = await Promise.all([
+    fleetSites(ability, { only: q.sites, activeFrom: periodStartsBy(period) }),
+    reportingCurrency(),
+  ]);
+  const sites = readable.filter((s) => canReadBudgets(ability, s));
   const siteIds = sites.map((s) => s.id);
-  const reporting = (await reportingCurrency()).currency;
   const [budgets, money, rateOf] = await Promise.all([
     Budget.findAll({
       where: scopedWhere(ability, 'read', 'Budget', Budget, {

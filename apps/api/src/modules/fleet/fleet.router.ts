@@ -22,6 +22,7 @@ import {
   getSawFigures,
   getSiteFigures,
   listSawRuns,
+  readableSaw,
 } from './fleet.service.js';
 import {
   assertExportable,
@@ -110,17 +111,20 @@ export function fleetRouter(): Router {
       const ability = abilityOf(res);
       const q = parsed(res, 'query', sawExportQuerySchema);
       const { sawId } = parsed(res, 'params', sawParams);
-      const figures = await getSawFigures(ability, sawId, q);
-      assertExportable(ability, [figures.site]);
-      const name = `${figures.saw.assetTag}-${q.table}-${q.from}-${q.to}`;
       if (q.table !== 'runs') {
-        await sendCsv(res, name, sawTable(figures, q.table, q.units));
+        const figures = await getSawFigures(ability, sawId, q);
+        assertExportable(ability, [figures.site]);
+        await sendCsv(res, `${figures.saw.assetTag}-${q.table}-${q.from}-${q.to}`, sawTable(figures, q.table, q.units));
         return;
       }
-      // Runs can be many: counted first for the progress bar, then streamed a thousand at a time.
-      const total = await countSawRuns(ability, sawId, q);
+      // The runs need the saw, not its figures. They can be many: counted first for the progress bar, then
+      // streamed a thousand at a time.
+      const readable = await readableSaw(ability, sawId);
+      assertExportable(ability, [readable.site]);
+      const name = `${readable.saw.assetTag}-${q.table}-${q.from}-${q.to}`;
+      const total = await countSawRuns(ability, readable, q);
       async function* batches() {
-        for await (const runs of eachSawRun(ability, sawId, q)) yield runs.map((r) => runCells(r, q.units));
+        for await (const runs of eachSawRun(ability, readable, q)) yield runs.map((r) => runCells(r, q.units));
       }
       await streamCsv(res, name, runHeader(q.units), total, batches());
     },

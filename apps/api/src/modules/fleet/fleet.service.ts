@@ -8,6 +8,7 @@ import type {
   FleetQuery,
   FleetRun,
   FleetSaw,
+  FleetSite,
   PeriodQuery,
   PeriodRunsQuery,
   Practice,
@@ -182,13 +183,17 @@ export async function getSiteFigures(
   };
 }
 
-/** The saw a reader may see (404 otherwise), with its site. */
-async function readableSaw(ability: AppAbility, sawId: string) {
-  const saw = await Saw.findOne({ where: scopedWhere(ability, 'read', 'Saw', Saw, { id: sawId }) });
-  const site = saw ? await fleetSite(ability, saw.siteId) : null;
+/** The saw a reader may see (404 otherwise), with its site; the two are read side by side. */
+export async function readableSaw(ability: AppAbility, sawId: string): Promise<ReadableSaw> {
+  const [saw, sites] = await Promise.all([
+    Saw.findOne({ where: scopedWhere(ability, 'read', 'Saw', Saw, { id: sawId }) }),
+    fleetSites(ability),
+  ]);
+  const site = saw ? sites.find((s) => s.id === saw.siteId) : undefined;
   if (!saw || !site) throw AppError.notFound('Saw');
   return { saw, site };
 }
+export type ReadableSaw = { saw: Saw; site: FleetSite };
 
 /** One saw's figures over the period, month by month, and its finished blades by reason. */
 export async function getSawFigures(
@@ -278,25 +283,24 @@ function sawRunsSql(ability: AppAbility, sawId: string, timeZone: string, period
 }
 
 export async function listSawRuns(ability: AppAbility, sawId: string, q: PeriodRunsQuery): Promise<Page<FleetRun>> {
-  const { saw, site } = await readableSaw(ability, sawId);
-  const { params, where } = sawRunsSql(ability, saw.id, site.timeZone, q);
-  const [count] = await sequelize().query<{ n: number }>(`SELECT count(*)::int AS n FROM blade_runs r WHERE ${where}`, {
-    bind: params.values,
-    type: QueryTypes.SELECT,
-  });
+  const readable = await readableSaw(ability, sawId);
+  const { params, where } = sawRunsSql(ability, readable.saw.id, readable.site.timeZone, q);
   const limit = params.add(q.limit);
   const offset = params.add(q.offset);
-  const rows = await sequelize().query<RunRow>(
-    `SELECT r.*, b.name AS spec_name FROM blade_runs r JOIN blade_specs b ON b.id = r.blade_spec_id
-      WHERE ${where} ORDER BY r.installed_at DESC, r.id DESC LIMIT ${limit} OFFSET ${offset}`,
-    { bind: params.values, type: QueryTypes.SELECT },
-  );
-  return { items: rows.map(toFleetRun), total: count?.n ?? 0, limit: q.limit, offset: q.offset };
+  // The count and the page side by side (the count's statement leaves the page's two values unused).
+  const [total, rows] = await Promise.all([
+    countSawRuns(ability, readable, q),
+    sequelize().query<RunRow>(
+      `SELECT r.*, b.name AS spec_name FROM blade_runs r JOIN blade_specs b ON b.id = r.blade_spec_id
+        WHERE ${where} ORDER BY r.installed_at DESC, r.id DESC LIMIT ${limit} OFFSET ${offset}`,
+      { bind: params.values, type: QueryTypes.SELECT },
+    ),
+  ]);
+  return { items: rows.map(toFleetRun), total, limit: q.limit, offset: q.offset };
 }
 
-/** Every run of the saw in the period, a batch at a time (for the streamed export). */
-export async function* eachSawRun(ability: AppAbility, sawId: string, period: MonthPeriod, batch = 1000) {
-  const { saw, site } = await readableSaw(ability, sawId);
+/** Every run of a readable saw in the period, a batch at a time (for the streamed export). */
+export async function* eachSawRun(ability: AppAbility, { saw, site }: ReadableSaw, period: MonthPeriod, batch = 1000) {
   let after: { at: Date; id: string } | null = null;
   for (;;) {
     const { params, where } = sawRunsSql(ability, saw.id, site.timeZone, period);
@@ -316,9 +320,12 @@ export async function* eachSawRun(ability: AppAbility, sawId: string, period: Mo
   }
 }
 
-/** How many runs the saw had in the period (for the export's progress). */
-export async function countSawRuns(ability: AppAbility, sawId: string, period: MonthPeriod): Promise<number> {
-  const { saw, site } = await readableSaw(ability, sawId);
+/** How many runs a readable saw had in the period (for the list's total and the export's progress). */
+export async function countSawRuns(
+  ability: AppAbility,
+  { saw, site }: ReadableSaw,
+  period: MonthPeriod,
+): Promise<number> {
   const { params, where } = sawRunsSql(ability, saw.id, site.timeZone, period);
   const [count] = await sequelize().query<{ n: number }>(`SELECT count(*)::int AS n FROM blade_runs r WHERE ${where}`, {
     bind: params.values,
