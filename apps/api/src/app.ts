@@ -103,6 +103,9 @@ export function createApp(deps: AppDeps): Express {
   initModels(deps.sequelize);
   const app = express();
   app.disable('x-powered-by');
+  // API answers are never cached (noStore below), so an ETag is a hash of every body that no client keeps; the
+  // web app's files get theirs from the static handler, which keeps its own.
+  app.set('etag', false);
   if (deps.trustProxy) app.set('trust proxy', 1);
 
   app.use(

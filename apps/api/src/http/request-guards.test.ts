@@ -191,7 +191,10 @@ describe('answers', () => {
   it('are never cached: every API answer says Cache-Control: no-store, errors and photos included', async () => {
     const agent = await admin();
     for (const url of ['/api/health', '/api/me', '/api/saws', '/api/no-such-route']) {
-      expect((await agent.get(url)).headers['cache-control'], url).toBe('no-store');
+      const res = await agent.get(url);
+      expect(res.headers['cache-control'], url).toBe('no-store');
+      // Nor hashed for a validator no client keeps: an answer is never revalidated.
+      expect(res.headers.etag, url).toBeUndefined();
     }
     const anonymous = await supertest(ctx.app).get('/api/me');
     expect(anonymous.status).toBe(401);
