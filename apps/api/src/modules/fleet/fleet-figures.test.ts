@@ -326,6 +326,30 @@ describe('scope: every figure counts only what the caller may read', () => {
     expect(admin.downtimeHours).toBeCloseTo(52, 9);
   });
 
+  it('without stops, every level gives its runs’ figures as with them and no hours', async () => {
+    const buckets: Bucket[] = [MARCH, APRIL];
+    let compared = 0;
+    for (const level of ['saw', 'site', 'fleet'] as const) {
+      const scope = { ability: abilities.admin!, siteIds: allSites(), asOf: FLEET_AS_OF };
+      const [whole, runsOnly] = await Promise.all([
+        rawFigures(ctx.sequelize, level, scope, buckets),
+        rawFigures(ctx.sequelize, level, scope, buckets, { stops: false }),
+      ]);
+      const wholeOf = indexRaw(whole);
+      expect(runsOnly.length, level).toBe(whole.length);
+      for (const row of runsOnly) {
+        const label = `${level} ${row.groupId} ${row.bucket}`;
+        const withStops = wholeOf(row.groupId, row.bucket);
+        expect(row.downtimeHours, label).toBe(0);
+        expect(row.bladesUsed, label).toBe(withStops.bladesUsed);
+        expect(row.medianLifeMm2, label).toBe(withStops.medianLifeMm2);
+        compared += 1;
+      }
+    }
+    // Not empty: saws, sites and the fleet, in both months.
+    expect(compared).toBeGreaterThan(6);
+  });
+
   it('a site admin sees their site only; a manager of A and C sees A and C', async () => {
     const siteAdmin = (await figures('siteAdminA', 'site', [MARCH])).rows.map((r) => r.groupId);
     expect(new Set(siteAdmin)).toEqual(new Set([fx.world.sites.A.id]));

@@ -609,7 +609,7 @@ export function figuresStatement(
         ? `
       -- Without stops, no hours either: one row per group with saws and bucket.
       SELECT g.gid, b.b, 0 AS scheduled_h
-        FROM (SELECT DISTINCT ${groupOf(level, 'w')} AS gid FROM saws_in w) g
+        FROM (SELECT DISTINCT ${level === 'saw' ? 'w.id' : groupOf(level, 'w')} AS gid FROM saws_in w) g
         CROSS JOIN (SELECT DISTINCT b FROM bucket_months) b`
         : `
       SELECT g.gid, bm.b, sum(g.seconds) / 3600.0 AS scheduled_h
