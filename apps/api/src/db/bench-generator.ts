@@ -11,10 +11,15 @@
  * The shape of the fleet (invented, tuned to look like a real operation; the figures are the demo's own):
  * - three saw classes (mid-size horizontal bar saws, large horizontal saws, vertical saws) with their own blades;
  * - a blade lasts about 3–4 days of production and cuts 2–6 m² (our invented demo range), removed mostly worn out;
+ *   one whose break-in was skipped (15 %, 60 % at poor sites and saws) cuts a fifth less;
  * - stops are short and mostly blade changes, shortages and planned maintenance, a few long breakdowns;
  * - three sites are poor (shorter blade life, dearer blades, more breakdowns, checks failed and overdue) and one
  *   saw in fifty is poor (blades broken or stripped early, frequent unplanned stops), so outliers exist;
  * - one site in five keeps cut logs (two per blade), and its runs' areas come from them;
+ * - checks on a calendar are recorded about every three weeks a saw, so most fall due before they are done; the
+ *   checks due at a blade change have been recorded in the last year only, at a third of the changes (a seventh at
+ *   poor sites), each set within hours of the new blade going on, and one set in twenty (three in ten at poor
+ *   sites) after the 8 h grace;
  * - a few saws are down now (an open stop) and every saw has a blade on.
  */
 import pg from 'pg';
@@ -208,7 +213,7 @@ export async function buildBenchFleet(
                CASE WHEN roll2 < 0.7 THEN round((200 + roll2 * 80)::numeric, 0) END,
                (ARRAY['carbon_steel', 'carbon_steel', 'carbon_steel', 'alloy_steel', 'alloy_steel', 'stainless_steel',
                       'tool_steel', 'aluminium', 'cast_iron', 'copper_alloy'])[1 + (site_no + n) % 10],
-               CASE WHEN poor_saw OR poor_site THEN roll2 < 0.4 ELSE roll2 < 0.85 END,
+               followed,
                round((SELECT cost FROM bench_spec p WHERE p.class = x.class AND p.k = x.spec_k)
                  * CASE WHEN poor_site THEN 1.25 ELSE 1 END)::int,
                'EUR', removed_at,
@@ -219,11 +224,17 @@ export async function buildBenchFleet(
                     WHEN roll < 0.82 THEN 'fatigue_crack' WHEN roll < (CASE WHEN poor_site THEN 0.95 ELSE 0.89 END) THEN 'broken'
                     WHEN roll < 0.96 THEN 'crooked_cutting' ELSE 'other' END,
                CASE WHEN removed_at IS NOT NULL AND NOT keeps_cut_logs
-                    THEN round((2.0e6 + roll2 * 4.0e6) * share * CASE WHEN poor_saw THEN 0.45 WHEN poor_site THEN 0.6 ELSE 1 END) END,
+                    THEN round((2.0e6 + roll2 * 4.0e6) * share * CASE WHEN poor_saw THEN 0.45 WHEN poor_site THEN 0.6 ELSE 1 END
+                         * CASE WHEN followed THEN 1 ELSE 0.8 END) END,
                CASE WHEN removed_at IS NOT NULL AND NOT keeps_cut_logs
-                    THEN round((2.0e6 + roll2 * 4.0e6) * share / 6500 * CASE WHEN poor_saw THEN 0.45 WHEN poor_site THEN 0.6 ELSE 1 END) END,
+                    THEN round((2.0e6 + roll2 * 4.0e6) * share / 6500 * CASE WHEN poor_saw THEN 0.45 WHEN poor_site THEN 0.6 ELSE 1 END
+                         * CASE WHEN followed THEN 1 ELSE 0.8 END) END,
                CASE WHEN removed_at IS NOT NULL AND NOT keeps_cut_logs THEN 'entered' END
           FROM (SELECT p.*,
+                       -- Break-in followed or not, from digits of roll that neither the reason nor the area uses;
+                       -- a blade whose break-in was skipped cuts a fifth less (common practice, no source).
+                       (p.roll * 9973 - floor(p.roll * 9973)) < CASE WHEN p.poor_saw OR p.poor_site THEN 0.4 ELSE 0.85 END
+                         AS followed,
                        now() - interval '1826 days' + (sum(share) OVER w - share) / sum(share) OVER s * interval '1825 days'
                          AS installed_at,
                        CASE WHEN n < runs - 1 THEN now() - interval '1826 days'
@@ -278,7 +289,8 @@ export async function buildBenchFleet(
           FROM blade_runs r
           JOIN bench_saw w ON w.id = r.saw_id AND w.keeps_cut_logs
           CROSS JOIN generate_series(1, 2) k
-          CROSS JOIN LATERAL (SELECT (40 + floor(random() * 16) * 10)::int AS d, (40 + floor(random() * 120))::int AS q
+          CROSS JOIN LATERAL (SELECT (40 + floor(random() * 16) * 10)::int AS d,
+                                     ((40 + floor(random() * 120)) * CASE WHEN r.break_in_followed IS FALSE THEN 0.8 ELSE 1 END)::int AS q
                               WHERE r.id IS NOT NULL AND k > 0) c
          WHERE r.removed_at IS NOT NULL;
       UPDATE blade_runs r SET area_cut_mm2 = c.area, cuts = c.cuts, area_source = 'cut_logs'
@@ -287,8 +299,11 @@ export async function buildBenchFleet(
       `,
     );
 
-    // Checks: each site's shipped list plus one of its own; 200 records a saw over five years, one in ten failed
-    // (one in three at poor sites, whose last six weeks are missing, so their checks are overdue).
+    // Checks: each site's shipped list plus one of its own, periodic. The periodic ones: 86 records a saw over five
+    // years, in turn, one in ten failed (one in three at poor sites, whose last six weeks are missing, so their
+    // checks are overdue). The blade-change ones: in the last year, every one of them at a third of the blade
+    // changes (a fifth on poor saws, a seventh at poor sites), while the blade is on; the set is late (8 h grace)
+    // one time in twenty (three in ten at poor sites).
     await step(
       'checks',
       sql`
@@ -301,7 +316,7 @@ export async function buildBenchFleet(
       INSERT INTO check_records (id, site_id, saw_id, site_check_id, checked_at, checked_by_id, target_rule, quantity,
                                  reading, answers, target, max_value, passed, explanation)
         SELECT pg_temp.bench_id('chk-' || w.fleet_no || '-' || n), w.site_id, w.id, c.id,
-               now() - interval '1826 days' + n * (CASE WHEN w.poor_site THEN interval '8.9 days' ELSE interval '9.1 days' END)
+               now() - interval '1826 days' + n * (CASE WHEN w.poor_site THEN interval '20.7 days' ELSE interval '21.2 days' END)
                  + random() * interval '1 day',
                CASE WHEN w.site_no = 1 THEN pg_temp.bench_id('user-technician') END,
                c.target_rule, c.quantity,
@@ -311,11 +326,40 @@ export async function buildBenchFleet(
                CASE WHEN c.quantity = 'condition' THEN NULL ELSE 1.5 END,
                r.passed, 'Generated for the benchmark'
           FROM bench_saw w
-          CROSS JOIN generate_series(0, 199) n
+          CROSS JOIN generate_series(0, 85) n
           JOIN LATERAL (SELECT id, target_rule, quantity FROM site_checks sc
-                         WHERE sc.site_id = w.site_id ORDER BY sc.position OFFSET (n % 7) LIMIT 1) c ON true
+                         WHERE sc.site_id = w.site_id AND sc.schedule = 'periodic'
+                         ORDER BY sc.position OFFSET (n % 3) LIMIT 1) c ON true
           CROSS JOIN LATERAL (SELECT random() > CASE WHEN w.poor_site THEN 0.33 WHEN w.poor_saw THEN 0.25 ELSE 0.1 END
                                        AS passed, random() AS jitter OFFSET 0 * n) r;
+      CREATE TEMP TABLE bench_change AS
+        SELECT r.id, r.site_id, r.saw_id, r.installed_at, r.removed_at, w.poor_site, w.poor_saw,
+               random() AS pick, random() AS lateness
+          FROM blade_runs r JOIN bench_saw w ON w.id = r.saw_id
+         WHERE r.installed_at >= now() - interval '365 days'
+         ORDER BY r.id;
+      INSERT INTO check_records (id, site_id, saw_id, site_check_id, checked_at, checked_by_id, target_rule, quantity,
+                                 reading, answers, target, max_value, passed, explanation)
+        SELECT pg_temp.bench_id('chk-change-' || b.id || '-' || c.position), b.site_id, b.saw_id, c.id,
+               -- While the blade is on: within 6 h of its start, or 9–29 h when late (never after it came off, nor now).
+               GREATEST(b.installed_at, LEAST(
+                 b.installed_at + CASE WHEN b.lateness < CASE WHEN b.poor_site THEN 0.3 ELSE 0.05 END
+                                       THEN interval '9 hours' + v.roll * interval '20 hours'
+                                       ELSE interval '10 minutes' + v.roll * interval '6 hours' END,
+                 coalesce(b.removed_at, 'infinity'::timestamptz) - interval '1 minute', now())),
+               NULL, c.target_rule, c.quantity,
+               CASE WHEN c.quantity = 'condition' THEN NULL WHEN v.passed THEN 1 + v.roll * 0.4 ELSE 1.6 + v.roll END,
+               CASE WHEN c.quantity = 'condition' THEN jsonb_build_object('reachesGullets', true, 'worn', NOT v.passed) END,
+               CASE WHEN c.quantity = 'condition' THEN NULL ELSE 1.2 END,
+               CASE WHEN c.quantity = 'condition' THEN NULL ELSE 1.5 END,
+               v.passed, 'Generated for the benchmark'
+          FROM bench_change b
+          JOIN site_checks c ON c.site_id = b.site_id AND c.schedule = 'blade_change'
+          CROSS JOIN LATERAL (SELECT random() AS roll,
+                                     random() > CASE WHEN b.poor_site THEN 0.2 ELSE 0.05 END AS passed
+                               OFFSET 0 * c.position) v
+         WHERE b.pick < CASE WHEN b.poor_site THEN 0.14 WHEN b.poor_saw THEN 0.2 ELSE 0.33 END
+         ORDER BY b.id, c.position;
       `,
     );
 
