@@ -110,4 +110,41 @@ describe('the fleet overview’s first load', () => {
     },
     ROUTER_TEST_MS,
   );
+
+  it(
+    'draws the four charts one at a time, never two in the same turn, the first first',
+    async () => {
+      const titles = [
+        'Blade spend by month',
+        'Cost per area cut by month',
+        'Stop hours by category',
+        'Blade life by site (median)',
+      ];
+      // Each time the page changes, which panels have just left their loading state (drawn their chart, or said
+      // there is nothing to draw): a turn that drew two would show here.
+      const arrivals: string[][] = [];
+      const drawn = new Set<string>();
+      const ready = (title: string) => {
+        const panel = screen.queryByRole('region', { name: title });
+        return panel !== null && !/Loading the (figures|chart)/.test(panel.textContent ?? '');
+      };
+      const observer = new MutationObserver(() => {
+        const now = titles.filter((t) => !drawn.has(t) && ready(t));
+        now.forEach((t) => drawn.add(t));
+        if (now.length) arrivals.push(now);
+      });
+      observer.observe(document.body, { childList: true, subtree: true });
+      try {
+        renderAt('/fleet?from=2026-01&to=2026-06', {
+          'GET /api/me': { status: 200, body: makeMe('manager') },
+          'GET /api/fleet/overview': (request) => ({ status: 200, body: overviewFor(request) }),
+        });
+        await waitFor(() => expect([...drawn]).toHaveLength(4), { timeout: 5000 });
+      } finally {
+        observer.disconnect();
+      }
+      expect(arrivals).toEqual(titles.map((t) => [t]));
+    },
+    ROUTER_TEST_MS,
+  );
 });

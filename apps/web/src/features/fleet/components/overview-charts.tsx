@@ -1,4 +1,4 @@
-import { useDeferredValue, useEffect, useState } from 'react';
+import { memo, useDeferredValue, useEffect, useMemo, useState } from 'react';
 import { numberFormat } from '@kerfline/domain/common/number-format';
 import type { UnitSystem } from '@kerfline/domain/sites/schema';
 import type { FleetOverview, FleetQuery } from '@kerfline/domain/fleet/schema';
@@ -37,21 +37,22 @@ const money = (currency: string) => {
   return (major: number) => (major < 1000 ? small : large).format(major);
 };
 
-/** True from the frame after `ready` first became true: what waits for it lets the screen paint first. */
-function useAfterNextFrame(ready: boolean): boolean {
-  const [after, setAfter] = useState(false);
+/**
+ * Moves `stage` on by one, up to `last`, the frame after `go` holds (and again each time it holds after a move):
+ * what waits for a stage lets the screen paint, and take a tap, first.
+ */
+function useNextStageAfterFrame(stage: number, setStage: (next: number) => void, go: boolean, last: number): void {
   useEffect(() => {
-    if (!ready || after) return;
+    if (!go || stage >= last) return;
     let timer: ReturnType<typeof setTimeout> | undefined;
     const frame = requestAnimationFrame(() => {
-      timer = setTimeout(() => setAfter(true), 0);
+      timer = setTimeout(() => setStage(stage + 1), 0);
     });
     return () => {
       cancelAnimationFrame(frame);
       if (timer !== undefined) clearTimeout(timer);
     };
-  }, [ready, after]);
-  return after;
+  }, [stage, setStage, go, last]);
 }
 
 /** The months of an overview, in order. */
@@ -87,172 +88,210 @@ function spendSpec(data: FleetOverview | undefined): ChartSpec | null {
   };
 }
 
+/** A table of one figure per site and month (a chart's table view). */
+function monthTable(
+  from: FleetOverview | undefined,
+  cell: (siteId: string, month: string) => string,
+): ChartTable | null {
+  if (!from) return null;
+  const months = monthsOf(from);
+  return {
+    columns: ['Site', ...months.map(monthLabel)],
+    rows: from.sites.map(({ site: s }) => ({ key: s.id, cells: [s.code, ...months.map((m) => cell(s.id, m))] })),
+  };
+}
+
+type Chart = { spec: ChartSpec | null; table: ChartTable | null };
+
+/** Cost per area cut per site by month, in the reporting currency per display area. */
+function costChart(data: FleetOverview | undefined, units: UnitSystem): Chart {
+  if (!data) return { spec: null, table: null };
+  const currency = data.reportingCurrency;
+  const figure = monthFigures(data);
+  const months = monthsOf(data);
+  return {
+    spec: {
+      kind: 'line',
+      series: data.sites.map(({ site: s }) => ({
+        id: s.id,
+        label: s.code,
+        slot: s.colourIndex,
+        points: months.map((m) => {
+          const v = figure(s.id, m)?.costPerAreaMinorPerMm2 ?? null;
+          return { x: m, y: v === null ? null : moneyPerAreaToDisplay(v, currency, units).value };
+        }),
+      })),
+      yLegend: moneyPerAreaToDisplay(1, currency, units).unit,
+      formatY: (v) => numberFormat(APP_LOCALE, { style: 'currency', currency, maximumSignificantDigits: 2 }).format(v),
+    },
+    table: monthTable(data, (siteId, m) => {
+      const f = figure(siteId, m);
+      return f ? costPerAreaText(f.costPerAreaMinorPerMm2, currency, units, f.costPerAreaComplete) : '—';
+    }),
+  };
+}
+
+/** Stop hours per site over the period, stacked by category. */
+function stopChart(data: FleetOverview | undefined): Chart {
+  if (!data) return { spec: null, table: null };
+  return {
+    spec: {
+      kind: 'stacked',
+      rows: data.sites.map((s) => ({
+        id: s.site.id,
+        label: s.site.code,
+        values: Object.fromEntries(DOWNTIME_CATEGORIES.map((c) => [c, Math.round(s.current.stopHours[c] * 10) / 10])),
+      })),
+      keys: DOWNTIME_CATEGORIES.map((c, i) => ({
+        key: c,
+        label: STOP_CATEGORY_LABELS[c],
+        colour: CATEGORY_COLOURS[i]!,
+      })),
+      yLegend: 'hours',
+      formatY: (v) => `${formatNumber(v)} h`,
+    },
+    table: {
+      columns: ['Site', ...DOWNTIME_CATEGORIES.map((c) => STOP_CATEGORY_LABELS[c]), 'All stops'],
+      rows: data.sites.map((s) => ({
+        key: s.site.id,
+        cells: [
+          `${s.site.code} ${s.site.name}`,
+          ...DOWNTIME_CATEGORIES.map((c) => `${formatNumber(s.current.stopHours[c], 1)} h`),
+          `${formatNumber(s.current.downtimeHours, 1)} h`,
+        ],
+      })),
+    },
+  };
+}
+
+/** Median blade life per site over the period, in the display area. */
+function lifeChart(data: FleetOverview | undefined, units: UnitSystem): Chart {
+  if (!data) return { spec: null, table: null };
+  const areaUnit = DISPLAY_UNITS.largeArea[units].unit;
+  return {
+    spec: {
+      kind: 'bars',
+      rows: data.sites.map((s) => ({
+        id: s.site.id,
+        label: s.site.code,
+        slot: s.site.colourIndex,
+        value: s.current.medianLifeMm2 === null ? null : largeAreaToDisplay(s.current.medianLifeMm2, units).value,
+      })),
+      yLegend: `${areaUnit} per blade`,
+      formatY: (v) => `${formatNumber(v, v < 10 ? 1 : 0)} ${areaUnit}`,
+    },
+    table: {
+      columns: ['Site', 'Median blade life', 'Mean blade life', 'Blades finished with area', 'Mean cuts per blade'],
+      rows: data.sites.map((s) => ({
+        key: s.site.id,
+        cells: [
+          `${s.site.code} ${s.site.name}`,
+          lifeText(s.current.medianLifeMm2, units),
+          lifeText(s.current.meanLifeMm2, units),
+          formatNumber(s.current.bladesWithArea),
+          s.current.meanCutsPerBlade === null ? '—' : formatNumber(s.current.meanCutsPerBlade),
+        ],
+      })),
+    },
+  };
+}
+
+const STOP_LEGEND = DOWNTIME_CATEGORIES.map((c, i) => ({
+  key: c,
+  label: STOP_CATEGORY_LABELS[c],
+  mark: <span aria-hidden="true" className="inline-block size-3" style={{ background: CATEGORY_COLOURS[i] }} />,
+}));
+
+/** A panel redraws only when what it shows changes (the overview adds its charts one at a time). */
+const MemoChartPanel = memo(ChartPanel);
+
 /** The overview's four charts: spend and cost per area per site by month, stop hours by category, blade life. */
 export function OverviewCharts({ data: shown, status: shownStatus, errorMessage, onRetry, units, query }: Props) {
   // The first chart draws with the figures as they come; the other three once it is on screen (the frame after
-  // both the figures and the chart code are here, or the code failed and every panel says so), and then in the
-  // background (React's deferred value), so the first one never waits for all four.
+  // both the figures and the chart code are here, or the code failed and every panel says so), one a frame, each
+  // after the one before is drawn: a chart is a long task, and three in one kept the page from answering a tap.
+  // Later figures (another period) reach them in the background (React's deferred value), never before the first.
   const chartCodeSettled = useChartCode() !== 'coming';
-  const restShown = useAfterNextFrame(shown !== undefined && chartCodeSettled);
-  const data = useDeferredValue<FleetOverview | null | undefined>(restShown ? shown : null, null) ?? undefined;
-  const status = shownStatus === 'success' && !data ? 'pending' : shownStatus;
+  const [stage, setStage] = useState(0);
+  const data = useDeferredValue<FleetOverview | null | undefined>(stage >= 1 ? shown : null, null) ?? undefined;
+  // Stage 1 once the figures and the code are here; 2 and 3 once the second chart has its figures (drawn).
+  useNextStageAfterFrame(stage, setStage, shown !== undefined && chartCodeSettled && (stage === 0 || !!data), 3);
+  const stopData = stage >= 2 ? data : undefined;
+  const lifeData = stage >= 3 ? data : undefined;
+  const statusOf = (d: FleetOverview | undefined) => (shownStatus === 'success' && !d ? 'pending' : shownStatus);
   const currency = data?.reportingCurrency ?? 'USD';
   const shownCurrency = shown?.reportingCurrency ?? 'USD';
-  const shownFigure = monthFigures(shown);
   const perAreaUnit = moneyPerAreaToDisplay(1, currency, units).unit;
   const areaUnit = DISPLAY_UNITS.largeArea[units].unit;
-  const months = data ? monthsOf(data) : [];
-  const sites = data?.sites.map((s) => s.site) ?? [];
-  const legend = (shown?.sites.map((s) => s.site) ?? []).map((s) => ({
-    key: s.id,
-    label: `${s.code} ${s.name}`,
-    mark: <SiteMark slot={s.colourIndex} />,
-  }));
-  const figure = monthFigures(data);
+  // Each chart's figures are worked out once for the figures it shows (useMemo) and its panel is memoized: a
+  // stage redraws the chart it adds, not the ones already on screen.
+  const legend = useMemo(
+    () =>
+      (shown?.sites.map((s) => s.site) ?? []).map((s) => ({
+        key: s.id,
+        label: `${s.code} ${s.name}`,
+        mark: <SiteMark slot={s.colourIndex} />,
+      })),
+    [shown],
+  );
+  const spend = useMemo(() => {
+    const figure = monthFigures(shown);
+    return {
+      spec: spendSpec(shown),
+      table: monthTable(shown, (siteId, m) => {
+        const f = figure(siteId, m);
+        return f ? spendText(f.spend) : '—';
+      }),
+    };
+  }, [shown]);
+  const cost = useMemo(() => costChart(data, units), [data, units]);
+  const stops = useMemo(() => stopChart(stopData), [stopData]);
+  const life = useMemo(() => lifeChart(lifeData, units), [lifeData, units]);
 
-  const monthTable = (
-    from: FleetOverview | undefined,
-    cell: (siteId: string, month: string) => string,
-  ): ChartTable | null =>
-    from
-      ? {
-          columns: ['Site', ...monthsOf(from).map(monthLabel)],
-          rows: from.sites.map(({ site: s }) => ({
-            key: s.id,
-            cells: [s.code, ...monthsOf(from).map((m) => cell(s.id, m))],
-          })),
-        }
-      : null;
-
-  const costSpec: ChartSpec | null = data
-    ? {
-        kind: 'line',
-        series: sites.map((s) => ({
-          id: s.id,
-          label: s.code,
-          slot: s.colourIndex,
-          points: months.map((m) => {
-            const v = figure(s.id, m)?.costPerAreaMinorPerMm2 ?? null;
-            return { x: m, y: v === null ? null : moneyPerAreaToDisplay(v, currency, units).value };
-          }),
-        })),
-        yLegend: perAreaUnit,
-        formatY: (v) =>
-          numberFormat(APP_LOCALE, { style: 'currency', currency, maximumSignificantDigits: 2 }).format(v),
-      }
-    : null;
-
-  const stopSpec: ChartSpec | null = data
-    ? {
-        kind: 'stacked',
-        rows: data.sites.map((s) => ({
-          id: s.site.id,
-          label: s.site.code,
-          values: Object.fromEntries(DOWNTIME_CATEGORIES.map((c) => [c, Math.round(s.current.stopHours[c] * 10) / 10])),
-        })),
-        keys: DOWNTIME_CATEGORIES.map((c, i) => ({
-          key: c,
-          label: STOP_CATEGORY_LABELS[c],
-          colour: CATEGORY_COLOURS[i]!,
-        })),
-        yLegend: 'hours',
-        formatY: (v) => `${formatNumber(v)} h`,
-      }
-    : null;
-  const stopTable: ChartTable | null = data
-    ? {
-        columns: ['Site', ...DOWNTIME_CATEGORIES.map((c) => STOP_CATEGORY_LABELS[c]), 'All stops'],
-        rows: data.sites.map((s) => ({
-          key: s.site.id,
-          cells: [
-            `${s.site.code} ${s.site.name}`,
-            ...DOWNTIME_CATEGORIES.map((c) => `${formatNumber(s.current.stopHours[c], 1)} h`),
-            `${formatNumber(s.current.downtimeHours, 1)} h`,
-          ],
-        })),
-      }
-    : null;
-
-  const lifeSpec: ChartSpec | null = data
-    ? {
-        kind: 'bars',
-        rows: data.sites.map((s) => ({
-          id: s.site.id,
-          label: s.site.code,
-          slot: s.site.colourIndex,
-          value: s.current.medianLifeMm2 === null ? null : largeAreaToDisplay(s.current.medianLifeMm2, units).value,
-        })),
-        yLegend: `${areaUnit} per blade`,
-        formatY: (v) => `${formatNumber(v, v < 10 ? 1 : 0)} ${areaUnit}`,
-      }
-    : null;
-  const lifeTable: ChartTable | null = data
-    ? {
-        columns: ['Site', 'Median blade life', 'Mean blade life', 'Blades finished with area', 'Mean cuts per blade'],
-        rows: data.sites.map((s) => ({
-          key: s.site.id,
-          cells: [
-            `${s.site.code} ${s.site.name}`,
-            lifeText(s.current.medianLifeMm2, units),
-            lifeText(s.current.meanLifeMm2, units),
-            formatNumber(s.current.bladesWithArea),
-            s.current.meanCutsPerBlade === null ? '—' : formatNumber(s.current.meanCutsPerBlade),
-          ],
-        })),
-      }
-    : null;
-
-  const common = { status, errorMessage, onRetry };
+  const common = { errorMessage, onRetry };
   return (
     <div className="grid gap-6 xl:grid-cols-2">
-      <ChartPanel
+      <MemoChartPanel
         status={shownStatus}
         errorMessage={errorMessage}
         onRetry={onRetry}
         title="Blade spend by month"
         units={`${shownCurrency}, each month converted at its own rate`}
-        spec={spendSpec(shown)}
-        table={monthTable(shown, (siteId, m) => {
-          const f = shownFigure(siteId, m);
-          return f ? spendText(f.spend) : '—';
-        })}
+        spec={spend.spec}
+        table={spend.table}
         legend={legend}
         exportPath={exportPath('/fleet/overview/export', query, units, { table: 'months' })}
         emptyMessage="No blades were put on in this period."
       />
-      <ChartPanel
+      <MemoChartPanel
         {...common}
+        status={statusOf(data)}
         title="Cost per area cut by month"
         units={`${currency} per ${units === 'imperial' ? 'square inch' : 'square centimetre'} (${perAreaUnit})`}
-        spec={costSpec}
-        table={monthTable(data, (siteId, m) => {
-          const f = figure(siteId, m);
-          return f ? costPerAreaText(f.costPerAreaMinorPerMm2, currency, units, f.costPerAreaComplete) : '—';
-        })}
+        spec={cost.spec}
+        table={cost.table}
         legend={legend}
         exportPath={exportPath('/fleet/overview/export', query, units, { table: 'months' })}
         emptyMessage="No blade with its area recorded came off in this period."
       />
-      <ChartPanel
+      <MemoChartPanel
         {...common}
+        status={statusOf(stopData)}
         title="Stop hours by category"
         units="hours, per site over the period"
-        spec={stopSpec}
-        table={stopTable}
-        legend={DOWNTIME_CATEGORIES.map((c, i) => ({
-          key: c,
-          label: STOP_CATEGORY_LABELS[c],
-          mark: <span aria-hidden="true" className="inline-block size-3" style={{ background: CATEGORY_COLOURS[i] }} />,
-        }))}
+        spec={stops.spec}
+        table={stops.table}
+        legend={STOP_LEGEND}
         exportPath={exportPath('/fleet/overview/export', query, units, { table: 'stop-hours' })}
         emptyMessage="No stops were recorded in this period."
       />
-      <ChartPanel
+      <MemoChartPanel
         {...common}
+        status={statusOf(lifeData)}
         title="Blade life by site (median)"
         units={`${areaUnit} cut per blade (${units === 'imperial' ? 'square feet' : 'square metres'})`}
-        spec={lifeSpec}
-        table={lifeTable}
+        spec={life.spec}
+        table={life.table}
         legend={legend}
         exportPath={exportPath('/fleet/overview/export', query, units, { table: 'blade-life' })}
         emptyMessage="No blade with its area recorded came off in this period."
