@@ -1,5 +1,5 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { render } from '@testing-library/react';
+import { fireEvent, render, screen } from '@testing-library/react';
 import { siteShape } from '../../../lib/palette';
 import FleetChart from './charts';
 import type { ChartSpec } from './chart-spec';
@@ -56,5 +56,38 @@ describe('a line chart of sites', () => {
     });
     expect(siteShape(0)).not.toBe(siteShape(1));
     expect(shapes).toEqual([3, 2]);
+  });
+});
+
+describe('a stacked bar chart of sites', () => {
+  it('draws one bar piece per site and category with hours, in the category’s colour, and names it on hover', () => {
+    const spec: ChartSpec = {
+      kind: 'stacked',
+      rows: [
+        { id: 'a', label: 'CV-HAM', values: { breakdown: 3, blade_change: 1.5, planned: 0 } },
+        { id: 'b', label: 'CV-OSL', values: { breakdown: 0, blade_change: 2, planned: 4 } },
+      ],
+      keys: [
+        { key: 'breakdown', label: 'Breakdown', colour: '#AA0000' },
+        { key: 'blade_change', label: 'Blade change', colour: '#00AA00' },
+        { key: 'planned', label: 'Planned', colour: '#0000AA' },
+      ],
+      yLegend: 'hours',
+      formatY: (v) => `${v} h`,
+    };
+    const { container } = render(<FleetChart spec={spec} label="Stop hours" />);
+    const svg = container.querySelector('svg[role="img"]')!;
+    const pieces = [...svg.querySelectorAll('rect[stroke="#FFFDF9"]')];
+    // Four pieces with hours; the two zero ones are not drawn.
+    expect(pieces.map((r) => r.getAttribute('fill')).sort()).toEqual(['#0000AA', '#00AA00', '#00AA00', '#AA0000']);
+    // Heights in proportion to hours: site b's 4 h of planned stops twice its 2 h of blade changes.
+    const height = (fill: string, i = 0) =>
+      Number(pieces.filter((r) => r.getAttribute('fill') === fill)[i]!.getAttribute('height'));
+    const greens = pieces
+      .filter((r) => r.getAttribute('fill') === '#00AA00')
+      .map((r) => Number(r.getAttribute('height')));
+    expect(height('#0000AA') / Math.max(...greens)).toBeCloseTo(2, 5);
+    fireEvent.mouseEnter(pieces.find((r) => r.getAttribute('fill') === '#0000AA')!);
+    expect(screen.getByText(/CV-OSL: Planned 4 h/)).toBeTruthy();
   });
 });

@@ -1,6 +1,7 @@
-import { useLayoutEffect, useRef, useState, type ReactNode } from 'react';
+import { createElement, useLayoutEffect, useRef, useState, type MouseEvent, type ReactNode } from 'react';
 import { Line, type LineCustomSvgLayerProps, type LineSvgLayer } from '@nivo/line';
-import { Bar } from '@nivo/bar';
+import { Bar, type BarCustomLayerProps, type BarDatum, type BarLayer } from '@nivo/bar';
+import { useTooltip } from '@nivo/tooltip';
 import { monthLabel } from '@kerfline/domain/fleet/period';
 import { siteColour, siteShape } from '../../../lib/palette';
 import type { ChartSpec } from './chart-spec';
@@ -87,6 +88,43 @@ function plainPoints({ points, pointSize }: LineCustomSvgLayerProps<SiteSeries>)
 }
 
 const LINE_LAYERS: LineSvgLayer<SiteSeries>[] = ['grid', 'axes', 'crosshair', plainLines, plainPoints, 'slices'];
+
+/*
+ * The bars drawn as plain rectangles, for the same reason: the library's own layer gives each bar its springs, and a
+ * fleet's stop hours are 60 sites × 7 categories, a long task of their own. The tooltip is the chart's own.
+ */
+function PlainBars<D extends BarDatum>({ bars, tooltip, borderWidth }: BarCustomLayerProps<D>) {
+  const { showTooltipFromEvent, hideTooltip } = useTooltip();
+  return (
+    <g>
+      {bars.map((bar) => {
+        if (bar.height <= 0 || bar.width <= 0) return null;
+        const show = (event: MouseEvent<SVGRectElement>) =>
+          showTooltipFromEvent(
+            createElement(tooltip, { ...bar.data, color: bar.color, label: bar.label, value: bar.data.value ?? 0 }),
+            event,
+          );
+        return (
+          <rect
+            key={bar.key}
+            x={bar.x}
+            y={bar.y}
+            width={bar.width}
+            height={bar.height}
+            fill={bar.color}
+            stroke="#FFFDF9"
+            strokeWidth={borderWidth}
+            onMouseEnter={show}
+            onMouseMove={show}
+            onMouseLeave={hideTooltip}
+          />
+        );
+      })}
+    </g>
+  );
+}
+
+const barLayers = <D extends BarDatum>(): BarLayer<D>[] => ['grid', 'axes', PlainBars<D>, 'markers', 'annotations'];
 
 /**
  * A chart as wide as its box. The width is read in the same commit that first shows the box (a layout effect,
@@ -182,6 +220,7 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
             borderColor="#FFFDF9"
             borderWidth={1}
             enableLabel={false}
+            layers={barLayers()}
             gridYValues={5}
             axisLeft={leftAxis}
             axisBottom={{ tickRotation: 0 }}
@@ -192,9 +231,6 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
             )}
             role="img"
             ariaLabel={label}
-            barAriaLabel={(d) =>
-              `${d.indexValue}, ${spec.keys.find((k) => k.key === d.id)?.label}: ${spec.formatY(d.value ?? 0)}`
-            }
           />
         )}
       </Sized>
@@ -216,6 +252,7 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
           padding={0.35}
           colors={(bar) => siteColour(slotOf.get(String(bar.indexValue)) ?? 0)}
           enableLabel={false}
+          layers={barLayers()}
           gridYValues={5}
           axisLeft={leftAxis}
           tooltip={({ value, indexValue }) => (
@@ -225,7 +262,6 @@ export default function FleetChart({ spec, label, height = 320 }: { spec: ChartS
           )}
           role="img"
           ariaLabel={label}
-          barAriaLabel={(d) => `${d.indexValue}: ${spec.formatY(d.value ?? 0)}`}
         />
       )}
     </Sized>
