@@ -20,7 +20,8 @@
  *   checks due at a blade change have been recorded in the last year only, at a third of the changes (a seventh at
  *   poor sites), each set within hours of the new blade going on, and one set in twenty (three in ten at poor
  *   sites) after the 8 h grace;
- * - a few saws are down now (an open stop) and every saw has a blade on.
+ * - a few saws are down now (an open stop) and every saw has a blade on;
+ * - every site has a budget for each of the last 24 months, near the same month's spend a year before.
  */
 import pg from 'pg';
 import type { Sequelize } from 'sequelize';
@@ -360,6 +361,27 @@ export async function buildBenchFleet(
                                OFFSET 0 * c.position) v
          WHERE b.pick < CASE WHEN b.poor_site THEN 0.14 WHEN b.poor_saw THEN 0.2 ELSE 0.33 END
          ORDER BY b.id, c.position;
+      `,
+    );
+
+    // Budgets: every site, each of the last 24 months (the one in progress included), set by the manager at the
+    // same month's spend a year before, give or take (a poor site's are tighter, so it goes over more often).
+    await step(
+      'budgets',
+      sql`
+      INSERT INTO budgets (id, site_id, month, amount_minor, currency, set_by_id)
+        SELECT pg_temp.bench_id('budget-' || s.code || '-' || to_char(m.month, 'YYYY-MM')), s.id, m.month,
+               (round(coalesce(sp.spend, 0)
+                      * CASE WHEN s.poor THEN 0.8 + random() * 0.25 ELSE 0.9 + random() * 0.3 END / 10000.0) * 10000)::bigint,
+               s.currency, pg_temp.bench_id('user-manager')
+          FROM (SELECT x.*, EXISTS (SELECT 1 FROM bench_saw w WHERE w.site_id = x.id AND w.poor_site) AS poor FROM sites x) s
+          CROSS JOIN (SELECT (date_trunc('month', now() AT TIME ZONE 'UTC') - k * interval '1 month')::date AS month
+                        FROM generate_series(0, 23) k) m
+          LEFT JOIN (SELECT r.site_id, date_trunc('month', r.installed_at AT TIME ZONE z.time_zone)::date AS month,
+                            sum(r.cost_minor) AS spend
+                       FROM blade_runs r JOIN sites z ON z.id = r.site_id
+                      GROUP BY 1, 2) sp ON sp.site_id = s.id AND sp.month = (m.month - interval '12 months')::date
+         ORDER BY s.code, m.month;
       `,
     );
 
