@@ -75,6 +75,16 @@ export async function checksPractice(
      AND ${c}.applies_since < coalesce(${r}.removed_at, 'infinity'::timestamptz)
      AND ${fallsDue(r, c)} >= ${r}.t0 AND ${fallsDue(r, c)} < ${r}.t1 AND ${fallsDue(r, c)} < ${c}.applies_until`;
 
+  // The first records of one saw (`ch`, a row of changing) within its span, each with its check's terms.
+  const firstsOf = (ch: string) => `
+          SELECT f.blade_run_id AS id, f.first_at AS done_at, f.installed_at, f.removed_at, ${ch}.t0, ${ch}.t1,
+                 pr.applies_since, pr.applies_until, pr.grace_hours
+            FROM blade_check_firsts f
+            JOIN unnest(${ch}.check_ids, ${ch}.sinces, ${ch}.untils, ${ch}.graces)
+                   AS pr(check_id, applies_since, applies_until, grace_hours) ON pr.check_id = f.site_check_id
+           WHERE f.saw_id = ${ch}.saw_id AND f.first_at >= ${ch}.lo AND f.first_at < ${ch}.hi
+             AND ${recordScope('f')} AND ${runScope('f')}`;
+
   const sql = `
     WITH bounds AS (
       SELECT s.id AS site_id,
@@ -91,18 +101,16 @@ export async function checksPractice(
     ),
     changing AS MATERIALIZED (
       -- Saws with blade-change checks, and the span of the blades that matter: from the one on when the period
-      -- began (if any) to the taking off of the one on when it ended. Blades on saws never overlap.
-      SELECT w.saw_id, w.t0, w.t1,
+      -- began (if any) to the taking off of the one on when it ended. Blades on saws never overlap. With the
+      -- saw's checks' terms side by side in arrays, so that a saw's records meet them saw by saw (below).
+      SELECT w.saw_id, w.site_id, w.t0, w.t1, w.check_ids, w.sinces, w.untils, w.graces, w.checks, w.first_since,
+             w.last_since,
              coalesce((SELECT a.installed_at ${lastBladeBefore('a', 'w.saw_id', '<', 'w.t0')}), w.t0) AS lo,
              coalesce((SELECT coalesce(z.removed_at, 'infinity'::timestamptz) ${lastBladeBefore('z', 'w.saw_id', '<', 'w.t1')}), w.t0) AS hi
-        FROM (SELECT DISTINCT saw_id, t0, t1 FROM changes) w
-    ),
-    finished_blades AS MATERIALIZED (
-      -- Every blade taken off in the period with its area recorded.
-      SELECT r.id, r.site_id, r.saw_id, r.removed_at, r.area_cut_mm2
-        FROM changing ch
-        JOIN blade_runs r ON r.saw_id = ch.saw_id AND r.installed_at >= ch.lo AND r.installed_at < ch.t1
-       WHERE r.removed_at >= ch.t0 AND r.removed_at < ch.t1 AND r.area_cut_mm2 IS NOT NULL AND ${runScope('r')}
+        FROM (SELECT saw_id, site_id, t0, t1, array_agg(check_id) AS check_ids, array_agg(applies_since) AS sinces,
+                     array_agg(applies_until) AS untils, array_agg(grace_hours) AS graces, count(*)::int AS checks,
+                     min(applies_since) AS first_since, max(applies_since) AS last_since
+                FROM changes GROUP BY saw_id, site_id, t0, t1) w
     ),
     occasions AS (
       -- Every N days: due N days after each record whose next due time falls in the period…
@@ -160,47 +168,43 @@ export async function checksPractice(
     ),
     -- …and each occasion done: judged too while still within its grace, and on time when done within it. The
     -- first record of each check while each blade of the span was on is kept per blade, with the blade's times, in
-    -- blade_check_firsts (its triggers keep it with the records and blade runs).
-    firsts AS (
-      SELECT f.blade_run_id AS id, f.site_id, f.saw_id, f.site_check_id, f.first_at AS done_at,
-             f.installed_at, f.removed_at, ch.t0, ch.t1
-        FROM changing ch
-        JOIN blade_check_firsts f ON f.saw_id = ch.saw_id AND f.first_at >= ch.lo AND f.first_at < ch.hi
-       WHERE ${recordScope('f')} AND ${runScope('f')}
-    ),
+    -- blade_check_firsts (its triggers keep it with the records and blade runs). A saw's first records meet its
+    -- checks' terms saw by saw, and are counted there: a year of the fleet is 200 000 of them, which joined and
+    -- grouped all at once the planner took for a few thousand (a hash of the records, a sort of them on disk).
     change_done AS MATERIALIZED (
-      SELECT r.site_id,
-             count(*) FILTER (WHERE ${fallsDue('r', 'pr')} + ${grace('pr')} >= ${asOf}::timestamptz)::int AS due,
-             count(*) FILTER (WHERE r.done_at <= ${fallsDue('r', 'pr')} + ${grace('pr')})::int AS on_time
-        FROM firsts r
-        JOIN changes pr ON pr.saw_id = r.saw_id AND pr.check_id = r.site_check_id
-       WHERE ${changeOccasion('r', 'pr')}
-       GROUP BY r.site_id
-    ),
-    -- For each blade taken off in the period: how many of the checks that applied to it were done within grace.
-    applied AS MATERIALIZED (
-      SELECT r.id AS run_id, count(*)::int AS on_time
-        FROM firsts r
-        JOIN changes pr ON pr.saw_id = r.saw_id AND pr.check_id = r.site_check_id
-       WHERE r.removed_at >= r.t0 AND r.removed_at < r.t1 AND pr.applies_since < r.removed_at
-         AND r.done_at <= ${fallsDue('r', 'pr')} + ${grace('pr')}
-       GROUP BY r.id
-    ),
-    steps AS MATERIALIZED (
-      -- How many of a saw's blade-change checks applied to a blade taken off at a time (those that began to
-      -- apply before): a step per time one began to apply, from it to the next.
-      SELECT saw_id, since,
-             coalesce(lead(since) OVER (PARTITION BY saw_id ORDER BY since), 'infinity'::timestamptz) AS until,
-             sum(checks) OVER (PARTITION BY saw_id ORDER BY since)::int AS applying
-        FROM (SELECT saw_id, applies_since AS since, sum(checks) AS checks FROM kinds GROUP BY saw_id, applies_since) k
+      SELECT ch.site_id, sum(x.due)::int AS due, sum(x.on_time)::int AS on_time
+        FROM changing ch
+        CROSS JOIN LATERAL (
+          SELECT count(*) FILTER (WHERE ${fallsDue('r', 'r')} + ${grace('r')} >= ${asOf}::timestamptz)::int AS due,
+                 count(*) FILTER (WHERE r.done_at <= ${fallsDue('r', 'r')} + ${grace('r')})::int AS on_time
+            FROM (${firstsOf('ch')}) r
+           WHERE ${changeOccasion('r', 'r')}
+        ) x
+       GROUP BY ch.site_id
     ),
     finished AS (
-      -- Each blade taken off in the period (area recorded) to which a blade-change check applied: were all of
-      -- them done on time?
-      SELECT r.site_id, r.area_cut_mm2, st.applying = coalesce(a.on_time, 0) AS on_time
-        FROM finished_blades r
-        JOIN steps st ON st.saw_id = r.saw_id AND r.removed_at > st.since AND r.removed_at <= st.until
-        LEFT JOIN applied a ON a.run_id = r.id
+      -- Each blade taken off in the period (area recorded) to which a blade-change check applied (one whose terms
+      -- began before it came off): were all of those done on time? Saw by saw, with the saw's first records.
+      SELECT ch.site_id, x.area_cut_mm2, x.on_time
+        FROM changing ch
+        CROSS JOIN LATERAL (
+          SELECT r.area_cut_mm2,
+                 -- How many applied: all of them once the last began before the blade came off (most blades).
+                 CASE WHEN r.removed_at > ch.last_since THEN ch.checks
+                      ELSE (SELECT count(*)::int FROM unnest(ch.sinces) AS s(since) WHERE s.since < r.removed_at)
+                 END = coalesce(a.on_time, 0) AS on_time
+            FROM blade_runs r
+            LEFT JOIN (
+              SELECT f.id AS run_id, count(*)::int AS on_time
+                FROM (${firstsOf('ch')}) f
+               WHERE f.removed_at >= f.t0 AND f.removed_at < f.t1 AND f.applies_since < f.removed_at
+                 AND f.done_at <= ${fallsDue('f', 'f')} + ${grace('f')}
+               GROUP BY f.id
+            ) a ON a.run_id = r.id
+           WHERE r.saw_id = ch.saw_id AND r.installed_at >= ch.lo AND r.installed_at < ch.t1
+             AND r.removed_at >= ch.t0 AND r.removed_at < ch.t1 AND r.area_cut_mm2 IS NOT NULL AND ${runScope('r')}
+             AND r.removed_at > ch.first_since
+        ) x
     ),
     life AS (
       SELECT site_id,
