@@ -2,6 +2,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import pg from 'pg';
 import { createApp } from './app.js';
+import { closeGracefully } from './http/close-gracefully.js';
 import { attemptLimitsOf, databaseUrl, loadEnv, publicUrl, replicaUrl } from './config/env.js';
 import { Jobs } from './jobs/jobs.js';
 import { createSequelize } from './db/sequelize.js';
@@ -72,11 +73,18 @@ const server = app.listen(env.PORT, env.HOST, () => {
   );
 });
 
+/** How long a stopping process waits for the requests in hand (as long as a request may wait for a connection). */
+const SHUTDOWN_GRACE_MS = 10_000;
+
 async function shutdown(signal: string) {
   console.log(`${signal}: closing`);
-  server.close();
-  // Workers finish the mail in hand before the database connections close.
-  await jobs.stop().catch((error: unknown) => console.error('[jobs] stop failed', error));
+  // The requests in hand are answered and the workers finish the mail in hand before the database connections
+  // close: a rolling restart behind the balancer answers no request with an error.
+  const [drained] = await Promise.all([
+    closeGracefully(server, SHUTDOWN_GRACE_MS),
+    jobs.stop().catch((error: unknown) => console.error('[jobs] stop failed', error)),
+  ]);
+  if (drained === 'cut') console.log(`${signal}: requests still open after ${SHUTDOWN_GRACE_MS / 1000} s were cut`);
   await Promise.allSettled([sequelize.close(), sessionPool.end()]);
   process.exit(0);
 }
