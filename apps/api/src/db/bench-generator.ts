@@ -300,6 +300,13 @@ export async function buildBenchFleet(
       `,
     );
 
+    // A record's reading (or a condition's answers), its target and limit, and whether it passed, from a roll.
+    const recordedValues = (passed: string, roll: string) => `
+               CASE WHEN c.quantity = 'condition' THEN NULL WHEN ${passed} THEN 1 + ${roll} * 0.4 ELSE 1.6 + ${roll} END,
+               CASE WHEN c.quantity = 'condition' THEN jsonb_build_object('reachesGullets', true, 'worn', NOT ${passed}) END,
+               CASE WHEN c.quantity = 'condition' THEN NULL ELSE 1.2 END,
+               CASE WHEN c.quantity = 'condition' THEN NULL ELSE 1.5 END,
+               ${passed}, 'Generated for the benchmark'`;
     // Checks: each site's shipped list plus one of its own, periodic. The periodic ones: 86 records a saw over five
     // years, in turn, one in ten failed (one in three at poor sites, whose last six weeks are missing, so their
     // checks are overdue). The blade-change ones: in the last year, every one of them at a third of the blade
@@ -321,11 +328,7 @@ export async function buildBenchFleet(
                  + random() * interval '1 day',
                CASE WHEN w.site_no = 1 THEN pg_temp.bench_id('user-technician') END,
                c.target_rule, c.quantity,
-               CASE WHEN c.quantity = 'condition' THEN NULL WHEN r.passed THEN 1 + r.jitter * 0.4 ELSE 1.6 + r.jitter END,
-               CASE WHEN c.quantity = 'condition' THEN jsonb_build_object('reachesGullets', true, 'worn', NOT r.passed) END,
-               CASE WHEN c.quantity = 'condition' THEN NULL ELSE 1.2 END,
-               CASE WHEN c.quantity = 'condition' THEN NULL ELSE 1.5 END,
-               r.passed, 'Generated for the benchmark'
+               ${recordedValues('r.passed', 'r.jitter')}
           FROM bench_saw w
           CROSS JOIN generate_series(0, 85) n
           JOIN LATERAL (SELECT id, target_rule, quantity FROM site_checks sc
@@ -349,11 +352,7 @@ export async function buildBenchFleet(
                                        ELSE interval '10 minutes' + v.roll * interval '6 hours' END,
                  coalesce(b.removed_at, 'infinity'::timestamptz) - interval '1 minute', now())),
                NULL, c.target_rule, c.quantity,
-               CASE WHEN c.quantity = 'condition' THEN NULL WHEN v.passed THEN 1 + v.roll * 0.4 ELSE 1.6 + v.roll END,
-               CASE WHEN c.quantity = 'condition' THEN jsonb_build_object('reachesGullets', true, 'worn', NOT v.passed) END,
-               CASE WHEN c.quantity = 'condition' THEN NULL ELSE 1.2 END,
-               CASE WHEN c.quantity = 'condition' THEN NULL ELSE 1.5 END,
-               v.passed, 'Generated for the benchmark'
+               ${recordedValues('v.passed', 'v.roll')}
           FROM bench_change b
           JOIN site_checks c ON c.site_id = b.site_id AND c.schedule = 'blade_change'
           CROSS JOIN LATERAL (SELECT random() AS roll,

@@ -64,25 +64,29 @@ function monthFigures(data: FleetOverview | undefined) {
   return (siteId: string, month: string) => index.get(`${siteId}|${month}`);
 }
 
+type MonthFigures = NonNullable<ReturnType<ReturnType<typeof monthFigures>>>;
+
+/** One line per site through its months, at `y` of each month's figures (null: a gap). */
+function siteMonthLines(data: FleetOverview, y: (f: MonthFigures | undefined) => number | null) {
+  const figure = monthFigures(data);
+  const months = monthsOf(data);
+  return data.sites.map(({ site: s }) => ({
+    id: s.id,
+    label: s.code,
+    slot: s.colourIndex,
+    points: months.map((m) => ({ x: m, y: y(figure(s.id, m)) })),
+  }));
+}
+
 /** Spend per site and month, one line per site. */
 function spendSpec(data: FleetOverview | undefined): ChartSpec | null {
   if (!data) return null;
   const currency = data.reportingCurrency;
   const digits = minorUnitDigits(currency);
-  const figure = monthFigures(data);
-  const months = monthsOf(data);
   return {
     kind: 'line',
-    series: data.sites.map(({ site: s }) => ({
-      id: s.id,
-      label: s.code,
-      slot: s.colourIndex,
-      points: months.map((m) => {
-        const f = figure(s.id, m);
-        // A month with a missing rate is left out of the line (a gap), not drawn too low.
-        return { x: m, y: f && f.spend.complete ? f.spend.amountMinor / 10 ** digits : null };
-      }),
-    })),
+    // A month with a missing rate is left out of the line (a gap), not drawn too low.
+    series: siteMonthLines(data, (f) => (f && f.spend.complete ? f.spend.amountMinor / 10 ** digits : null)),
     yLegend: `${currency} per month`,
     formatY: money(currency),
   };
@@ -108,19 +112,13 @@ function costChart(data: FleetOverview | undefined, units: UnitSystem): Chart {
   if (!data) return { spec: null, table: null };
   const currency = data.reportingCurrency;
   const figure = monthFigures(data);
-  const months = monthsOf(data);
   return {
     spec: {
       kind: 'line',
-      series: data.sites.map(({ site: s }) => ({
-        id: s.id,
-        label: s.code,
-        slot: s.colourIndex,
-        points: months.map((m) => {
-          const v = figure(s.id, m)?.costPerAreaMinorPerMm2 ?? null;
-          return { x: m, y: v === null ? null : moneyPerAreaToDisplay(v, currency, units).value };
-        }),
-      })),
+      series: siteMonthLines(data, (f) => {
+        const v = f?.costPerAreaMinorPerMm2 ?? null;
+        return v === null ? null : moneyPerAreaToDisplay(v, currency, units).value;
+      }),
       yLegend: moneyPerAreaToDisplay(1, currency, units).unit,
       formatY: (v) => numberFormat(APP_LOCALE, { style: 'currency', currency, maximumSignificantDigits: 2 }).format(v),
     },
