@@ -287,7 +287,7 @@ export async function listSawRuns(ability: AppAbility, sawId: string, q: PeriodR
   const { params, where } = sawRunsSql(ability, readable.saw.id, readable.site.timeZone, q);
   const limit = params.add(q.limit);
   const offset = params.add(q.offset);
-  // The count and the page side by side (the count's statement leaves the page's two values unused).
+  // The count (its own statement and values, as the export's) and the page side by side.
   const [total, rows] = await Promise.all([
     countSawRuns(ability, readable, q),
     sequelize().query<RunRow>(
