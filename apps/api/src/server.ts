@@ -2,10 +2,10 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import pg from 'pg';
 import { createApp } from './app.js';
-import { closeGracefully } from './http/close-gracefully.js';
+import { closeGracefully, waitUntilIdle } from './http/close-gracefully.js';
 import { attemptLimitsOf, databaseUrl, loadEnv, publicUrl, replicaUrl } from './config/env.js';
 import { Jobs } from './jobs/jobs.js';
-import { createSequelize } from './db/sequelize.js';
+import { createSequelize, sequelizeBusy } from './db/sequelize.js';
 
 const env = loadEnv();
 const url = databaseUrl(env);
@@ -80,11 +80,18 @@ async function shutdown(signal: string) {
   console.log(`${signal}: closing`);
   // The requests in hand are answered and the workers finish the mail in hand before the database connections
   // close: a rolling restart behind the balancer answers no request with an error.
+  const deadline = Date.now() + SHUTDOWN_GRACE_MS;
   const [drained] = await Promise.all([
     closeGracefully(server, SHUTDOWN_GRACE_MS),
     jobs.stop().catch((error: unknown) => console.error('[jobs] stop failed', error)),
   ]);
   if (drained === 'cut') console.log(`${signal}: requests still open after ${SHUTDOWN_GRACE_MS / 1000} s were cut`);
+  // A request whose client left is no connection to wait for, but its handler may be between two statements.
+  const sessionPoolBusy = () => sessionPool.totalCount > sessionPool.idleCount || sessionPool.waitingCount > 0;
+  await waitUntilIdle(() => sequelizeBusy(sequelize) || sessionPoolBusy(), {
+    settleMs: 200,
+    maxMs: Math.max(0, deadline - Date.now()),
+  });
   await Promise.allSettled([sequelize.close(), sessionPool.end()]);
   process.exit(0);
 }

@@ -4,7 +4,7 @@ import pg from 'pg';
 import type { Sequelize } from 'sequelize';
 import { QueryTypes } from 'sequelize';
 import { testDatabaseUrl } from '../test-support/test-database-url.js';
-import { createSequelize } from './sequelize.js';
+import { createSequelize, sequelizeBusy } from './sequelize.js';
 import { onPrimary, readYourWrites } from './read-routing.js';
 
 /**
@@ -102,5 +102,18 @@ describe('reads on a replica, writes on the primary', () => {
     const visitor: Record<string, unknown> = {};
     expect(await sideInRequest('POST', visitor)).toBe('primary');
     expect(visitor.lastWriteAt).toBeUndefined();
+  });
+
+  it('counts a statement on the replica or the primary as work in hand (a stopping process waits for it)', async () => {
+    expect(sequelizeBusy(sequelize)).toBe(false);
+    const onReplica = sequelize.query('SELECT pg_sleep(0.2)', { type: QueryTypes.SELECT });
+    await new Promise((r) => setTimeout(r, 50));
+    expect(sequelizeBusy(sequelize)).toBe(true);
+    await onReplica;
+    const onPrimaryToo = sequelize.query('SELECT pg_sleep(0.2)', { type: QueryTypes.SELECT, useMaster: true });
+    await new Promise((r) => setTimeout(r, 50));
+    expect(sequelizeBusy(sequelize)).toBe(true);
+    await onPrimaryToo;
+    expect(sequelizeBusy(sequelize)).toBe(false);
   });
 });

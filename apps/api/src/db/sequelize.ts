@@ -39,6 +39,14 @@ export function createSequelize(
   return sequelize;
 }
 
+/** Whether any statement is running on, or waiting for, one of the instance's connections (primary or replica). */
+export function sequelizeBusy(sequelize: Sequelize): boolean {
+  type Counts = { using: number; waiting: number };
+  const pool = (sequelize.connectionManager as unknown as { pool: Counts & { read?: Counts; write?: Counts } }).pool;
+  const pools = pool.read && pool.write ? [pool.read, pool.write] : [pool];
+  return pools.some((p) => p.using > 0 || p.waiting > 0);
+}
+
 function connectionOf(url: string) {
   const u = new URL(url);
   return {

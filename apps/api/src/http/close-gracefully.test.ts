@@ -1,7 +1,9 @@
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { afterEach, describe, expect, it } from 'vitest';
-import { closeGracefully } from './close-gracefully.js';
+import { createSequelize, sequelizeBusy } from '../db/sequelize.js';
+import { testDatabaseUrl } from '../test-support/test-database-url.js';
+import { closeGracefully, waitUntilIdle } from './close-gracefully.js';
 
 const servers: http.Server[] = [];
 afterEach(() => {
@@ -75,5 +77,55 @@ describe('closing the server', () => {
     expect(await closeGracefully(server, 200)).toBe('cut');
     expect(Date.now() - started).toBeLessThan(2000);
     expect(await inHand).toBe('cut');
+  });
+});
+
+describe('waiting for the database work in hand', () => {
+  it('says idle only after a quiet spell, and busy if the work outlasts the wait', async () => {
+    let busyUntil = Date.now() + 150;
+    const busy = () => Date.now() < busyUntil;
+    const started = Date.now();
+    expect(await waitUntilIdle(busy, { settleMs: 100, maxMs: 2000 })).toBe('idle');
+    expect(Date.now() - started).toBeGreaterThanOrEqual(240);
+
+    busyUntil = Date.now() + 10_000;
+    expect(await waitUntilIdle(busy, { settleMs: 100, maxMs: 200 })).toBe('busy');
+  });
+
+  it('lets a request whose client left finish its statements before the pool closes', async () => {
+    const sequelize = createSequelize(testDatabaseUrl(), { poolMax: 2 });
+    let arrived: () => void = () => undefined;
+    const arrival = new Promise<void>((resolve) => (arrived = resolve));
+    // A handler with a gap between its two statements, as one that checks access and then reads.
+    const handled = new Promise<string>((resolve) => {
+      const server = http.createServer((_req, res) => {
+        arrived();
+        void (async () => {
+          try {
+            await sequelize.query('SELECT 1');
+            await new Promise((r) => setTimeout(r, 50));
+            await sequelize.query('SELECT 2');
+            res.end('answered');
+            resolve('both statements ran');
+          } catch (error) {
+            resolve(`failed: ${(error as Error).message}`);
+          }
+        })();
+      });
+      servers.push(server);
+      server.listen(0, '127.0.0.1', () => {
+        const { port } = server.address() as AddressInfo;
+        const request = http.get({ host: '127.0.0.1', port }).on('error', () => undefined);
+        void arrival.then(async () => {
+          request.destroy();
+          // The client is gone, so the server has nothing to wait for...
+          expect(await closeGracefully(server, 5000)).toBe('drained');
+          // ...but the handler is still working: the pool closes only once it is done.
+          expect(await waitUntilIdle(() => sequelizeBusy(sequelize), { settleMs: 200, maxMs: 5000 })).toBe('idle');
+          await sequelize.close();
+        });
+      });
+    });
+    expect(await handled).toBe('both statements ran');
   });
 });

@@ -22,3 +22,24 @@ export async function closeGracefully(server: Server, graceMs: number): Promise<
   if (outcome === 'cut') server.closeAllConnections();
   return outcome;
 }
+
+/**
+ * Waits until `busy` has said no for `settleMs` on end, at most `maxMs`: the database work in hand is done.
+ * A request whose client has left is no longer a connection the server waits for, yet its handler may still be
+ * between two statements; the pools close only once no statement has run or waited for a while.
+ */
+export async function waitUntilIdle(
+  busy: () => boolean,
+  { settleMs, maxMs, everyMs = 10 }: { settleMs: number; maxMs: number; everyMs?: number },
+): Promise<'idle' | 'busy'> {
+  const started = Date.now();
+  let idleSince = busy() ? null : started;
+  for (;;) {
+    const now = Date.now();
+    if (busy()) idleSince = null;
+    else idleSince ??= now;
+    if (idleSince !== null && now - idleSince >= settleMs) return 'idle';
+    if (now - started >= maxMs) return 'busy';
+    await new Promise((resolve) => setTimeout(resolve, everyMs));
+  }
+}
