@@ -106,11 +106,11 @@ describe('reads on a replica, writes on the primary', () => {
 
   it('counts a statement on the replica or the primary as work in hand (a stopping process waits for it)', async () => {
     expect(sequelizeBusy(sequelize)).toBe(false);
-    const onReplica = sequelize.query('SELECT pg_sleep(0.2)', { type: QueryTypes.SELECT });
+    const onReplica = sequelize.query('SELECT pg_sleep(0.5)', { type: QueryTypes.SELECT });
     await new Promise((r) => setTimeout(r, 50));
     expect(sequelizeBusy(sequelize)).toBe(true);
     await onReplica;
-    const onPrimaryToo = sequelize.query('SELECT pg_sleep(0.2)', { type: QueryTypes.SELECT, useMaster: true });
+    const onPrimaryToo = sequelize.query('SELECT pg_sleep(0.5)', { type: QueryTypes.SELECT, useMaster: true });
     await new Promise((r) => setTimeout(r, 50));
     expect(sequelizeBusy(sequelize)).toBe(true);
     await onPrimaryToo;
