@@ -106,9 +106,9 @@ beforeAll(async () => {
   await admin.delete(`/api/photos/${removed}`).send({ reason: 'Photo of the wrong band' }).expect(204);
   await admin.patch(`/api/saws/${world.saws.C![1]!.id}`).send({ name: 'Ünïcödé saw – 7' }).expect(200);
   await dropRestored();
-});
-// Dropping the restored database waits for its connections to close: on a loaded machine that takes longer than
-// vitest's 30 s default for a hook.
+}, 120_000);
+// Dropping the restored database waits for its connections to close and for a checkpoint: on a loaded machine that
+// takes longer than vitest's 30 s default for a hook.
 afterAll(async () => {
   await ctx.close();
   await dropRestored();
