@@ -144,18 +144,19 @@ const EMPTIED = [
  * few, so DELETE is as quick; triggers and foreign-key checks are skipped (replica role), since every table that
  * refers to another is emptied with it. The tables are locked first, as TRUNCATE locks them, so a background writer
  * of the last test cannot commit a row behind the DELETE (seen once: a digest queued for a person no longer there).
- * One statement, one round trip.
+ * One statement (its own transaction: a failure leaves nothing half emptied, and no transaction open on the
+ * pooled connection), one round trip.
  */
 export async function resetData(sequelize: Sequelize): Promise<void> {
   const named = EMPTIED.map((t) => `'${t}'`).join(', ');
   await sequelize.query(`
-    BEGIN;
-    SET LOCAL session_replication_role = replica;
     DO $$
     DECLARE
       tables regclass[];
       t regclass;
     BEGIN
+      -- For this statement's transaction only: no triggers, no foreign-key checks.
+      PERFORM set_config('session_replication_role', 'replica', true);
       WITH RECURSIVE emptied(oid) AS (
         SELECT unnest(ARRAY[${named}]::regclass[])::oid
         UNION
@@ -175,8 +176,7 @@ export async function resetData(sequelize: Sequelize): Promise<void> {
       LOOP
         EXECUTE format('ALTER SEQUENCE %s RESTART', t);
       END LOOP;
-    END $$;
-    COMMIT;`);
+    END $$`);
 }
 
 /** A supertest agent that keeps cookies, signed in as `email`. */
