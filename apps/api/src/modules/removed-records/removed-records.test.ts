@@ -1,7 +1,9 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import type supertest from 'supertest';
 import sharp from 'sharp';
-import { startTestApp, signedInAgent, type TestContext } from '../../test-support/test-db.js';
+import pg from 'pg';
+import { startTestApp, signedInAgent, testDatabaseUrl, type TestContext } from '../../test-support/test-db.js';
+import { eventually } from '../../test-support/mail.js';
 import { buildWorld, minutesAgo, PASSWORD, specBody, type World } from '../../test-support/fixtures.js';
 
 let ctx: TestContext;
@@ -259,11 +261,33 @@ describe('removing a record keeps it, and putting it back restores it whole', ()
       .body;
     await siteAdmin.delete(`/api/stops/${stop.id}`).send(REASON).expect(204);
     const kept = (await siteAdmin.get('/api/removed-records')).body.items[0];
-    const answers = await Promise.all([
-      siteAdmin.post(`/api/removed-records/${kept.id}/restore`).send({}),
-      admin.post(`/api/removed-records/${kept.id}/restore`).send({}),
-    ]);
-    expect(answers.map((a) => a.status).sort()).toEqual([200, 409]);
+    // "At once" made sure of: the kept row is held locked until both requests wait for it. Sent merely side by
+    // side, the first could finish before the second looked, which then found nothing to put back (404).
+    const holder = new pg.Client({ connectionString: testDatabaseUrl() });
+    await holder.connect();
+    try {
+      await holder.query('BEGIN');
+      await holder.query('SELECT id FROM removed_records WHERE id = $1 FOR UPDATE', [kept.id]);
+      const requests = [siteAdmin, admin].map((agent) =>
+        agent
+          .post(`/api/removed-records/${kept.id}/restore`)
+          .send({})
+          .then((res) => res),
+      );
+      // Read outside the holder's transaction, which would see the same snapshot of the activity throughout.
+      await eventually(
+        async () =>
+          (await count(
+            `pg_stat_activity WHERE wait_event_type = 'Lock' AND query ILIKE '%removed_records%FOR UPDATE%'`,
+          )) === 2,
+        'both requests wait for the kept row',
+      );
+      await holder.query('ROLLBACK');
+      const answers = await Promise.all(requests);
+      expect(answers.map((a) => a.status).sort()).toEqual([200, 409]);
+    } finally {
+      await holder.end();
+    }
     expect(await count('stops')).toBe(1);
     expect(await count(`audit_entries WHERE entity = 'Stop' AND action = 'restore'`)).toBe(1);
   });
