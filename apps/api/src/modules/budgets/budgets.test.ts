@@ -55,6 +55,13 @@ describe('budgets', () => {
     const [march, april] = res.body.sites[0].months;
     // March without a USD rate: €65.00 + €70.00 = 13 500 cents counted, US$50.00 left out and the month marked.
     expect(march).toMatchObject({ spentMinor: 13_500, spendComplete: false, varianceMinor: 6500 });
+    // The budget set in the first test, with who set it (read in the same statement as the budgets).
+    expect(march.budget).toMatchObject({
+      month: '2026-03',
+      amountMinor: 20_000,
+      currency: 'EUR',
+      setByName: 'manager-ac',
+    });
     expect(res.body.warnings).toEqual(['USD → EUR: no rate for 2026-03']);
     expect(april).toMatchObject({ spentMinor: 7000, spendComplete: true, varianceMinor: 3000, percentUsed: 70 });
     await ExchangeRate.create({
