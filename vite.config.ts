@@ -2,13 +2,29 @@ import { defineConfig } from 'vitest/config';
 import { defaultClientConditions, defaultServerConditions } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
+import { constants as zlib } from 'node:zlib';
+import { compression, defineAlgorithm } from 'vite-plugin-compression2';
 
 const apiPort = process.env.PORT ?? '3000';
 
 // Vite's root is the repository root: index.html loads apps/web/src/main.tsx. The same file holds the
 // vitest projects so every workspace's tests run from one place.
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  // The build also writes each text file compressed beside itself (.gz and .br), for the API to send to browsers
+  // that accept them: a phone on the plant's Wi-Fi downloads the app's 155 kB of gzip, not its 520 kB.
+  plugins: [
+    react(),
+    tailwindcss(),
+    // Brotli at quality 9 rather than 11: about 7 % larger, for a quarter of the time it adds to the build.
+    compression({
+      algorithms: [
+        defineAlgorithm('gzip', { level: 9 }),
+        defineAlgorithm('brotliCompress', { params: { [zlib.BROTLI_PARAM_QUALITY]: 9 } }),
+      ],
+      threshold: 1024,
+      logLevel: 'silent',
+    }),
+  ],
   // 'source' points workspace packages at their TypeScript (packages/domain exports it); setting conditions
   // replaces Vite's defaults, so they are listed again.
   resolve: { conditions: ['source', ...defaultClientConditions] },

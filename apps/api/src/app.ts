@@ -3,6 +3,7 @@ import path from 'node:path';
 import express, { Router, type Express } from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
+import expressStaticGzip from 'express-static-gzip';
 import passportModule from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { pinoHttp } from 'pino-http';
@@ -277,9 +278,30 @@ export function createApp(deps: AppDeps): Express {
     const root = path.resolve(deps.webDist);
     // Source maps are not served: the build emits none, and one left in the folder stays private.
     app.use((req, res, next) => (req.path.endsWith('.map') ? res.status(404).end() : next()));
-    app.use(express.static(root, { index: false, maxAge: '1h' }));
+    // The build writes each text file also as .br and .gz; a browser that accepts one gets it (Content-Encoding,
+    // Vary). Files under assets/ carry a hash of their content in their name, so a browser keeps them for good;
+    // index.html (sent below) is asked for again each time, so a new build is seen at the next page load.
+    app.use(
+      expressStaticGzip(root, {
+        enableBrotli: true,
+        orderPreference: ['br', 'gz'],
+        index: false,
+        serveStatic: {
+          index: false,
+          setHeaders: (res, file) =>
+            res.setHeader(
+              'Cache-Control',
+              path.relative(root, file).startsWith(`assets${path.sep}`)
+                ? 'public, max-age=31536000, immutable'
+                : 'public, max-age=3600',
+            ),
+        },
+      }),
+    );
     // Every other path is a page of the single-page app.
-    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(root, 'index.html')));
+    app.get('/{*splat}', (_req, res) =>
+      res.sendFile(path.join(root, 'index.html'), { headers: { 'Cache-Control': 'no-cache' } }),
+    );
   }
 
   app.use(errorHandler);

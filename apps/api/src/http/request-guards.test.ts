@@ -3,7 +3,8 @@ import { mkdtempSync, mkdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
-import { gzipSync } from 'node:zlib';
+import { request as httpRequest } from 'node:http';
+import { brotliCompressSync, brotliDecompressSync, gunzipSync, gzipSync } from 'node:zlib';
 import supertest from 'supertest';
 import { signedInAgent, startTestApp, type TestContext } from '../test-support/test-db.js';
 import { buildWorld, PASSWORD, type World } from '../test-support/fixtures.js';
@@ -213,6 +214,77 @@ describe('answers', () => {
       const map = await supertest(served.app).get('/assets/main.js.map');
       expect(map.status).toBe(404);
       expect(map.text).not.toContain('secret.ts');
+    } finally {
+      await served.close();
+    }
+  });
+});
+
+describe('the web app’s files', () => {
+  /** One GET on a listening copy of the app, the body as the bytes sent (not decompressed). */
+  async function rawGet(app: TestContext['app'], url: string, acceptEncoding: string | null) {
+    const server = app.listen(0, '127.0.0.1');
+    await new Promise((r) => server.once('listening', r));
+    try {
+      const { port } = server.address() as AddressInfo;
+      return await new Promise<{ status: number; headers: Record<string, unknown>; body: Buffer }>(
+        (resolve, reject) => {
+          const req = httpRequest(
+            {
+              host: '127.0.0.1',
+              port,
+              path: url,
+              headers: acceptEncoding ? { 'accept-encoding': acceptEncoding } : {},
+            },
+            (res) => {
+              const chunks: Buffer[] = [];
+              res.on('data', (c: Buffer) => chunks.push(c));
+              res.on('end', () =>
+                resolve({ status: res.statusCode!, headers: res.headers, body: Buffer.concat(chunks) }),
+              );
+            },
+          );
+          req.on('error', reject);
+          req.end();
+        },
+      );
+    } finally {
+      server.close();
+    }
+  }
+
+  it('are sent compressed to a browser that accepts it, kept for good when their name holds a hash, and the page asked for again', async () => {
+    const dist = mkdtempSync(path.join(tmpdir(), 'kerfline-web-'));
+    mkdirSync(path.join(dist, 'assets'));
+    writeFileSync(path.join(dist, 'index.html'), '<!doctype html><title>Kerfline</title>');
+    const script = Buffer.from('export const blades = "' + 'band saw blade '.repeat(400) + '";\n');
+    writeFileSync(path.join(dist, 'assets', 'main-3f9a.js'), script);
+    writeFileSync(path.join(dist, 'assets', 'main-3f9a.js.gz'), gzipSync(script));
+    writeFileSync(path.join(dist, 'assets', 'main-3f9a.js.br'), brotliCompressSync(script));
+    const served = startTestApp({ webDist: dist });
+    try {
+      const br = await rawGet(served.app, '/assets/main-3f9a.js', 'gzip, deflate, br');
+      expect(br.status).toBe(200);
+      expect(br.headers['content-encoding']).toBe('br');
+      expect(br.headers['content-type']).toMatch(/^(text|application)\/javascript/);
+      expect(String(br.headers.vary)).toMatch(/accept-encoding/i);
+      expect(br.headers['cache-control']).toBe('public, max-age=31536000, immutable');
+      expect(br.body.length).toBeLessThan(script.length / 10);
+      expect(brotliDecompressSync(br.body).equals(script)).toBe(true);
+
+      const gz = await rawGet(served.app, '/assets/main-3f9a.js', 'gzip');
+      expect(gz.headers['content-encoding']).toBe('gzip');
+      expect(gunzipSync(gz.body).equals(script)).toBe(true);
+
+      const plain = await rawGet(served.app, '/assets/main-3f9a.js', null);
+      expect(plain.headers['content-encoding']).toBeUndefined();
+      expect(plain.body.equals(script)).toBe(true);
+
+      // A page of the app is index.html, revalidated each time so that a new build shows at the next load.
+      const page = await rawGet(served.app, '/fleet/overview', 'gzip, br');
+      expect(page.status).toBe(200);
+      expect(page.body.toString()).toContain('<title>Kerfline</title>');
+      expect(page.headers['cache-control']).toBe('no-cache');
     } finally {
       await served.close();
     }
