@@ -126,10 +126,13 @@ describe('the budgets page', () => {
       expect(within(table).getByRole('columnheader', { name: 'Budget (USD)' })).toBeInTheDocument();
 
       const october = within(table).getByRole('row', { name: /Oct 2026/ });
-      // Money under a thousand keeps its cents; a share is shown to the whole per cent (108.75 → 109).
-      expect(october).toHaveTextContent('▲ $350.00 over');
+      // One precision for the whole table: its budgets are thousands, so no amount shows cents, and a row adds up
+      // as read ($4,000 − $4,350 = $350 over). A share is shown to the whole per cent (108.75 → 109).
+      expect(october).toHaveTextContent('$4,350');
+      expect(october).toHaveTextContent('▲ $350 over');
+      expect(october).not.toHaveTextContent('.00');
       expect(october).toHaveTextContent('109 %');
-      expect(within(table).getByRole('row', { name: /Nov 2026/ })).toHaveTextContent('$900.00 under');
+      expect(within(table).getByRole('row', { name: /Nov 2026/ })).toHaveTextContent('$900 under');
       const december = within(table).getByRole('row', { name: /Dec 2026/ });
       expect(december).toHaveTextContent('in progress (40 % gone)');
       expect(december).toHaveTextContent('$4,500 (over budget)');
@@ -178,10 +181,37 @@ describe('the budgets page', () => {
       });
       const table = await screen.findByRole('table', { name: /Blade budget and spend of Holt Bar Works/ });
       expect(within(table).getByRole('row', { name: /Oct 2026/ })).toHaveTextContent('$4,000');
-      expect(within(table).getByRole('row', { name: /Oct 2026/ })).toHaveTextContent('$350.00 over');
+      expect(within(table).getByRole('row', { name: /Oct 2026/ })).toHaveTextContent('$350 over');
       expect(within(table).queryByRole('textbox')).not.toBeInTheDocument();
       expect(within(table).queryByRole('button', { name: 'Save' })).not.toBeInTheDocument();
       expect(screen.getByRole('button', { name: 'Export CSV' })).toBeInTheDocument();
+    },
+    ROUTER_TEST_MS,
+  );
+
+  it(
+    'keeps the cents of a site whose amounts are all under a thousand',
+    async () => {
+      const status = holtStatus();
+      const site = status.sites[0]!;
+      site.months = [
+        month({
+          month: '2026-10',
+          budget: budget('2026-10', 50_000),
+          spentMinor: 46_668,
+          varianceMinor: 3332,
+          percentUsed: 93.336,
+        }),
+      ];
+      Object.assign(site, { budgetMinor: 50_000, spentMinor: 46_668, budgetedMonths: 1, varianceMinor: 3332 });
+      renderAt('regional_lead', '/budgets?from=2026-10&to=2026-10', {
+        'GET /api/budgets': { status: 200, body: status },
+      });
+      const table = await screen.findByRole('table', { name: /Blade budget and spend of Holt Bar Works/ });
+      const october = within(table).getByRole('row', { name: /Oct 2026/ });
+      expect(october).toHaveTextContent('$500.00');
+      expect(october).toHaveTextContent('$466.68');
+      expect(october).toHaveTextContent('$33.32 under');
     },
     ROUTER_TEST_MS,
   );

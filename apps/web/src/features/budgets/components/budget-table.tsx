@@ -18,11 +18,13 @@ function BudgetCell({
   siteId,
   month,
   currency,
+  cents,
   canSet,
 }: {
   siteId: string;
   month: Month;
   currency: string;
+  cents: boolean;
   canSet: boolean;
 }) {
   const set = useSetBudget();
@@ -33,7 +35,7 @@ function BudgetCell({
     return (
       <>
         {month.budget ? (
-          formatMoney(month.budget.amountMinor, currency, { cents: 'auto' })
+          formatMoney(month.budget.amountMinor, currency, { cents })
         ) : (
           <span className="text-ink-muted">Not set</span>
         )}
@@ -82,10 +84,22 @@ function BudgetCell({
   );
 }
 
+/**
+ * Whether a site's table shows cents: only when every amount in it is under a thousand. One precision for the
+ * whole table, so that a row adds up as read (a budget of $3,300 and a spend of $3,123 leave $177, not $176.68).
+ */
+export function tableShowsCents(status: SiteStatus, currency: string): boolean {
+  const amounts = [status.budgetMinor, status.spentMinor, status.varianceMinor ?? 0];
+  for (const m of status.months)
+    amounts.push(m.budget?.amountMinor ?? 0, m.spentMinor, m.varianceMinor ?? 0, m.projectedMinor ?? 0);
+  return amounts.every((minor) => Math.abs(minorToMajor(minor, currency)) < 1000);
+}
+
 /** One site's months: budget (editable by managers and administrators), spend, variance, use, projection. */
 export function BudgetTable({ status, asOfLabel }: { status: SiteStatus; asOfLabel: string }) {
   const ability = useAppAbility();
   const currency = status.site.currency;
+  const cents = tableShowsCents(status, currency);
   const canSet = ability.can('update', subject('Budget', { id: '', siteId: status.site.id }));
   return (
     <div className="overflow-x-auto">
@@ -119,11 +133,12 @@ export function BudgetTable({ status, asOfLabel }: { status: SiteStatus; asOfLab
                   siteId={status.site.id}
                   month={m}
                   currency={currency}
+                  cents={cents}
                   canSet={canSet}
                 />
               </td>
               <td className="tabular px-2 py-1 whitespace-nowrap">
-                {formatMoney(m.spentMinor, currency, { cents: 'auto' })}
+                {formatMoney(m.spentMinor, currency, { cents })}
                 {m.spendComplete ? '' : ' *'}
               </td>
               <td className="tabular px-2 py-1 whitespace-nowrap">
@@ -132,10 +147,10 @@ export function BudgetTable({ status, asOfLabel }: { status: SiteStatus; asOfLab
                 ) : m.varianceMinor < 0 ? (
                   <span className="font-semibold text-signal-stop">
                     <span aria-hidden="true">▲ </span>
-                    {formatMoney(-m.varianceMinor, currency, { cents: 'auto' })} over
+                    {formatMoney(-m.varianceMinor, currency, { cents })} over
                   </span>
                 ) : (
-                  <span>{formatMoney(m.varianceMinor, currency, { cents: 'auto' })} under</span>
+                  <span>{formatMoney(m.varianceMinor, currency, { cents })} under</span>
                 )}
               </td>
               <td className="tabular px-2 py-1">{m.percentUsed === null ? '—' : `${formatNumber(m.percentUsed)} %`}</td>
@@ -145,7 +160,7 @@ export function BudgetTable({ status, asOfLabel }: { status: SiteStatus; asOfLab
                 ) : (
                   <span className={m.projectedOverBudget ? 'font-semibold text-signal-stop' : ''}>
                     {m.projectedOverBudget ? <span aria-hidden="true">▲ </span> : null}
-                    {formatMoney(m.projectedMinor, currency, { cents: 'auto' })}
+                    {formatMoney(m.projectedMinor, currency, { cents })}
                     {m.projectedOverBudget ? ' (over budget)' : ''}
                   </span>
                 )}
@@ -159,19 +174,19 @@ export function BudgetTable({ status, asOfLabel }: { status: SiteStatus; asOfLab
               Period
             </th>
             <td className="tabular px-2 py-2 font-semibold">
-              {formatMoney(status.budgetMinor, currency, { cents: 'auto' })}{' '}
+              {formatMoney(status.budgetMinor, currency, { cents })}{' '}
               <span className="font-normal text-ink-muted">({status.budgetedMonths} months set)</span>
             </td>
             <td className="tabular px-2 py-2 font-semibold">
-              {formatMoney(status.spentMinor, currency, { cents: 'auto' })}
+              {formatMoney(status.spentMinor, currency, { cents })}
               {status.spendComplete ? '' : ' *'}
             </td>
             <td className="tabular px-2 py-2 font-semibold" colSpan={3}>
               {status.varianceMinor === null
                 ? 'No budget set'
                 : status.varianceMinor < 0
-                  ? `${formatMoney(-status.varianceMinor, currency, { cents: 'auto' })} over in the months with a budget`
-                  : `${formatMoney(status.varianceMinor, currency, { cents: 'auto' })} under in the months with a budget`}
+                  ? `${formatMoney(-status.varianceMinor, currency, { cents })} over in the months with a budget`
+                  : `${formatMoney(status.varianceMinor, currency, { cents })} under in the months with a budget`}
             </td>
           </tr>
         </tfoot>
