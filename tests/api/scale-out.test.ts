@@ -101,6 +101,20 @@ describe('scale-out: nginx, two API processes, a streaming replica', () => {
     }
   });
 
+  it('compresses the API’s answers at the balancer, not in the API processes', async (ctx) => {
+    if (skipped) ctx.skip();
+    const cookie = await signIn(BALANCER, 'grace.okafor@corvane.example');
+    const headers = { cookie, 'accept-encoding': 'gzip' };
+    const balanced = await fetch(`${BALANCER}/api/fleet/overview`, { headers });
+    expect(balanced.status).toBe(200);
+    expect(balanced.headers.get('content-encoding')).toBe('gzip');
+    expect(((await balanced.json()) as { sites: unknown[] }).sites.length).toBeGreaterThan(0);
+    const direct = await fetch(`${PROCESSES[0]}/api/fleet/overview`, { headers });
+    expect(direct.status).toBe(200);
+    expect(direct.headers.get('content-encoding')).toBeNull();
+    await direct.arrayBuffer();
+  });
+
   it('reads others’ pages from the replica, and a person’s own write back from the primary at once', async (ctx) => {
     if (skipped) ctx.skip();
     const technician = await signIn(BALANCER, 'dale.pruitt@corvane.example');
