@@ -190,6 +190,31 @@ describe('the budgets page', () => {
   );
 
   it(
+    'projects the month in progress only once it has a spend',
+    async () => {
+      const status = holtStatus();
+      const site = status.sites[0]!;
+      site.months[2] = {
+        ...site.months[2]!,
+        spentMinor: 0,
+        varianceMinor: 400_000,
+        percentUsed: 0,
+        elapsedFraction: 0.07,
+        projectedMinor: 0,
+        projectedOverBudget: false,
+      };
+      renderAt('regional_lead', '/budgets?from=2026-10&to=2026-12', {
+        'GET /api/budgets': { status: 200, body: status },
+      });
+      const table = await screen.findByRole('table', { name: /Blade budget and spend of Holt Bar Works/ });
+      const december = within(table).getByRole('row', { name: /Dec 2026/ });
+      expect(december).toHaveTextContent('in progress (7 % gone)');
+      expect(december).toHaveTextContent('No spend yet');
+    },
+    ROUTER_TEST_MS,
+  );
+
+  it(
     'keeps the cents of a site whose amounts are all under a thousand',
     async () => {
       const status = holtStatus();

@@ -157,6 +157,9 @@ export function BudgetTable({ status, asOfLabel }: { status: SiteStatus; asOfLab
               <td className="tabular px-2 py-1 whitespace-nowrap">
                 {m.projectedMinor === null ? (
                   '—'
+                ) : m.spentMinor === 0 ? (
+                  // A rate of spending needs a spend: "$0 for the month" on its second day would read as a forecast.
+                  <span className="text-ink-muted">No spend yet</span>
                 ) : (
                   <span className={m.projectedOverBudget ? 'font-semibold text-signal-stop' : ''}>
                     {m.projectedOverBudget ? <span aria-hidden="true">▲ </span> : null}
