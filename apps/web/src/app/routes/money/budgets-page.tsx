@@ -53,7 +53,8 @@ export function BudgetsPage() {
         </div>
         <ExportButton path={exportPath('/budgets/export', q, units)} />
       </div>
-      <FleetFilters period={q} units={units} siteOptions={data?.sites.map((s) => s.site)} selectedSiteIds={q.sites} />
+      {/* Money alone: no areas to show in a unit system. */}
+      <FleetFilters period={q} siteOptions={data?.sites.map((s) => s.site)} selectedSiteIds={q.sites} />
       {data ? <RateWarning warnings={data.warnings} canEnterRates={ability.can('update', 'ExchangeRate')} /> : null}
       {status.isError && !data ? <Notice title="The budgets could not be loaded">{status.error.message}</Notice> : null}
       {!data ? (

@@ -183,6 +183,9 @@ describe('the budgets page', () => {
       expect(within(table).getByRole('row', { name: /Oct 2026/ })).toHaveTextContent('$4,000');
       expect(within(table).getByRole('row', { name: /Oct 2026/ })).toHaveTextContent('$350 over');
       expect(within(table).queryByRole('textbox')).not.toBeInTheDocument();
+      // Money alone: a period to choose, no unit system.
+      expect(screen.getByRole('button', { name: 'Last 3 months' })).toBeInTheDocument();
+      expect(screen.queryByRole('group', { name: 'Units' })).not.toBeInTheDocument();
       expect(within(table).queryByRole('button', { name: 'Save' })).not.toBeInTheDocument();
       expect(screen.getByRole('button', { name: 'Export CSV' })).toBeInTheDocument();
     },

@@ -45,7 +45,8 @@ export function FleetFilters({
   selectedSiteIds,
 }: {
   period: MonthPeriod;
-  units: UnitSystem;
+  /** Omit to hide the unit choice (a screen of money alone, such as budgets). */
+  units?: UnitSystem;
   /** Omit to hide the site picker (a site's or a saw's own page). */
   siteOptions?: SiteOption[];
   selectedSiteIds?: string[];
@@ -131,27 +132,29 @@ export function FleetFilters({
             );
           })}
         </div>
-        <fieldset className="flex items-center gap-2">
-          <legend className="sr-only">Units</legend>
-          <span aria-hidden="true" className="text-sm font-semibold text-ink">
-            Units
-          </span>
-          {(['imperial', 'metric'] as const).map((system) => (
-            <label
-              key={system}
-              className="flex min-h-11 cursor-pointer items-center gap-2 rounded-sheet border border-ink-muted px-3 text-sm font-semibold has-checked:border-accent has-checked:bg-accent-soft"
-            >
-              <input
-                type="radio"
-                name={`${id}-units`}
-                className="size-4 accent-accent"
-                checked={units === system}
-                onChange={() => setUnits(system)}
-              />
-              {system === 'imperial' ? 'Imperial (in², ft²)' : 'Metric (cm², m²)'}
-            </label>
-          ))}
-        </fieldset>
+        {units ? (
+          <fieldset className="flex items-center gap-2">
+            <legend className="sr-only">Units</legend>
+            <span aria-hidden="true" className="text-sm font-semibold text-ink">
+              Units
+            </span>
+            {(['imperial', 'metric'] as const).map((system) => (
+              <label
+                key={system}
+                className="flex min-h-11 cursor-pointer items-center gap-2 rounded-sheet border border-ink-muted px-3 text-sm font-semibold has-checked:border-accent has-checked:bg-accent-soft"
+              >
+                <input
+                  type="radio"
+                  name={`${id}-units`}
+                  className="size-4 accent-accent"
+                  checked={units === system}
+                  onChange={() => setUnits(system)}
+                />
+                {system === 'imperial' ? 'Imperial (in², ft²)' : 'Metric (cm², m²)'}
+              </label>
+            ))}
+          </fieldset>
+        ) : null}
       </div>
       {siteOptions && siteOptions.length > 1 ? (
         <fieldset className="mt-4 border-t border-rule pt-3">
