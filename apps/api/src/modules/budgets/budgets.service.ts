@@ -16,14 +16,18 @@ import { fleetSite, fleetSites, moneyParts, periodStartsBy, rateWarnings } from 
 import { rateLookup, reportingCurrency } from '../exchange-rates/rates.js';
 import { Budget } from './budget.model.js';
 
-function toDto(b: Attributes<Budget>, names: Map<string, string>): BudgetDto {
+/** A budget as the API gives it; `setByName` is the name of who set it (null when unknown). */
+function toDto(
+  b: Pick<Attributes<Budget>, 'id' | 'siteId' | 'month' | 'amountMinor' | 'currency' | 'updatedAt'>,
+  setByName: string | null,
+): BudgetDto {
   return {
     id: b.id,
     siteId: b.siteId,
     month: b.month.slice(0, 7),
     amountMinor: Number(b.amountMinor),
     currency: b.currency.trim(),
-    setByName: b.setById ? (names.get(b.setById) ?? null) : null,
+    setByName,
     updatedAt: b.updatedAt.toISOString(),
   };
 }
@@ -60,15 +64,8 @@ async function budgetsOf(ability: AppAbility, siteIds: string[], period: MonthPe
   );
   const out = new Map<string, BudgetDto>();
   for (const r of rows) {
-    out.set(`${r.site_id}|${r.month}`, {
-      id: r.id,
-      siteId: r.site_id,
-      month: r.month,
-      amountMinor: Number(r.amount_minor),
-      currency: r.currency.trim(),
-      setByName: r.set_by_name,
-      updatedAt: r.updated_at.toISOString(),
-    });
+    const budget = { id: r.id, siteId: r.site_id, month: r.month, amountMinor: r.amount_minor, currency: r.currency };
+    out.set(`${r.site_id}|${r.month}`, toDto({ ...budget, updatedAt: r.updated_at }, r.set_by_name));
   }
   return out;
 }
@@ -201,7 +198,8 @@ export async function putBudget(
     return created;
   });
   await saved.reload();
-  return toDto(saved, await namesOf([saved.setById]));
+  const names = await namesOf([saved.setById]);
+  return toDto(saved, saved.setById ? (names.get(saved.setById) ?? null) : null);
 }
 
 export async function deleteBudget({ ability, userId }: Actor, siteId: string, month: string): Promise<void> {

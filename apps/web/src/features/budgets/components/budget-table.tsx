@@ -88,7 +88,7 @@ function BudgetCell({
  * Whether a site's table shows cents: only when every amount in it is under a thousand. One precision for the
  * whole table, so that a row adds up as read (a budget of $3,300 and a spend of $3,123 leave $177, not $176.68).
  */
-export function tableShowsCents(status: SiteStatus, currency: string): boolean {
+function tableShowsCents(status: SiteStatus, currency: string): boolean {
   const amounts = [status.budgetMinor, status.spentMinor, status.varianceMinor ?? 0];
   for (const m of status.months)
     amounts.push(m.budget?.amountMinor ?? 0, m.spentMinor, m.varianceMinor ?? 0, m.projectedMinor ?? 0);
