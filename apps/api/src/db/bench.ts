@@ -10,6 +10,10 @@
  *     statements as bare SQL on the same data: the statements the service runs are captured (every query the
  *     pg driver sends while an in-process copy of the app answers the request, less those every signed-in request
  *     sends: the session and the person), then replayed on one connection, timed the same way. Ratio = HTTP ÷ SQL.
+ *     Over the 1.5× target, also the bare HTTP server (bench-bare-server.ts): no framework, the session's statement,
+ *     then the endpoint's statements all at once, and the API's own answer sent ready made. It is the least any
+ *     server that checks the session in the database could take, asked by the same client; on the floor (`/api/me`)
+ *     the difference from the API is what the API's stack (Express, the session, passport, CASL) costs a request.
  * (b) The import of 100 000 rows beside COPY (bench-import.ts, run as it is).
  * (c) autocannon on the overview (or the saw list where the overview is absent): 50 connections for 10 s,
  *     requests/s, p99 and errors; with --scale-out also through the nginx of scale-out.sh (two API processes).
@@ -216,15 +220,16 @@ async function signIn(base: string, email: string): Promise<string> {
     .join('; ');
 }
 
-async function captured(base: string, cookie: string, p: string): Promise<{ status: number; statements: Statement[] }> {
+type Captured = { status: number; statements: Statement[]; body: Buffer; contentType: string };
+async function captured(base: string, cookie: string, p: string): Promise<Captured> {
   capturing = [];
   const res = await fetch(`${base}${p}`, { headers: { cookie } });
-  await res.arrayBuffer();
+  const body = Buffer.from(await res.arrayBuffer());
   // The session store writes after the answer: let it finish so it is not counted with the next request.
   await new Promise((r) => setTimeout(r, 50));
   const statements = capturing;
   capturing = null;
-  return { status: res.status, statements };
+  return { status: res.status, statements, body, contentType: res.headers.get('content-type') ?? 'application/json' };
 }
 
 // ---------------------------------------------------------------------------------------------------------------
@@ -265,6 +270,26 @@ const stopApi = () => apiProcess.kill('SIGTERM');
 process.on('exit', stopApi);
 await waitUp(api);
 
+// The bare HTTP server (bench-bare-server.ts), its own process as the API is: for a read over the ratio target,
+// the least any server that checks the session in the database could take for the same statements.
+const barePort = Number(process.env.BENCH_BARE_PORT ?? 3236);
+const bareServerUrl = `http://127.0.0.1:${barePort}`;
+const bareServer =
+  loadOnly || webOnly
+    ? null
+    : spawn(process.execPath, ['--import', 'tsx', path.join(ROOT, 'apps/api/src/db/bench-bare-server.ts')], {
+        cwd: ROOT,
+        env: { ...process.env, DATABASE_URL: url, BENCH_BARE_PORT: String(barePort) },
+        stdio: ['ignore', 'pipe', 'inherit'],
+      });
+if (bareServer) {
+  process.on('exit', () => bareServer.kill('SIGTERM'));
+  await new Promise<void>((resolve, reject) => {
+    bareServer.stdout!.on('data', (d: Buffer) => d.toString().includes('listening') && resolve());
+    bareServer.once('exit', (code) => reject(new Error(`the bare HTTP server ended (${code})`)));
+  });
+}
+
 const startLoad = load();
 console.log(
   `\nKerfline benchmark on ${env.PGDATABASE} — ${cpus()[0]?.model} × ${cpus().length}, load average ${startLoad.join(' / ')}`,
@@ -287,6 +312,8 @@ type EndpointResult = Endpoint & {
   ratio?: number;
   meetsP95?: boolean;
   meetsRatio?: boolean;
+  /** Over the ratio target: the bare HTTP server's time for the same statements, and its ratio to the bare SQL. */
+  bareServer?: Stats & { ratio: number };
 };
 const results: EndpointResult[] = [];
 const statementsOf = new Map<string, Statement[]>();
@@ -314,13 +341,14 @@ for (const endpoint of loadOnly || webOnly ? [] : endpoints.filter((e) => !only 
 
   // An endpoint slower than a second gets HEAVY_REPEATS requests after one warm-up (the run stays in minutes); one
   // under 100 ms gets FAST_REPEATS after FAST_WARMUPS. The bare SQL is warmed and repeated alike.
-  const request = async () => {
+  const timedGet = async (base: string) => {
     const t = performance.now();
-    const res = await fetch(`${api}${endpoint.path}`, { headers: { cookie: cookies[endpoint.who]! } });
+    const res = await fetch(`${base}${endpoint.path}`, { headers: { cookie: cookies[endpoint.who]! } });
     await res.arrayBuffer();
-    if (!res.ok) throw new Error(`${endpoint.path} answered ${res.status} from the API process`);
+    if (!res.ok) throw new Error(`${endpoint.path} answered ${res.status} from ${base}`);
     return performance.now() - t;
   };
+  const request = () => timedGet(api);
   const first = await request();
   const fast = first < 100;
   const repeats = first > 1000 ? HEAVY_REPEATS : fast ? FAST_REPEATS : REPEATS;
@@ -337,6 +365,26 @@ for (const endpoint of loadOnly || webOnly ? [] : endpoints.filter((e) => !only 
   const http = stats(httpTimes);
   const bare = stats(sqlTimes);
   const ratio = bare.medianMs > 0 ? round(http.medianMs / bare.medianMs) : 0;
+  // Over the target: the same client asks the bare HTTP server for the same statements, timed the same way.
+  let bareServerStats: EndpointResult['bareServer'];
+  // For the floor itself (whose statements are the session's), the difference is what the API's stack costs a request.
+  if (ratio > 1.5 && bareServer) {
+    const given = await fetch(bareServerUrl, {
+      method: 'POST',
+      body: JSON.stringify({
+        session: endpoint.floor ? [] : baseline.statements,
+        own: statements,
+        answer: got.body.toString('base64'),
+        contentType: got.contentType,
+      }),
+    });
+    if (!given.ok) throw new Error(`the bare HTTP server refused the statements of ${endpoint.path}`);
+    for (let i = 0; i < warmups + 1; i += 1) await timedGet(bareServerUrl);
+    const times: number[] = [];
+    for (let i = 0; i < repeats; i += 1) times.push(await timedGet(bareServerUrl));
+    const s = stats(times);
+    bareServerStats = { ...s, ratio: bare.medianMs > 0 ? round(s.medianMs / bare.medianMs) : 0 };
+  }
   results.push({
     ...endpoint,
     status: 200,
@@ -346,13 +394,20 @@ for (const endpoint of loadOnly || webOnly ? [] : endpoints.filter((e) => !only 
     ratio,
     meetsP95: http.p95Ms <= 300,
     meetsRatio: ratio <= 1.5,
+    ...(bareServerStats ? { bareServer: bareServerStats } : {}),
   });
   console.log(
     `${endpoint.name.padEnd(42)} HTTP ${String(http.medianMs).padStart(7)} / ${String(http.p95Ms).padStart(7)} ms` +
       `   SQL ${String(bare.medianMs).padStart(7)} / ${String(bare.p95Ms).padStart(7)} ms (${statements.length})` +
       `   ×${ratio.toFixed(1)}   load ${load()[0]}`,
   );
+  if (bareServerStats)
+    console.log(
+      `${''.padEnd(42)} bare HTTP server ${bareServerStats.medianMs} / ${bareServerStats.p95Ms} ms` +
+        `   ×${bareServerStats.ratio.toFixed(1)} (the least any server checking the session in the database takes)`,
+    );
 }
+bareServer?.kill('SIGTERM');
 captureServer.close();
 await Promise.allSettled([captureSequelize.close(), capturePool.end()]);
 
