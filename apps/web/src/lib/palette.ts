@@ -1,7 +1,8 @@
 /**
  * Colours for sites on charts: the Okabe–Ito set (Okabe & Ito, "Color Universal Design", 2008), readable by the
- * common kinds of colour blindness, in a fixed order. A site's slot is its place among the user's sites, so it
- * keeps its colour on every chart; each slot also has its own point shape, so a line is told apart without colour.
+ * common kinds of colour blindness, in a fixed order. A site's slot comes from the API (`siteMarkSlots` in the
+ * domain: its place among the company's sites), so it keeps its colour on every chart and for every reader; each
+ * slot also has its own point shape, so a line is told apart without colour (SITE_MARKS = 8 colours × 4 shapes).
  * Yellow comes last: it is the faintest on paper.
  */
 export const OKABE_ITO = [

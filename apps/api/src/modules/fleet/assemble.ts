@@ -11,6 +11,8 @@ import {
 } from '@kerfline/domain/money/currency';
 import { monthsOf, type Month, type MonthPeriod } from '@kerfline/domain/fleet/period';
 import type { Figures, FleetSite } from '@kerfline/domain/fleet/schema';
+import { siteMarkSlots } from '@kerfline/domain/fleet/site-marks';
+import { literal } from 'sequelize';
 import { scopedWhere } from '../../authz/sequelize-scope.js';
 import { Site } from '../sites/site.model.js';
 import type { MoneyRow, RawFigures } from './fleet-figures.js';
@@ -163,10 +165,16 @@ export function rateWarnings(missing: UnconvertedPart[], reporting: string): str
 export const periodMonths = (p: MonthPeriod): Month[] => monthsOf(p);
 
 /**
- * The sites the caller may read, in code order, with a colour slot each that stays the same on every chart
- * (the site's rank among all the caller's sites, retired ones included, so a filter never repaints a site).
- * `only` narrows to the sites asked for; sites retired before `activeFrom` are left out.
+ * The sites the caller may read, in code order, with a mark slot each (`siteMarkSlots`): from the site's place
+ * among all the company's sites in the order they were added, so every reader sees a site with the same colour and
+ * shape, and slots are given over the caller's whole list (retired sites included) so a filter never repaints a site.
+ * Only the place's count is read of sites outside the caller's scope. `only` narrows to the sites asked for; sites
+ * retired before `activeFrom` are left out.
  */
+/** How many of the company's sites were added before this one (sites added together in code order). */
+const ADDED_PLACE = `(SELECT count(*)::int FROM sites o
+  WHERE (o.created_at, o.code, o.id) < ("Site"."created_at", "Site"."code", "Site"."id"))`;
+
 export async function fleetSites(
   ability: AppAbility,
   options: { only?: string[] | undefined; activeFrom?: Date } = {},
@@ -174,15 +182,26 @@ export async function fleetSites(
   // Plain rows of the columns used: every fleet read starts here, and 60 model instances a request add up.
   const all = await Site.findAll({
     where: scopedWhere(ability, 'read', 'Site', Site),
-    attributes: ['id', 'code', 'name', 'regionId', 'currency', 'unitSystem', 'timeZone', 'retiredAt'],
+    attributes: [
+      'id',
+      'code',
+      'name',
+      'regionId',
+      'currency',
+      'unitSystem',
+      'timeZone',
+      'retiredAt',
+      [literal(ADDED_PLACE), 'place'],
+    ],
     order: [
       ['code', 'ASC'],
       ['id', 'ASC'],
     ],
     raw: true,
   });
+  const slots = siteMarkSlots(all.map((s) => (s as typeof s & { place: number }).place));
   return all
-    .map((s, i) => ({ s, i }))
+    .map((s, i) => ({ s, i: slots[i]! }))
     .filter(({ s }) => !options.only || options.only.includes(s.id))
     .filter(({ s }) => !s.retiredAt || !options.activeFrom || s.retiredAt.getTime() > options.activeFrom.getTime())
     .map(({ s, i }) => ({

@@ -56,6 +56,21 @@ describe('GET /api/fleet/overview', () => {
     expect(only.body.sites.map((s: { site: { colourIndex: number } }) => s.site.colourIndex)).toEqual([2]);
   });
 
+  it('shows a site with the same mark to everyone who reads it', async () => {
+    // The sites were added A, B, C: their marks are 0, 1 and 2 for the manager, who reads them all…
+    const mark = (body: { sites: { site: { code: string; colourIndex: number } }[] }) =>
+      Object.fromEntries(body.sites.map((s) => [s.site.code, s.site.colourIndex]));
+    const manager = await agents.managerAll!.get(`/api/fleet/overview?${Q}`).expect(200);
+    expect(mark(manager.body)).toEqual({ A: 0, B: 1, C: 2 });
+    // …and C stays 2 for its technician, who reads C alone (it was the first of their list, 0, before).
+    const tech = await agents.techC!.get(`/api/fleet/overview?${Q}`).expect(200);
+    expect(mark(tech.body)).toEqual({ C: 2 });
+    const lead = await agents.leadNorth!.get(`/api/fleet/overview?${Q}`).expect(200);
+    expect(mark(lead.body)).toEqual({ A: 0, B: 1 });
+    const site = await agents.techC!.get(`/api/fleet/sites/${fx.world.sites.C.id}?${Q}`).expect(200);
+    expect(site.body.site.colourIndex).toBe(2);
+  });
+
   it('keeps every figure inside the caller’s scope', async () => {
     const lead = await agents.leadNorth!.get(`/api/fleet/overview?${Q}`).expect(200);
     expect(lead.body.sites.map((s: { site: { code: string } }) => s.site.code)).toEqual(['A', 'B']);
