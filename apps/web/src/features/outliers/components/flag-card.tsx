@@ -44,7 +44,8 @@ export function FlagCard({
         </div>
         {followUp}
       </div>
-      <dl className="mt-2 grid grid-cols-2 gap-3 sm:grid-cols-4">
+      {/* Four abreast on a card as wide as the page; two where cards stand two abreast, so "17.5 h per 1,000 h" keeps to a line. */}
+      <dl className="mt-2 grid grid-cols-2 gap-3 sm:grid-cols-4 lg:grid-cols-2">
         <div>
           <dt className="text-xs font-semibold text-ink-muted uppercase">This saw</dt>
           <dd className="tabular font-bold">{peerValueText(flag.metric, flag.value, currency, units)}</dd>
