@@ -122,7 +122,7 @@ export const figuresSchema = z.object({
 });
 export type Figures = z.infer<typeof figuresSchema>;
 
-/** A site as the fleet screens name it, with its fixed colour slot (its rank by code among the caller's sites). */
+/** A site as the fleet screens name it, with its mark slot (`siteMarkSlots`: the same for every reader of the site). */
 export const fleetSiteSchema = z.object({
   id: idSchema,
   code: z.string(),

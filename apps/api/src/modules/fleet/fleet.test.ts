@@ -51,7 +51,7 @@ describe('GET /api/fleet/overview', () => {
     expect(res.body.warnings).toEqual(['USD → EUR: no rate for 2026-04']);
     // Months per site: 3 sites × 2 months.
     expect(res.body.months).toHaveLength(6);
-    // Colours follow each site's place among the caller's sites, whatever the filter.
+    // A site keeps its mark whatever the filter.
     const only = await agents.managerAll!.get(`/api/fleet/overview?${Q}&sites=${fx.world.sites.C.id}`).expect(200);
     expect(only.body.sites.map((s: { site: { colourIndex: number } }) => s.site.colourIndex)).toEqual([2]);
   });
