@@ -182,9 +182,12 @@ export async function checksPractice(
         ) x
        GROUP BY ch.site_id
     ),
-    finished AS (
+    finished AS MATERIALIZED (
       -- Each blade taken off in the period (area recorded) to which a blade-change check applied (one whose terms
       -- began before it came off): were all of those done on time? Saw by saw, with the saw's first records.
+      -- Materialized so that the sort by site below carries each blade's site, area and verdict only: inlined, the
+      -- verdict was worked out after the sort, which then carried the saw's arrays of terms with every blade (a
+      -- year of the fleet: 148 000 rows, 15.8 MB sorted on disk; now 14.5 MB in memory, the lives 240 → 209 ms).
       SELECT ch.site_id, x.area_cut_mm2, x.on_time
         FROM changing ch
         CROSS JOIN LATERAL (
