@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { SITE_MARKS, siteMarkSlots } from './site-marks';
+import { SITE_MARKS, siteMarkSlots } from './site-marks.js';
 
 describe('siteMarkSlots', () => {
   it('gives a site its place in the company list, whoever reads it', () => {
