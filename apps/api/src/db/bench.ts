@@ -365,9 +365,9 @@ for (const endpoint of loadOnly || webOnly ? [] : endpoints.filter((e) => !only 
   const http = stats(httpTimes);
   const bare = stats(sqlTimes);
   const ratio = bare.medianMs > 0 ? round(http.medianMs / bare.medianMs) : 0;
-  // Over the target: the same client asks the bare HTTP server for the same statements, timed the same way.
+  // Over the target: the same client asks the bare HTTP server for the same statements, timed the same way. On the
+  // floor itself (whose statements are the session's), the difference is what the API's stack costs a request.
   let bareServerStats: EndpointResult['bareServer'];
-  // For the floor itself (whose statements are the session's), the difference is what the API's stack costs a request.
   if (ratio > 1.5 && bareServer) {
     const given = await fetch(bareServerUrl, {
       method: 'POST',
