@@ -64,8 +64,8 @@ async function budgetsOf(ability: AppAbility, siteIds: string[], period: MonthPe
   );
   const out = new Map<string, BudgetDto>();
   for (const r of rows) {
-    const budget = { id: r.id, siteId: r.site_id, month: r.month, amountMinor: r.amount_minor, currency: r.currency };
-    out.set(`${r.site_id}|${r.month}`, toDto({ ...budget, updatedAt: r.updated_at }, r.set_by_name));
+    const { id, site_id: siteId, month, amount_minor: amountMinor, currency, updated_at: updatedAt } = r;
+    out.set(`${siteId}|${month}`, toDto({ id, siteId, month, amountMinor, currency, updatedAt }, r.set_by_name));
   }
   return out;
 }
@@ -74,8 +74,8 @@ async function budgetsOf(ability: AppAbility, siteIds: string[], period: MonthPe
  * Spend against budget per site and month, in each site's own currency. Spend is the SQL sum of the blades put on
  * in the month (cost fixed at install); a blade bought in another currency is converted through the reporting
  * currency at that month's rates, and a missing rate marks the month. The month in progress is projected with
- * the domain's `bladeSpendAgainstBudget` (spend so far ÷ share of the month gone); its input is built here from
- * checked values (one currency, whole minor units, a month's bounds), so it is not checked again 720 times.
+ * the core of the domain's `bladeSpendAgainstBudget`, `spendAgainstBudgetChecked` (spend so far ÷ share of the
+ * month gone); its input is built here from checked values (one currency, whole minor units, a month's bounds), so it is not checked again 720 times.
  */
 export async function getBudgetStatus(ability: AppAbility, q: FleetQuery, asOf = new Date()): Promise<BudgetStatus> {
   const period = { from: q.from, to: q.to };

@@ -24,6 +24,12 @@ function renderAt(role: Role, path: string, routes: Parameters<typeof installFak
   return { ...fake, router, user: userEvent.setup() };
 }
 
+/** A regional lead's budgets page for the period, answered with `status`; Holt Bar Works' table once it shows. */
+async function holtTableForLead(period: string, status: BudgetStatus) {
+  renderAt('regional_lead', `/budgets?${period}`, { 'GET /api/budgets': { status: 200, body: status } });
+  return screen.findByRole('table', { name: /Blade budget and spend of Holt Bar Works/ });
+}
+
 /** Whole-app tests load lazy pages through the router; on a busy machine they need more than 5 s. */
 const ROUTER_TEST_MS = 20_000;
 
@@ -176,10 +182,7 @@ describe('the budgets page', () => {
   it(
     'shows a regional lead the budgets and the variance, with nothing to change them',
     async () => {
-      renderAt('regional_lead', '/budgets?from=2026-10&to=2026-12', {
-        'GET /api/budgets': { status: 200, body: holtStatus() },
-      });
-      const table = await screen.findByRole('table', { name: /Blade budget and spend of Holt Bar Works/ });
+      const table = await holtTableForLead('from=2026-10&to=2026-12', holtStatus());
       expect(within(table).getByRole('row', { name: /Oct 2026/ })).toHaveTextContent('$4,000');
       expect(within(table).getByRole('row', { name: /Oct 2026/ })).toHaveTextContent('$350 over');
       expect(within(table).queryByRole('textbox')).not.toBeInTheDocument();
@@ -206,10 +209,7 @@ describe('the budgets page', () => {
         projectedMinor: 0,
         projectedOverBudget: false,
       };
-      renderAt('regional_lead', '/budgets?from=2026-10&to=2026-12', {
-        'GET /api/budgets': { status: 200, body: status },
-      });
-      const table = await screen.findByRole('table', { name: /Blade budget and spend of Holt Bar Works/ });
+      const table = await holtTableForLead('from=2026-10&to=2026-12', status);
       const december = within(table).getByRole('row', { name: /Dec 2026/ });
       expect(december).toHaveTextContent('in progress (7 % gone)');
       expect(december).toHaveTextContent('No spend yet');
@@ -232,10 +232,7 @@ describe('the budgets page', () => {
         }),
       ];
       Object.assign(site, { budgetMinor: 50_000, spentMinor: 46_668, budgetedMonths: 1, varianceMinor: 3332 });
-      renderAt('regional_lead', '/budgets?from=2026-10&to=2026-10', {
-        'GET /api/budgets': { status: 200, body: status },
-      });
-      const table = await screen.findByRole('table', { name: /Blade budget and spend of Holt Bar Works/ });
+      const table = await holtTableForLead('from=2026-10&to=2026-10', status);
       const october = within(table).getByRole('row', { name: /Oct 2026/ });
       expect(october).toHaveTextContent('$500.00');
       expect(october).toHaveTextContent('$466.68');
